@@ -1,0 +1,84 @@
+#!/usr/bin/env node
+import { InputError } from "../lightcurve/input-error.js";
+import { UsageError, type CliIo, type CliVerb } from "./cli-io.js";
+
+/** The verbs of the `horologium` command; each lives in `verbs/<name>.ts` and exports `verb: CliVerb`. */
+export const VERB_NAMES = [
+  "fit",
+  "predict",
+  "simulate",
+  "periodogram",
+  "compare",
+  "report",
+  "batch",
+  "demo",
+] as const;
+
+async function loadVerb(name: string): Promise<CliVerb | undefined> {
+  if (!(VERB_NAMES as readonly string[]).includes(name)) return undefined;
+  try {
+    const module = (await import(`./verbs/${name}.js`)) as { verb: CliVerb };
+    return module.verb;
+  } catch (error) {
+    if ((error as NodeJS.ErrnoException).code === "ERR_MODULE_NOT_FOUND") return undefined;
+    throw error;
+  }
+}
+
+async function topLevelHelp(): Promise<string> {
+  const lines = ["Usage: horologium <verb> [options]   (horologium <verb> --help for details)", "", "Verbs:"];
+  for (const name of VERB_NAMES) {
+    const verb = await loadVerb(name);
+    if (verb) lines.push(`  ${name.padEnd(12)} ${verb.summary}`);
+  }
+  return lines.join("\n") + "\n";
+}
+
+/**
+ * Runs the command line with explicit arguments and I/O; returns the exit code. Input and usage problems
+ * become one line on stderr (exit 2); anything else is an internal error (exit 1), still without a stack
+ * trace unless HOROLOGIUM_DEBUG is set.
+ */
+export async function runCli(argv: string[], io: CliIo): Promise<number> {
+  const [name, ...rest] = argv;
+  if (name === undefined || name === "--help" || name === "-h" || name === "help") {
+    io.stdout(await topLevelHelp());
+    return name === undefined ? 2 : 0;
+  }
+  if (name === "--version") {
+    io.stdout(`${HOROLOGIUM_VERSION}\n`);
+    return 0;
+  }
+  try {
+    const verb = await loadVerb(name);
+    if (!verb) throw new UsageError(`unknown verb "${name}" (try horologium --help)`);
+    return await verb.run(rest, io);
+  } catch (error) {
+    if (error instanceof InputError || error instanceof UsageError) {
+      io.stderr(`horologium ${name}: ${error.message}\n`);
+      return 2;
+    }
+    const message = error instanceof Error ? error.message : String(error);
+    io.stderr(`horologium ${name}: internal error: ${message}\n`);
+    if (io.env.HOROLOGIUM_DEBUG && error instanceof Error) io.stderr(`${error.stack}\n`);
+    return 1;
+  }
+}
+
+/** The package version, reported in results. */
+export const HOROLOGIUM_VERSION = "0.1.0";
+
+const invokedDirectly = process.argv[1] !== undefined && import.meta.url.endsWith(process.argv[1].replace(/\\/g, "/"));
+if (invokedDirectly || process.argv[1]?.endsWith("/horologium")) {
+  const io: CliIo = {
+    stdout: (text) => process.stdout.write(text),
+    stderr: (text) => process.stderr.write(text),
+    stderrIsTty: Boolean(process.stderr.isTTY),
+    env: process.env,
+    cwd: process.cwd(),
+    now: () => Date.now(),
+  };
+  runCli(process.argv.slice(2), io).then((code) => {
+    process.exitCode = code;
+  });
+}
