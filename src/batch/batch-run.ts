@@ -1,0 +1,251 @@
+import type { CatalogueObject } from "./catalogue-object.js";
+import { CsvResultsAppender, writeCsvTable } from "./csv-results-file.js";
+import { FitPool, type FitOutcome } from "./fit-pool.js";
+import { objectSeed } from "./object-seed.js";
+import { ColumnTypeTracker, writeParquetTable } from "./parquet-results-file.js";
+import { expectedColumns, unionColumns } from "./result-columns.js";
+import { failedRow, type ResultRow } from "./result-row.js";
+import { journalPathFor, journalRows, ResultsJournal, type JournalOpenMode, type RunIdentity } from "./results-journal.js";
+import { acquireRunLock } from "./run-lock.js";
+import { formatShard, isInShard, type ShardSpec } from "./shard.js";
+
+/** The format of the results table, from the extension of `--out`. */
+export type ResultsFormat = "csv" | "parquet";
+
+/** Everything a batch run needs; the command line builds this from its options. */
+export interface BatchRunOptions {
+  /** The catalogue, in input order; the runner keeps the objects of its shard. */
+  readonly objects: AsyncIterable<CatalogueObject>;
+  /** Optionally, the catalogue's ids alone (cheap to list), to count the work up front for progress. */
+  readonly listIds?: () => AsyncIterable<string>;
+  /** Describes the input (its absolute path and the column options), for the run identity. */
+  readonly inputDescription: string;
+  readonly out: string;
+  readonly format: ResultsFormat;
+  readonly model: string;
+  readonly background?: string;
+  readonly seed: number | string;
+  /** Further options handed to the fit unchanged (sampler budget and the like). */
+  readonly fitOptions?: Readonly<Record<string, string | number | boolean>>;
+  readonly shard: ShardSpec;
+  readonly workers: number;
+  /** URL of a module exporting `fitLightCurve`; undefined for the project's own fit. */
+  readonly fitModule?: string;
+  readonly timeoutSeconds?: number;
+  readonly memoryLimitMb?: number;
+  /** "new" refuses to touch earlier results, "resume" continues them, "overwrite" discards them. */
+  readonly mode: JournalOpenMode;
+  /** Wall-clock milliseconds (passed in, like every clock in Horologium). */
+  readonly now: () => number;
+  /** Called once the work is counted and after every object recorded. */
+  readonly onProgress?: (progress: BatchProgress) => void;
+}
+
+/** Where a run stands. */
+export interface BatchProgress {
+  /** Objects recorded by this invocation (fitted or failed). */
+  readonly recorded: number;
+  readonly ok: number;
+  readonly failed: number;
+  /** Objects of the shard found already recorded by an earlier, interrupted invocation. */
+  readonly resumed: number;
+  /** Objects this invocation has to record, when the ids could be listed up front. */
+  readonly toDo?: number;
+  /** Milliseconds since fitting started. */
+  readonly elapsedMs: number;
+}
+
+/** What a finished run did. */
+export interface BatchSummary extends BatchProgress {
+  /** Objects in the results, this invocation's and earlier ones', ok and failed. */
+  readonly totalOk: number;
+  readonly totalFailed: number;
+  /** Objects of the catalogue that belong to other shards. */
+  readonly otherShards: number;
+  /** Ids met a second time in the input; only the first occurrence is fitted. */
+  readonly duplicates: number;
+  readonly duplicateExamples: readonly string[];
+  /** The first failures of this invocation (all of them are in the results table). */
+  readonly failureExamples: readonly { readonly id: string; readonly reason: string }[];
+  /** Bytes of a torn journal line removed on resuming. */
+  readonly repairedBytes: number;
+  readonly out: string;
+  readonly journal: string;
+}
+
+const EXAMPLES = 10;
+
+/** The identity recorded in the journal: a run resumes only with the same values. */
+export function runIdentity(options: BatchRunOptions): RunIdentity {
+  return {
+    input: options.inputDescription,
+    model: options.model,
+    background: options.background ?? null,
+    seed: String(options.seed),
+    shard: formatShard(options.shard),
+    fitModule: options.fitModule ?? null,
+    fitOptions: JSON.stringify(
+      Object.fromEntries(Object.entries(options.fitOptions ?? {}).sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0))),
+    ),
+  };
+}
+
+/**
+ * Fits every object of a shard of a catalogue on a pool of worker threads and writes the results table.
+ *
+ * Objects are read one at a time, and the next is read only when a worker is free, so memory holds a
+ * few light curves whatever the size of the catalogue (plus the set of ids, for resuming and for
+ * duplicate checks). Each result row is appended to the journal and flushed to storage before it
+ * counts; a CSV table is appended to alongside, a Parquet table is written from the journal at the end
+ * (both atomically rebuilt from the journal whenever needed). With mode "resume" the objects already
+ * recorded are skipped, so a run killed at any moment is finished by running it again with `--resume`.
+ * Each object is fitted with its own seed, {@link objectSeed}, so results do not depend on order,
+ * shard or worker count. An object that cannot be read or fitted is recorded as "failed" with the
+ * reason, and the run goes on.
+ */
+export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> {
+  const journalPath = journalPathFor(options.out);
+  const lock = acquireRunLock(options.out);
+  try {
+    const { journal, contents } = await ResultsJournal.open(journalPath, runIdentity(options), options.mode);
+    let csv: CsvResultsAppender | undefined;
+    try {
+      let columns = expectedColumns(options.model, options.background) as readonly string[];
+      for (const column of contents.columns) columns = unionColumns(columns, { [column]: null });
+      let csvNeedsRebuild = false;
+      if (options.format === "csv") {
+        await writeCsvTable(options.out, columns, journalRows(journalPath));
+        csv = new CsvResultsAppender(options.out, columns);
+      }
+
+      const done = contents.ids;
+      let toDo: number | undefined;
+      if (options.listIds) {
+        toDo = 0;
+        for await (const id of options.listIds()) if (isInShard(id, options.shard) && !done.has(id)) toDo += 1;
+      }
+
+      const seen = new Set<string>();
+      const failureExamples: { id: string; reason: string }[] = [];
+      const duplicateExamples: string[] = [];
+      let recorded = 0;
+      let ok = 0;
+      let failed = 0;
+      let resumed = 0;
+      let otherShards = 0;
+      let duplicates = 0;
+      const started = options.now();
+      const progress = (): BatchProgress => ({
+        recorded,
+        ok,
+        failed,
+        resumed,
+        toDo,
+        elapsedMs: options.now() - started,
+      });
+
+      const record = (row: ResultRow): void => {
+        journal.append(row);
+        if (csv) {
+          if (unionColumns(csv.columns, row) !== csv.columns) csvNeedsRebuild = true;
+          csv.append(row);
+        }
+        recorded += 1;
+        if (row.status === "ok") ok += 1;
+        else {
+          failed += 1;
+          if (failureExamples.length < EXAMPLES) failureExamples.push({ id: String(row.object_id), reason: String(row.reason) });
+        }
+        options.onProgress?.(progress());
+      };
+
+      options.onProgress?.(progress());
+      const pool = await FitPool.start({
+        workers: options.workers,
+        fitModule: options.fitModule,
+        timeoutSeconds: options.timeoutSeconds,
+        memoryLimitMb: options.memoryLimitMb,
+      });
+      try {
+        const inFlight = new Set<Promise<void>>();
+        let fatal: Error | undefined;
+        for await (const object of options.objects) {
+          if (fatal) break;
+          const id = object.id;
+          if (!isInShard(id, options.shard)) {
+            otherShards += 1;
+            continue;
+          }
+          if (seen.has(id)) {
+            duplicates += 1;
+            if (duplicateExamples.length < EXAMPLES) duplicateExamples.push(id);
+            continue;
+          }
+          seen.add(id);
+          if (done.delete(id)) {
+            resumed += 1;
+            continue;
+          }
+          const seed = objectSeed(options.seed, id);
+          if (!object.lightCurve) {
+            record(failedRow(id, seed, options.model, object.problem ?? "no light curve"));
+            continue;
+          }
+          const fitOptions = { ...options.fitOptions, model: options.model, background: options.background, seed };
+          const task: Promise<void> = pool
+            .fit(id, object.lightCurve, fitOptions)
+            .then((outcome: FitOutcome) =>
+              record(outcome.kind === "ok" ? outcome.row : failedRow(id, seed, options.model, outcome.reason)),
+            )
+            .catch((error: Error) => {
+              fatal ??= error;
+            })
+            .finally(() => inFlight.delete(task));
+          inFlight.add(task);
+          if (inFlight.size >= pool.size) await Promise.race(inFlight);
+        }
+        await Promise.all(inFlight);
+        if (fatal) throw fatal;
+      } finally {
+        await pool.close();
+      }
+      csv?.close();
+      csv = undefined;
+      journal.close();
+
+      if (options.format === "parquet") {
+        const types = new ColumnTypeTracker();
+        for await (const row of journalRows(journalPath)) {
+          columns = unionColumns(columns, row);
+          types.observe(row);
+        }
+        await writeParquetTable(options.out, columns, types, journalRows(journalPath), {
+          "horologium.batch.run": JSON.stringify(runIdentity(options)),
+        });
+      } else if (csvNeedsRebuild) {
+        for await (const row of journalRows(journalPath)) columns = unionColumns(columns, row);
+        await writeCsvTable(options.out, columns, journalRows(journalPath));
+      }
+
+      const final = progress();
+      return {
+        ...final,
+        toDo,
+        totalOk: contents.ok + ok,
+        totalFailed: contents.failed + failed,
+        otherShards,
+        duplicates,
+        duplicateExamples,
+        failureExamples,
+        repairedBytes: contents.repairedBytes,
+        out: options.out,
+        journal: journalPath,
+      };
+    } finally {
+      csv?.close();
+      journal.close();
+    }
+  } finally {
+    lock.release();
+  }
+}

@@ -1,0 +1,12 @@
+import type { LightCurve } from "../lightcurve/light-curve.js";
+
+/**
+ * One object of a catalogue as the batch runner receives it: its id and its light curve, or, when the
+ * light curve could not be read, the reason (the object is then recorded as failed).
+ */
+export interface CatalogueObject {
+  readonly id: string;
+  readonly lightCurve?: LightCurve;
+  /** Why there is no light curve (for example an input error naming the file, line and column). */
+  readonly problem?: string;
+}

@@ -1,0 +1,61 @@
+import { LEADING_COLUMNS, type ResultRow } from "./result-row.js";
+
+/** The statistics of each parameter summary in the fit JSON (DESIGN.md, "Fit result JSON"). */
+export const SUMMARY_STATISTICS = ["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5"] as const;
+
+/** The diagnostics of the fit JSON (DESIGN.md, "Fit result JSON"). */
+export const DIAGNOSTIC_KEYS = [
+  "converged",
+  "rhatMax",
+  "essMin",
+  "autocorrTime",
+  "acceptance",
+  "logProbEvaluations",
+  "seconds",
+] as const;
+
+/** Parameter names of each model (DESIGN.md, "Parameter names"). */
+const MODEL_PARAMETERS: Readonly<Record<string, readonly string[]>> = {
+  drw: ["tau", "sigma", "mean"],
+  oscillator: ["period", "quality", "sigma", "mean"],
+  "quasi-periodic": ["period", "quality", "harmonicWeight", "sigma", "mean"],
+};
+
+/**
+ * The columns a results table is expected to have for a model, in order, from the fit-result contract:
+ * the leading columns, `data.*`, every statistic of every parameter (with the background parameters when
+ * a background is fitted, and `jitter`, which a fit adds when a light curve has no error column), the
+ * diagnostics and the warnings. A fit that reports more is not truncated: the table grows by the union
+ * of the columns actually seen (see {@link unionColumns}).
+ */
+export function expectedColumns(model: string, background: string | undefined): string[] {
+  const parameters = [...(MODEL_PARAMETERS[model] ?? [])];
+  if (background) parameters.push("backgroundTau", "backgroundSigma");
+  parameters.push("jitter");
+  return [
+    ...LEADING_COLUMNS,
+    "data.n",
+    "data.dropped",
+    "data.baseline",
+    "data.medianCadence",
+    ...parameters.flatMap((name) => SUMMARY_STATISTICS.map((statistic) => `${name}.${statistic}`)),
+    ...DIAGNOSTIC_KEYS.map((key) => `diagnostics.${key}`),
+    "warnings",
+  ];
+}
+
+/**
+ * The columns `base` followed by those of `row` that `base` lacks, in the order they appear in the row.
+ * Returns `base` itself when nothing is new, so callers can test `result !== base`.
+ */
+export function unionColumns(base: readonly string[], row: ResultRow): readonly string[] {
+  let extra: string[] | undefined;
+  const known = new Set(base);
+  for (const column of Object.keys(row)) {
+    if (!known.has(column)) {
+      (extra ??= []).push(column);
+      known.add(column);
+    }
+  }
+  return extra ? [...base, ...extra] : base;
+}

@@ -1,0 +1,66 @@
+import type { FitResult } from "../models/fit-result.js";
+
+/** A cell of the results table: text, a number (NaN and infinities allowed), a flag, or empty. */
+export type ResultCell = string | number | boolean | null;
+
+/** One object's line of the results table: column name to cell, in column order. */
+export type ResultRow = Readonly<Record<string, ResultCell>>;
+
+/** Whether an object's fit produced a result ("ok") or not ("failed", with a reason). */
+export type ObjectStatus = "ok" | "failed";
+
+/** The columns every row has, whatever happened to the object, in this order. */
+export const LEADING_COLUMNS = ["object_id", "status", "reason", "model", "seed"] as const;
+
+/** Columns that always hold text, even when every value looks like a number (for example object ids). */
+export const TEXT_COLUMNS: ReadonlySet<string> = new Set(["object_id", "status", "reason", "model", "warnings"]);
+
+/** Cells of `data` in the fit JSON that are copied to `data.<key>` columns. */
+const DATA_KEYS = ["n", "dropped", "baseline", "medianCadence"] as const;
+
+/**
+ * Flattens a fit result to one row: the leading columns, `data.<key>` for the size of the light curve,
+ * `<parameter>.<statistic>` for every scalar of every parameter summary (for example `tau.median`,
+ * `tau.q2.5`), `diagnostics.<key>` for every scalar diagnostic, and `warnings` as a JSON array of strings.
+ *
+ * @example okRow("quasar-0001", 123, fit)["tau.median"] === fit.parameters.tau.median
+ */
+export function okRow(objectId: string, seed: number, fit: FitResult): ResultRow {
+  const row: Record<string, ResultCell> = {
+    object_id: objectId,
+    status: "ok",
+    reason: "",
+    model: String(fit.model),
+    seed,
+  };
+  const data = (fit.data ?? {}) as unknown as Record<string, unknown>;
+  for (const key of DATA_KEYS) row[`data.${key}`] = scalarCell(data[key]);
+  for (const [name, summary] of Object.entries(fit.parameters ?? {})) {
+    for (const [statistic, value] of Object.entries(summary)) {
+      if (isScalar(value)) row[`${name}.${statistic}`] = value;
+    }
+  }
+  for (const [key, value] of Object.entries(fit.diagnostics ?? {})) {
+    if (isScalar(value)) row[`diagnostics.${key}`] = value;
+  }
+  row.warnings = JSON.stringify((fit.warnings ?? []).map((warning) => singleLine(String(warning))));
+  return row;
+}
+
+/** The row of an object that could not be fitted: the leading columns, with the reason on one line. */
+export function failedRow(objectId: string, seed: number, model: string, reason: string): ResultRow {
+  return { object_id: objectId, status: "failed", reason: singleLine(reason), model, seed };
+}
+
+/** Replaces line breaks and tabs by spaces and trims, so a reason fits one CSV line and one log line. */
+export function singleLine(text: string): string {
+  return text.replace(/[\r\n\t]+/g, " ").trim();
+}
+
+function isScalar(value: unknown): value is string | number | boolean {
+  return typeof value === "number" || typeof value === "boolean" || typeof value === "string";
+}
+
+function scalarCell(value: unknown): ResultCell {
+  return isScalar(value) ? value : null;
+}
