@@ -1,0 +1,153 @@
+import { Matrix } from "ml-matrix";
+import type { Kernel } from "../kernels/kernel.js";
+import { DenseCholesky } from "../linalg/dense-cholesky.js";
+import { formCovarianceDerivatives } from "../linalg/semiseparable-form.js";
+import type { Rng } from "../random/rng.js";
+import {
+  conditionInputs,
+  residualOf,
+  type ConditionedInputs,
+  type GaussianProcessOptions,
+  type GradientResult,
+  type Prediction,
+} from "./gp-options.js";
+
+const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
+
+/**
+ * The same interface as `GaussianProcess`, on dense O(N^3) linear algebra (ml-matrix Cholesky), for any
+ * kernel, including those with no semiseparable form (the squared-exponential times periodic kernel).
+ * Prediction follows Rasmussen & Williams 2006, Algorithm 2.1.
+ */
+export class DenseGaussianProcess {
+  readonly kernel: Kernel;
+  private readonly inputs: ConditionedInputs;
+  private readonly cholesky: DenseCholesky;
+
+  constructor(kernel: Kernel, time: ArrayLike<number>, options: GaussianProcessOptions = {}) {
+    this.kernel = kernel;
+    this.inputs = conditionInputs(time, options);
+    this.cholesky = new DenseCholesky(this.covarianceMatrix(true));
+  }
+
+  get time(): Float64Array {
+    return this.inputs.time;
+  }
+
+  /** K (+ noise on the diagonal when asked). */
+  covarianceMatrix(withNoise: boolean): Matrix {
+    const t = this.inputs.time;
+    const n = t.length;
+    const k = new Matrix(n, n);
+    for (let i = 0; i < n; i++)
+      for (let j = 0; j <= i; j++) {
+        const value = this.kernel.covarianceAt(t[i] - t[j]);
+        k.set(i, j, value);
+        k.set(j, i, value);
+      }
+    if (withNoise) for (let i = 0; i < n; i++) k.set(i, i, k.get(i, i) + this.inputs.noiseVariance[i]);
+    return k;
+  }
+
+  /** -1/2 r^T K^{-1} r - 1/2 log det K - N/2 log 2 pi. */
+  logLikelihood(y: ArrayLike<number>): number {
+    const residual = residualOf(y, this.inputs);
+    const alpha = this.cholesky.solve(residual);
+    let quadratic = 0;
+    for (let i = 0; i < residual.length; i++) quadratic += residual[i] * alpha[i];
+    return -0.5 * quadratic - 0.5 * this.cholesky.logDeterminant() - residual.length * HALF_LOG_TWO_PI;
+  }
+
+  /**
+   * d log L / d theta = 1/2 tr((alpha alpha^T - K^{-1}) dK/dtheta) (Rasmussen & Williams 2006, eq. 5.9),
+   * with dK/dtheta exact from the kernel's state-space form where it has one, else by central differences.
+   */
+  logLikelihoodGradient(y: ArrayLike<number>): GradientResult {
+    const residual = residualOf(y, this.inputs);
+    const alpha = this.cholesky.solve(residual);
+    const inverse = this.cholesky.inverse();
+    const t = this.inputs.time;
+    const n = t.length;
+    const count = this.kernel.parameterNames.length;
+    const grad = new Float64Array(count);
+    const form = this.kernel.semiseparableForm();
+    let traceNoise = 0;
+    for (let i = 0; i < n; i++) {
+      const weightDiagonal = alpha[i] * alpha[i] - inverse.get(i, i);
+      traceNoise += weightDiagonal;
+      for (let j = 0; j < n; j++) {
+        const weight = alpha[i] * alpha[j] - inverse.get(i, j);
+        const derivative = form ? formCovarianceDerivatives(form, t[i] - t[j]) : this.numericalDerivative(t[i] - t[j]);
+        for (let c = 0; c < count; c++) grad[c] += 0.5 * weight * derivative[c];
+      }
+    }
+    let meanBar = 0;
+    for (let i = 0; i < n; i++) meanBar += alpha[i];
+    return {
+      value: this.logLikelihood(y),
+      kernel: grad,
+      mean: meanBar,
+      jitter: traceNoise * this.inputs.jitter,
+    };
+  }
+
+  /** Posterior mean and variance (and covariance) of the latent process at new times. */
+  predict(y: ArrayLike<number>, tNew: ArrayLike<number>, options: { covariance?: boolean } = {}): Prediction {
+    const residual = residualOf(y, this.inputs);
+    const alpha = this.cholesky.solve(residual);
+    const t = this.inputs.time;
+    const m = tNew.length;
+    const cross = new Matrix(t.length, m);
+    for (let i = 0; i < t.length; i++) for (let j = 0; j < m; j++) cross.set(i, j, this.kernel.covarianceAt(t[i] - tNew[j]));
+    const mean = new Float64Array(m);
+    const variance = new Float64Array(m);
+    const solved: Float64Array[] = [];
+    for (let j = 0; j < m; j++) {
+      const column = cross.getColumn(j);
+      let mu = 0;
+      for (let i = 0; i < t.length; i++) mu += column[i] * alpha[i];
+      mean[j] = mu + this.inputs.mean;
+      const v = this.cholesky.solve(column);
+      solved.push(v);
+      let explained = 0;
+      for (let i = 0; i < t.length; i++) explained += column[i] * v[i];
+      variance[j] = Math.max(0, this.kernel.covarianceAt(0) - explained);
+    }
+    if (!options.covariance) return { mean, variance };
+    const covariance = new Float64Array(m * m);
+    for (let a = 0; a < m; a++)
+      for (let b = 0; b < m; b++) {
+        let explained = 0;
+        for (let i = 0; i < t.length; i++) explained += cross.get(i, a) * solved[b][i];
+        covariance[a * m + b] = this.kernel.covarianceAt(tNew[a] - tNew[b]) - explained;
+      }
+    return { mean, variance, covariance };
+  }
+
+  /** A prior draw of the latent process at the observation times (mean included). */
+  sample(rng: Rng): Float64Array {
+    const k = this.covarianceMatrix(false);
+    const n = k.rows;
+    const jitter = 1e-10 * this.kernel.covarianceAt(0);
+    for (let i = 0; i < n; i++) k.set(i, i, k.get(i, i) + jitter);
+    const xi = Float64Array.from({ length: n }, () => rng.normal());
+    const draw = new DenseCholesky(k).correlate(xi);
+    for (let i = 0; i < n; i++) draw[i] += this.inputs.mean;
+    return draw;
+  }
+
+  private numericalDerivative(lag: number): Float64Array {
+    const values = this.kernel.parameterValues;
+    const out = new Float64Array(values.length);
+    for (let c = 0; c < values.length; c++) {
+      const h = 1e-6 * Math.max(Math.abs(values[c]), 1e-8);
+      const plus = Float64Array.from(values);
+      const minus = Float64Array.from(values);
+      plus[c] += h;
+      minus[c] -= h;
+      out[c] =
+        (this.kernel.withParameters(plus).covarianceAt(lag) - this.kernel.withParameters(minus).covarianceAt(lag)) / (2 * h);
+    }
+    return out;
+  }
+}

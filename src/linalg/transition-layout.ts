@@ -1,0 +1,143 @@
+import type { SemiseparableForm } from "./semiseparable-form.js";
+import type { TransitionBlock } from "./transition-block.js";
+
+/**
+ * Where each block of a form sits in the state vector, with scratch space for one step's transitions.
+ * Built once per form; the per-point loops then use only these typed arrays (no allocation per point).
+ */
+export class TransitionLayout {
+  /** State dimension R. */
+  readonly dimension: number;
+  readonly blocks: readonly TransitionBlock[];
+  readonly blockStart: Int32Array;
+  readonly blockSize: Int32Array;
+  /** Start of each block's m x m transition in `phi`. */
+  readonly phiStart: Int32Array;
+  /** The current step's transitions, block after block. */
+  readonly phi: Float64Array;
+  /** Scratch of length R for in-place products. */
+  readonly scratch: Float64Array;
+
+  constructor(form: SemiseparableForm) {
+    this.blocks = form.blocks;
+    const count = form.blocks.length;
+    this.blockStart = new Int32Array(count);
+    this.blockSize = new Int32Array(count);
+    this.phiStart = new Int32Array(count);
+    let state = 0;
+    let phiLength = 0;
+    form.blocks.forEach((block, b) => {
+      this.blockStart[b] = state;
+      this.blockSize[b] = block.size;
+      this.phiStart[b] = phiLength;
+      state += block.size;
+      phiLength += block.size * block.size;
+    });
+    if (state !== form.observation.length) throw new Error("blocks and observation vector disagree in size");
+    this.dimension = state;
+    this.phi = new Float64Array(phiLength);
+    this.scratch = new Float64Array(state);
+  }
+
+  /** Fills `phi` with every block's exp(F dt). */
+  computeTransitions(dt: number): void {
+    const blocks = this.blocks;
+    for (let b = 0; b < blocks.length; b++) blocks[b].transition(dt, this.phi, this.phiStart[b]);
+  }
+
+  /** vector <- Phi vector, in place (vector of length R at `offset`). */
+  applyToVector(vector: Float64Array, offset: number): void {
+    const { blockStart, blockSize, phiStart, phi } = this;
+    for (let b = 0; b < blockStart.length; b++) {
+      const m = blockSize[b];
+      const s = offset + blockStart[b];
+      const p = phiStart[b];
+      if (m === 1) {
+        vector[s] *= phi[p];
+      } else if (m === 2) {
+        const x0 = vector[s];
+        const x1 = vector[s + 1];
+        vector[s] = phi[p] * x0 + phi[p + 1] * x1;
+        vector[s + 1] = phi[p + 2] * x0 + phi[p + 3] * x1;
+      } else {
+        const tmp = this.scratch;
+        for (let i = 0; i < m; i++) tmp[i] = vector[s + i];
+        for (let i = 0; i < m; i++) {
+          let acc = 0;
+          for (let j = 0; j < m; j++) acc += phi[p + i * m + j] * tmp[j];
+          vector[s + i] = acc;
+        }
+      }
+    }
+  }
+
+  /** vector <- Phi^T vector, in place. */
+  applyTransposeToVector(vector: Float64Array, offset: number): void {
+    const { blockStart, blockSize, phiStart, phi } = this;
+    for (let b = 0; b < blockStart.length; b++) {
+      const m = blockSize[b];
+      const s = offset + blockStart[b];
+      const p = phiStart[b];
+      if (m === 1) {
+        vector[s] *= phi[p];
+      } else if (m === 2) {
+        const x0 = vector[s];
+        const x1 = vector[s + 1];
+        vector[s] = phi[p] * x0 + phi[p + 2] * x1;
+        vector[s + 1] = phi[p + 1] * x0 + phi[p + 3] * x1;
+      } else {
+        const tmp = this.scratch;
+        for (let i = 0; i < m; i++) tmp[i] = vector[s + i];
+        for (let i = 0; i < m; i++) {
+          let acc = 0;
+          for (let j = 0; j < m; j++) acc += phi[p + j * m + i] * tmp[j];
+          vector[s + i] = acc;
+        }
+      }
+    }
+  }
+
+  /** matrix <- Phi matrix Phi^T, in place (R x R row-major at `offset`). */
+  applyCongruence(matrix: Float64Array, offset: number): void {
+    const r = this.dimension;
+    // Left product: every column j, block by block.
+    for (let j = 0; j < r; j++) this.applyStrided(matrix, offset + j, r, false);
+    // Right product by Phi^T: every row i, i.e. row <- Phi row.
+    for (let i = 0; i < r; i++) this.applyToVector(matrix, offset + i * r);
+  }
+
+  /** matrix <- Phi^T matrix Phi, in place. */
+  applyTransposeCongruence(matrix: Float64Array, offset: number): void {
+    const r = this.dimension;
+    for (let j = 0; j < r; j++) this.applyStrided(matrix, offset + j, r, true);
+    for (let i = 0; i < r; i++) this.applyTransposeToVector(matrix, offset + i * r);
+  }
+
+  /** Applies Phi (or Phi^T) to the strided vector matrix[start + k stride], k = 0..R-1. */
+  private applyStrided(matrix: Float64Array, start: number, stride: number, transpose: boolean): void {
+    const { blockStart, blockSize, phiStart, phi } = this;
+    for (let b = 0; b < blockStart.length; b++) {
+      const m = blockSize[b];
+      const s = start + blockStart[b] * stride;
+      const p = phiStart[b];
+      if (m === 1) {
+        matrix[s] *= phi[p];
+      } else if (m === 2) {
+        const x0 = matrix[s];
+        const x1 = matrix[s + stride];
+        const a01 = transpose ? phi[p + 2] : phi[p + 1];
+        const a10 = transpose ? phi[p + 1] : phi[p + 2];
+        matrix[s] = phi[p] * x0 + a01 * x1;
+        matrix[s + stride] = a10 * x0 + phi[p + 3] * x1;
+      } else {
+        const tmp = this.scratch;
+        for (let i = 0; i < m; i++) tmp[i] = matrix[s + i * stride];
+        for (let i = 0; i < m; i++) {
+          let acc = 0;
+          for (let j = 0; j < m; j++) acc += (transpose ? phi[p + j * m + i] : phi[p + i * m + j]) * tmp[j];
+          matrix[s + i * stride] = acc;
+        }
+      }
+    }
+  }
+}
