@@ -1,0 +1,236 @@
+import type { FitDiagnostics, ParameterSummary } from "../models/fit-result.js";
+import { formatAtDigit, formatMeasurement, formatSignificant, lastDigitPower } from "./format-measurement.js";
+import { escapeHtml } from "./html-escape.js";
+import { inlineSvg } from "./inline-svg.js";
+import { parameterDisplay, timeUnitOf } from "./parameter-display.js";
+import { plainSummary, RHAT_THRESHOLD } from "./plain-summary.js";
+import type { ReportFigure } from "./report-figure.js";
+import type { ReportInput } from "./report-input.js";
+
+/** A figure with its SVG text: all the HTML page needs of a rendered figure. */
+export interface DrawnFigure {
+  readonly figure: ReportFigure;
+  readonly svg: string;
+}
+
+/**
+ * The warnings a reader must see first: those of the fit result, preceded by one about convergence
+ * when the sampler did not converge and the result does not already say so.
+ */
+export function reportWarnings(input: ReportInput): string[] {
+  const warnings = [...input.result.warnings];
+  const d = input.result.diagnostics;
+  if (!d.converged && !warnings.some((w) => /converge/i.test(w))) {
+    warnings.unshift(
+      `The sampler did not converge (largest R-hat ${formatSignificant(d.rhatMax, 4)}): the posterior summaries are not reliable.`,
+    );
+  }
+  return warnings;
+}
+
+/**
+ * The report as one self-contained HTML page: styles inline, figures as inline SVG, no script and no
+ * network access (a Content-Security-Policy forbids any), so it opens from a file, an e-mail or an archive.
+ * Order: warnings, plain-language summary, parameter table, figures, diagnostics, data.
+ */
+export function htmlReport(input: ReportInput, figures: readonly DrawnFigure[]): string {
+  const { result, lightCurve } = input;
+  const title = input.title ?? `${lightCurve.provenance.source}${lightCurve.band ? `, band ${lightCurve.band}` : ""}`;
+  const warnings = reportWarnings(input);
+  const byId = new Map(figures.map((f) => [f.figure.id, f]));
+  const figure = (id: string) => {
+    const drawn = byId.get(id);
+    return drawn === undefined ? "" : figureHtml(drawn);
+  };
+  const others = figures.filter((f) => !["light-curve", "corner", "spectrum", "traces"].includes(f.figure.id));
+
+  return `<!DOCTYPE html>
+<html lang="en">
+<head>
+<meta charset="utf-8">
+<meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'; img-src data:">
+<meta name="viewport" content="width=device-width, initial-scale=1">
+<meta name="generator" content="Horologium ${escapeHtml(result.version)}">
+<title>${escapeHtml(title)}: Horologium report</title>
+<style>${STYLE}</style>
+</head>
+<body>
+<main>
+<header>
+<h1>${escapeHtml(title)}</h1>
+<p class="meta">Model <code>${escapeHtml(result.model)}</code> · seed <code>${escapeHtml(String(result.seed))}</code> · Horologium ${escapeHtml(result.version)} · source <code>${escapeHtml(lightCurve.provenance.source)}</code></p>
+</header>
+${warningsHtml(warnings)}
+<section id="summary">
+<h2>Summary</h2>
+<p>${plainSummary(input).map(escapeHtml).join(" ")}</p>
+</section>
+<section id="parameters">
+<h2>Parameters</h2>
+${parameterTable(input)}
+</section>
+${figure("light-curve")}
+${figure("corner")}
+${figure("spectrum")}
+${figure("traces")}
+${others.map(figureHtml).join("\n")}
+<section id="diagnostics">
+<h2>Sampler diagnostics</h2>
+${diagnosticsTable(result.diagnostics)}
+</section>
+<section id="data">
+<h2>Data</h2>
+${dataTable(input)}
+</section>
+<footer>Made by Horologium ${escapeHtml(result.version)}. Each figure is also saved as SVG and PNG in <code>figures/</code> beside this page.</footer>
+</main>
+</body>
+</html>
+`;
+}
+
+function warningsHtml(warnings: string[]): string {
+  if (warnings.length === 0) {
+    return `<section id="warnings" class="warnings none"><h2>Warnings</h2><p>None: the fit raised no warnings.</p></section>`;
+  }
+  const items = warnings.map((w) => `<li>${escapeHtml(w)}</li>`).join("\n");
+  return `<section id="warnings" class="warnings" role="alert">
+<h2><span aria-hidden="true">⚠</span> ${warnings.length === 1 ? "1 warning" : `${warnings.length} warnings`}</h2>
+<ul>
+${items}
+</ul>
+</section>`;
+}
+
+function figureHtml(drawn: DrawnFigure): string {
+  const { figure } = drawn;
+  const id = `figure-${figure.id}`;
+  return `<figure id="${escapeHtml(id)}">
+<h2>${escapeHtml(figure.title)}</h2>
+<div class="figure-body">${inlineSvg(drawn.svg, id, figure.title)}</div>
+<figcaption>${escapeHtml(figure.caption)} <span class="files">Files: <code>figures/${escapeHtml(figure.id)}.svg</code>, <code>figures/${escapeHtml(figure.id)}.png</code>.</span></figcaption>
+</figure>`;
+}
+
+const SUMMARY_KEYS = new Set(["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5"]);
+
+function parameterTable(input: ReportInput): string {
+  const entries = Object.entries(input.result.parameters);
+  // Per-parameter extras a sampler may add (for example an R-hat or an ESS) get their own columns.
+  const extraKeys = [
+    ...new Set(
+      entries.flatMap(([, s]) => Object.keys(s).filter((k) => !SUMMARY_KEYS.has(k) && typeof s[k] === "number")),
+    ),
+  ];
+  const head = [
+    "Parameter",
+    "Unit",
+    "Median and 68% interval",
+    "95% interval",
+    "Mean",
+    "SD",
+    ...extraKeys,
+  ]
+    .map((h) => `<th scope="col">${escapeHtml(h)}</th>`)
+    .join("");
+  const rows = entries.map(([name, s]) => {
+    const display = parameterDisplay(input, name);
+    const cells = [
+      `<th scope="row">${escapeHtml(display.label)} <span class="name">${escapeHtml(name)}</span></th>`,
+      `<td>${escapeHtml(display.unit === "" ? "–" : display.unit)}</td>`,
+      `<td>${escapeHtml(formatMeasurement(s.median, s.median - s.q16, s.q84 - s.median))}</td>`,
+      `<td>${escapeHtml(interval95(s))}</td>`,
+      `<td>${escapeHtml(formatSignificant(s.mean, 4))}</td>`,
+      `<td>${escapeHtml(formatSignificant(s.sd, 3))}</td>`,
+      ...extraKeys.map((k) => `<td>${typeof s[k] === "number" ? escapeHtml(formatSignificant(s[k] as number, 4)) : ""}</td>`),
+    ];
+    return `<tr>${cells.join("")}</tr>`;
+  });
+  return `<table class="numbers"><thead><tr>${head}</tr></thead><tbody>\n${rows.join("\n")}\n</tbody></table>`;
+}
+
+/** The 95% interval at the precision the smaller 68% error allows (Particle Data Group rounding). */
+function interval95(s: ParameterSummary): string {
+  const smaller = Math.min(s.median - s.q16, s.q84 - s.median);
+  if (!(smaller > 0) || Math.abs(Math.log10(Math.max(Math.abs(s["q2.5"]), Math.abs(s["q97.5"]), smaller))) > 6) {
+    return `${formatSignificant(s["q2.5"], 3)} to ${formatSignificant(s["q97.5"], 3)}`;
+  }
+  const power = lastDigitPower(smaller);
+  return `${formatAtDigit(s["q2.5"], power)} to ${formatAtDigit(s["q97.5"], power)}`;
+}
+
+function diagnosticsTable(d: FitDiagnostics): string {
+  const known: [string, string, string][] = [
+    ["Converged", d.converged ? "yes" : "no", d.converged ? "" : "bad"],
+    [
+      "Largest rank-normalised split R-hat",
+      formatSignificant(d.rhatMax, 4),
+      d.rhatMax < RHAT_THRESHOLD ? "" : "bad",
+    ],
+    ["Smallest effective sample size", formatSignificant(d.essMin, 4), ""],
+    ["Largest integrated autocorrelation time (steps)", formatSignificant(d.autocorrTime, 3), ""],
+    ["Mean acceptance rate", formatSignificant(d.acceptance, 3), ""],
+    ["Log-posterior evaluations", String(d.logProbEvaluations), ""],
+    ["Wall time (s)", formatSignificant(d.seconds, 3), ""],
+  ];
+  const listed = new Set(["converged", "rhatMax", "essMin", "autocorrTime", "acceptance", "logProbEvaluations", "seconds"]);
+  for (const [key, value] of Object.entries(d)) {
+    if (listed.has(key)) continue;
+    if (typeof value === "number") known.push([key, formatSignificant(value, 4), ""]);
+    else if (typeof value === "string" || typeof value === "boolean") known.push([key, String(value), ""]);
+  }
+  const rows = known.map(
+    ([label, value, cls]) =>
+      `<tr${cls ? ` class="${cls}"` : ""}><th scope="row">${escapeHtml(label)}</th><td>${escapeHtml(value)}</td></tr>`,
+  );
+  return `<table class="numbers narrow"><tbody>\n${rows.join("\n")}\n</tbody></table>
+<p class="note">Chains are taken as mixed when R-hat is below ${RHAT_THRESHOLD} (Vehtari et al. 2021).</p>`;
+}
+
+function dataTable(input: ReportInput): string {
+  const { result, lightCurve } = input;
+  const timeUnit = timeUnitOf(input);
+  const rows: [string, string][] = [
+    ["Source", lightCurve.provenance.source],
+    ["Measurements", String(result.data.n)],
+    ["Rows dropped (missing values)", String(result.data.dropped)],
+    ["Baseline", `${formatSignificant(result.data.baseline, 4)} ${timeUnit}`],
+    ["Median cadence", `${formatSignificant(result.data.medianCadence, 3)} ${timeUnit}`],
+    ["Columns (time, value, error)", `${result.data.timeColumn}, ${result.data.valueColumn}, ${result.data.errorColumn ?? "none"}`],
+    ["Values", lightCurve.unit === "mag" ? "magnitudes" : "fluxes"],
+    ...(lightCurve.band === undefined ? [] : ([["Band", lightCurve.band]] as [string, string][])),
+  ];
+  return `<table class="numbers narrow"><tbody>\n${rows
+    .map(([k, v]) => `<tr><th scope="row">${escapeHtml(k)}</th><td>${escapeHtml(v)}</td></tr>`)
+    .join("\n")}\n</tbody></table>`;
+}
+
+const STYLE = `
+:root { color-scheme: light; }
+body { margin: 0; background: #f6f6f4; color: #1a1a1a; font: 15px/1.5 "DejaVu Sans", Verdana, sans-serif; }
+main { max-width: 900px; margin: 0 auto; padding: 24px 20px 48px; background: #ffffff; }
+h1 { font-size: 1.45em; margin: 0 0 4px; }
+h2 { font-size: 1.1em; margin: 28px 0 8px; }
+.meta { color: #555555; margin: 0; font-size: 0.9em; }
+code { font-family: "DejaVu Sans Mono", monospace; font-size: 0.92em; }
+.warnings { margin: 20px 0; padding: 12px 16px; border: 2px solid #b5470b; border-left-width: 8px; background: #fff4e5; }
+.warnings h2 { margin: 0 0 6px; color: #8a3200; }
+.warnings ul { margin: 0; padding-left: 20px; }
+.warnings.none { border-color: #6a9a6a; background: #f0f7f0; }
+.warnings.none h2 { color: #2f5f2f; }
+.warnings.none p { margin: 0; }
+figure { margin: 28px 0 0; }
+.figure-body { overflow-x: auto; }
+figure svg { display: block; max-width: 100%; height: auto; }
+figcaption { font-size: 0.9em; color: #333333; margin-top: 6px; }
+.files { color: #666666; }
+table.numbers { border-collapse: collapse; font-size: 0.9em; width: 100%; }
+table.numbers.narrow { width: auto; }
+table.numbers th, table.numbers td { border-bottom: 1px solid #dddddd; padding: 4px 10px 4px 0; text-align: left; vertical-align: top; }
+table.numbers thead th { border-bottom: 2px solid #999999; }
+table.numbers td { font-variant-numeric: tabular-nums; }
+tr.bad td, tr.bad th { color: #a01010; font-weight: bold; }
+.name { color: #777777; font-weight: normal; font-size: 0.85em; }
+.note { font-size: 0.85em; color: #555555; }
+footer { margin-top: 36px; font-size: 0.85em; color: #666666; }
+`;

@@ -1,0 +1,140 @@
+import type { TopLevelSpec } from "vega-lite";
+import { evenIndices } from "./even-thinning.js";
+import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
+import { timeUnitOf, valueUnitOf } from "./parameter-display.js";
+import type { ReportFigure } from "./report-figure.js";
+import type { ReportInput } from "./report-input.js";
+import { timeAxisTitle, timeOffset } from "./time-offset.js";
+
+/** The 0.975 quantile of the standard normal: the half-width, in sd, of a central 95% Gaussian band. */
+export const NORMAL_Z95 = 1.959963984540054;
+
+/** Above this many points, error bars are left out: they would merge into a solid smear. */
+const MAX_POINTS_WITH_ERROR_BARS = 5000;
+/** Above this many points, an evenly spaced subset is drawn, to keep the SVG a few megabytes at most. */
+const MAX_POINTS_DRAWN = 20000;
+/** Above this many grid times, the predictive curve is thinned evenly, for the same reason. */
+const MAX_GRID_DRAWN = 4000;
+
+const SERIES_DATA = "data ± 1σ";
+const SERIES_MEAN = "posterior-predictive mean";
+const SERIES_INNER = "68% band";
+const SERIES_OUTER = "95% band";
+
+/**
+ * The light curve with its error bars, and the posterior-predictive mean of the latent curve with its
+ * 68% (±1 sd) and 95% (±1.96 sd) Gaussian bands across the whole grid, gaps included. Magnitudes are
+ * drawn with brighter upwards (a reversed axis), as astronomers expect.
+ */
+export function lightCurveFigure(input: ReportInput): ReportFigure {
+  const { lightCurve, prediction } = input;
+  const timeUnit = timeUnitOf(input);
+  const valueUnit = valueUnitOf(input);
+  const offset = timeOffset(lightCurve.time.length > 0 ? lightCurve.time : prediction.time);
+  const n = lightCurve.time.length;
+  const drawn = evenIndices(n, MAX_POINTS_DRAWN);
+  const withErrors = lightCurve.error !== undefined && n <= MAX_POINTS_WITH_ERROR_BARS;
+
+  const dataRows = drawn.map((i) => {
+    const y = lightCurve.value[i]!;
+    const e = lightCurve.error?.[i] ?? 0;
+    return { t: lightCurve.time[i]! - offset, y, lo: y - e, hi: y + e };
+  });
+  const gridRows = evenIndices(prediction.time.length, MAX_GRID_DRAWN).map((i) => {
+    const m = prediction.mean[i]!;
+    const s = prediction.sd[i]!;
+    return {
+      t: prediction.time[i]! - offset,
+      m,
+      lo68: m - s,
+      hi68: m + s,
+      lo95: m - NORMAL_Z95 * s,
+      hi95: m + NORMAL_Z95 * s,
+    };
+  });
+
+  const isMag = lightCurve.unit === "mag";
+  const yTitle = isMag ? "Magnitude [mag]" : "Flux [flux units]";
+  const xTitle = timeAxisTitle(offset, timeUnit);
+  const seriesDomain = [SERIES_DATA, SERIES_MEAN, SERIES_INNER, SERIES_OUTER];
+  const colorScale = {
+    domain: seriesDomain,
+    range: [FIGURE_COLORS.data, FIGURE_COLORS.model, FIGURE_COLORS.modelBandInner, FIGURE_COLORS.modelBandOuter],
+  };
+  const x = { field: "t", type: "quantitative" as const, title: xTitle, axis: { format: "~f" }, scale: { zero: false, nice: false } };
+  const yScale = { zero: false, reverse: isMag };
+  const legend = { title: null, orient: "top" as const, direction: "horizontal" as const };
+
+  const layers: unknown[] = [
+    {
+      data: { name: "grid" },
+      mark: { type: "area", opacity: 0.9 },
+      encoding: {
+        x,
+        y: { field: "lo95", type: "quantitative", title: yTitle, scale: yScale },
+        y2: { field: "hi95" },
+        color: { datum: SERIES_OUTER, scale: colorScale, legend },
+      },
+    },
+    {
+      data: { name: "grid" },
+      mark: { type: "area", opacity: 0.9 },
+      encoding: {
+        x,
+        y: { field: "lo68", type: "quantitative" },
+        y2: { field: "hi68" },
+        color: { datum: SERIES_INNER },
+      },
+    },
+    {
+      data: { name: "grid" },
+      mark: { type: "line", strokeWidth: 1.5 },
+      encoding: { x, y: { field: "m", type: "quantitative" }, color: { datum: SERIES_MEAN } },
+    },
+  ];
+  if (withErrors) {
+    layers.push({
+      data: { name: "data" },
+      mark: { type: "rule", strokeWidth: 0.8, opacity: 0.7 },
+      encoding: { x, y: { field: "lo", type: "quantitative" }, y2: { field: "hi" }, color: { datum: SERIES_DATA } },
+    });
+  }
+  layers.push({
+    data: { name: "data" },
+    mark: { type: "point", filled: true, size: n > 2000 ? 6 : 14, opacity: 0.9 },
+    encoding: { x, y: { field: "y", type: "quantitative" }, color: { datum: SERIES_DATA } },
+  });
+
+  const spec = {
+    $schema: "https://vega.github.io/schema/vega-lite/v6.json",
+    config: figureConfig(),
+    width: 760,
+    height: 320,
+    datasets: { data: dataRows, grid: gridRows },
+    layer: layers,
+  } as unknown as TopLevelSpec;
+
+  const errorNote =
+    lightCurve.error === undefined
+      ? "The file gives no errors, so a white-noise term was fitted and no error bars are drawn."
+      : withErrors
+        ? "Bars are the 1σ measurement errors."
+        : `Error bars are left out above ${MAX_POINTS_WITH_ERROR_BARS} points; the median 1σ error is ${medianError(lightCurve.error).toPrecision(2)} ${valueUnit}.`;
+  const thinNote = drawn.length < n ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn.` : "";
+  const offsetNote = offset === 0 ? "" : ` Times are shown relative to ${offset} ${timeUnit}.`;
+  return {
+    id: "light-curve",
+    title: "Light curve and posterior prediction",
+    caption:
+      `Points: the ${n} measurements. ${errorNote} Line and shading: the posterior-predictive mean of the ` +
+      `latent (noise-free) light curve with its 68% and 95% bands, continued across the gaps between ` +
+      `observations.${thinNote}${offsetNote}`,
+    spec,
+  };
+}
+
+function medianError(error: Float64Array): number {
+  const sorted = Float64Array.from(error).sort();
+  const mid = sorted.length >> 1;
+  return sorted.length % 2 === 1 ? sorted[mid]! : 0.5 * (sorted[mid - 1]! + sorted[mid]!);
+}

@@ -1,0 +1,67 @@
+import type { ParameterDisplay, ReportInput } from "./report-input.js";
+import { pooledDraws } from "./pooled-draws.js";
+import { quantileSorted } from "./quantile.js";
+
+/** Which kind of unit a parameter carries, so a default unit can be filled in from the data. */
+type UnitKind = "time" | "value" | "none";
+
+const KNOWN: Readonly<Record<string, { label: string; kind: UnitKind; description: string }>> = {
+  tau: { label: "τ", kind: "time", description: "damping timescale" },
+  sigma: { label: "σ", kind: "value", description: "variability amplitude" },
+  mean: { label: "mean", kind: "value", description: "mean level" },
+  period: { label: "P", kind: "time", description: "period" },
+  quality: { label: "Q", kind: "none", description: "quality factor" },
+  harmonicWeight: { label: "harmonic weight", kind: "none", description: "weight of the first harmonic" },
+  backgroundTau: { label: "τ_bg", kind: "time", description: "background timescale" },
+  backgroundSigma: { label: "σ_bg", kind: "value", description: "background amplitude" },
+  jitter: { label: "jitter", kind: "value", description: "excess white noise" },
+};
+
+/**
+ * A positive parameter whose central 99% of draws spans more than this factor is drawn on a log axis:
+ * on a linear axis such a posterior is a spike against a wall (common practice).
+ */
+const LOG_AXIS_SPAN = 20;
+
+/** The unit text of the light curve's values: "mag" for magnitudes, "flux" (arbitrary units) otherwise. */
+export function valueUnitOf(input: ReportInput): string {
+  return input.lightCurve.unit === "mag" ? "mag" : "flux";
+}
+
+/** The time unit text of the report (default "d", the usual unit of astronomical time stamps). */
+export function timeUnitOf(input: ReportInput): string {
+  return input.timeUnit ?? "d";
+}
+
+/**
+ * The display of a parameter: defaults for the model parameters named in DESIGN.md (units taken from
+ * the light curve and the time unit), overridden by `input.parameterDisplay`. When `logScale` is not
+ * given, it is chosen from the spread of the draws.
+ *
+ * @example parameterDisplay(input, "tau") // { label: "τ", unit: "d", description: "damping timescale", logScale: false }
+ */
+export function parameterDisplay(input: ReportInput, name: string): ParameterDisplay {
+  const known = KNOWN[name];
+  const unit =
+    known === undefined || known.kind === "none" ? "" : known.kind === "time" ? timeUnitOf(input) : valueUnitOf(input);
+  const override = input.parameterDisplay?.[name] ?? {};
+  const label = override.label ?? known?.label ?? name;
+  const description = override.description ?? known?.description;
+  const logScale = override.logScale ?? spansDecades(input, name);
+  return { label, unit: override.unit ?? unit, logScale, ...(description === undefined ? {} : { description }) };
+}
+
+/** The axis title of a parameter: "τ [d]", or "log₁₀ τ [d]" on a log axis, or just "Q" when dimensionless. */
+export function parameterAxisTitle(display: ParameterDisplay): string {
+  const base = display.logScale ? `log₁₀ ${display.label}` : display.label;
+  return display.unit === "" ? base : `${base} [${display.unit}]`;
+}
+
+function spansDecades(input: ReportInput, name: string): boolean {
+  if (input.draws.chains[name] === undefined) return false;
+  const sorted = pooledDraws(input.draws, name).sort();
+  if (sorted.length === 0 || sorted[0]! <= 0) return false;
+  const low = quantileSorted(sorted, 0.005);
+  const high = quantileSorted(sorted, 0.995);
+  return high / low > LOG_AXIS_SPAN;
+}

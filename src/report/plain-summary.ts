@@ -1,0 +1,128 @@
+import { formatMeasurement, formatSignificant } from "./format-measurement.js";
+import { parameterDisplay, timeUnitOf } from "./parameter-display.js";
+import { pooledDraws } from "./pooled-draws.js";
+import { quantileSorted } from "./quantile.js";
+import type { ReportInput } from "./report-input.js";
+
+/**
+ * Below this ratio of baseline to damping timescale, damped-random-walk timescales are biased
+ * (Kozlowski 2017, A&A 597, A128: the baseline should be at least about ten times tau).
+ */
+export const DRW_BASELINE_RATIO = 10;
+
+/** The R-hat below which chains are taken as mixed (Vehtari et al. 2021, Bayesian Analysis 16, 667). */
+export const RHAT_THRESHOLD = 1.01;
+
+const MODEL_NAMES: Readonly<Record<string, string>> = {
+  drw: "a damped random walk",
+  oscillator: "a stochastically driven damped harmonic oscillator",
+  "quasi-periodic": "a quasi-periodic model (two oscillators at the period and half the period)",
+};
+
+/**
+ * A short plain-language account of what was measured, as sentences: the data, the model, the
+ * headline parameters with medians and 68% credible intervals, and whether the sampler converged.
+ *
+ * @example plainSummary(input)[1] // "Fitted model: a damped random walk. The damping timescale τ is 310 +80/−60 d, ..."
+ */
+export function plainSummary(input: ReportInput): string[] {
+  const { result, lightCurve } = input;
+  const timeUnit = timeUnitOf(input);
+  const sentences: string[] = [];
+
+  const band = lightCurve.band === undefined ? "" : ` in band ${lightCurve.band}`;
+  const dropped =
+    result.data.dropped > 0
+      ? ` ${result.data.dropped} ${result.data.dropped === 1 ? "row was" : "rows were"} dropped for missing values.`
+      : "";
+  sentences.push(
+    `The light curve${band} has ${result.data.n} measurements over a baseline of ` +
+      `${formatSignificant(result.data.baseline)} ${timeUnit}, with a median spacing of ${formatSignificant(result.data.medianCadence)} ${timeUnit}.` +
+      dropped +
+      (result.data.errorColumn === null ? " The file gives no errors, so a white-noise term was fitted." : ""),
+  );
+
+  const headline = headlineParameters(result.model);
+  const described = headline.filter((name) => result.parameters[name] !== undefined).map((name) => describe(input, name));
+  const modelName = MODEL_NAMES[result.model] ?? `the "${result.model}" model`;
+  sentences.push(
+    `Fitted model: ${modelName}.` +
+      (described.length > 0 ? ` ${capitalise(joinList(described))} (posterior medians with 68% credible intervals).` : ""),
+  );
+
+  const tau = result.parameters["tau"];
+  if (result.model === "drw" && tau !== undefined && tau.median > 0) {
+    const ratio = result.data.baseline / tau.median;
+    sentences.push(
+      `The baseline is ${formatSignificant(ratio, 2)} times the timescale` +
+        (ratio < DRW_BASELINE_RATIO
+          ? `, short of the ${DRW_BASELINE_RATIO} times needed for an unbiased estimate, so the timescale may be underestimated.`
+          : `, long enough for an unbiased estimate of it.`),
+    );
+  }
+  const coherence = coherenceTime(input);
+  if (coherence !== undefined) {
+    sentences.push(
+      `The signal stays coherent for about ${coherence} ${timeUnit} (quality × period / π), ` +
+        `so the pattern of the variability lasts about that long before it changes.`,
+    );
+  }
+  const quality = result.parameters["quality"];
+  if (result.model === "oscillator" && quality !== undefined && quality.median < 0.5) {
+    sentences.push("The quality factor is below 1/2: the variability is overdamped and shows no preferred period.");
+  }
+
+  const others = Object.keys(result.parameters).filter((name) => !headline.includes(name));
+  if (others.length > 0) sentences.push(`Other parameters: ${others.map((name) => describe(input, name, true)).join("; ")}.`);
+
+  const d = result.diagnostics;
+  sentences.push(
+    d.converged
+      ? `The sampler converged: the largest R-hat is ${d.rhatMax.toFixed(3)} and the smallest effective sample size is ${Math.round(d.essMin)}.`
+      : `The sampler did not converge (largest R-hat ${d.rhatMax.toFixed(3)}, target below ${RHAT_THRESHOLD}; smallest effective sample size ${Math.round(d.essMin)}): treat these numbers as provisional.`,
+  );
+  const w = result.warnings.length;
+  if (w > 0) sentences.push(`There ${w === 1 ? "is 1 warning" : `are ${w} warnings`}; read ${w === 1 ? "it" : "them"} before using these numbers.`);
+  return sentences;
+}
+
+/** The parameters a sentence about each model leads with, in order. */
+function headlineParameters(model: string): string[] {
+  if (model === "drw") return ["tau", "sigma"];
+  if (model === "oscillator") return ["period", "quality", "sigma"];
+  if (model === "quasi-periodic") return ["period", "quality", "sigma"];
+  return [];
+}
+
+function describe(input: ReportInput, name: string, terse = false): string {
+  const summary = input.result.parameters[name]!;
+  const display = parameterDisplay(input, name);
+  const value = formatMeasurement(summary.median, summary.median - summary.q16, summary.q84 - summary.median);
+  const unit = display.unit === "" ? "" : ` ${display.unit}`;
+  if (terse || display.description === undefined) return `${display.label} = ${value}${unit}`;
+  return `the ${display.description} ${display.label} is ${value}${unit}`;
+}
+
+/**
+ * The coherence time quality × period / π of a quasi-periodic signal (DESIGN.md, quasiPeriodic kernel),
+ * from the draws when they hold both parameters (so the interval is that of the product), else undefined.
+ */
+function coherenceTime(input: ReportInput): string | undefined {
+  const { result, draws } = input;
+  if (result.model !== "quasi-periodic") return undefined;
+  if (draws.chains["quality"] === undefined || draws.chains["period"] === undefined) return undefined;
+  const q = pooledDraws(draws, "quality");
+  const p = pooledDraws(draws, "period");
+  if (q.length !== p.length || q.length === 0) return undefined;
+  const product = q.map((qi, i) => (qi * p[i]!) / Math.PI).sort();
+  const median = quantileSorted(product, 0.5);
+  return formatMeasurement(median, median - quantileSorted(product, 0.16), quantileSorted(product, 0.84) - median);
+}
+
+function joinList(items: string[]): string {
+  return items.length <= 1 ? items.join("") : `${items.slice(0, -1).join(", ")} and ${items[items.length - 1]}`;
+}
+
+function capitalise(text: string): string {
+  return text.charAt(0).toUpperCase() + text.slice(1);
+}
