@@ -1,0 +1,99 @@
+import { baluevFalseAlarm, baluevPowerLevel, timeVariance, type SearchExtent } from "./false-alarm-probability.js";
+import { automaticFrequencyGrid, gridFrequencies, type FrequencyGrid, type FrequencyGridOptions } from "./frequency-grid.js";
+import { glsPower, glsPowerAt } from "./generalised-lomb-scargle.js";
+import { findPeaks, type PeakOptions, type PeriodogramPeak } from "./periodogram-peaks.js";
+import { fitSinusoid, type SinusoidFit } from "./sinusoid-fit.js";
+import type { SampledSeries } from "./time-series.js";
+
+/** Options of {@link computePeriodogram}: the grid (or an explicit one) and peak finding. */
+export interface PeriodogramOptions extends FrequencyGridOptions {
+  /** Use this grid instead of the automatic one. */
+  readonly grid?: FrequencyGrid;
+  /** Number of peaks to report (default 5). */
+  readonly peaks?: number;
+  /** Smallest frequency difference between reported peaks; default one peak width, 1 / baseline. */
+  readonly peakSeparation?: number;
+  /** Search-wide false-alarm probabilities whose power levels to report, for figures (default 0.1, 0.01, 0.001). */
+  readonly falseAlarmLevels?: readonly number[];
+}
+
+/** A periodogram peak with its search-wide false-alarm probability and best-fitting sinusoid. */
+export interface RankedPeak extends PeriodogramPeak {
+  /** Baluev 2008 false-alarm probability of a peak this high anywhere in the searched range. */
+  readonly falseAlarm: number;
+  /** The best sinusoid at the peak; absent where it is not determined (zero frequency). */
+  readonly sinusoid?: SinusoidFit;
+}
+
+/** A computed periodogram, ready for a figure or for initial guesses. */
+export interface Periodogram {
+  readonly grid: FrequencyGrid;
+  /** Grid frequencies in cycles per unit of time. */
+  readonly frequency: Float64Array;
+  /** Generalised Lomb-Scargle power (Zechmeister & Kurster 2009 normalisation, in [0, 1]). */
+  readonly power: Float64Array;
+  /** The strongest peaks, strongest first. */
+  readonly peaks: RankedPeak[];
+  /** Power levels of the requested search-wide false-alarm probabilities (Baluev 2008). */
+  readonly falseAlarmLevels: { readonly probability: number; readonly power: number }[];
+  readonly n: number;
+  /** Last time minus first, in the time unit. */
+  readonly baseline: number;
+}
+
+/**
+ * Generalised Lomb-Scargle periodogram with an automatic grid (VanderPlas 2018), peak finding, Baluev 2008
+ * false-alarm probabilities and the best sinusoid at each peak. Each peak's frequency and power are
+ * re-evaluated exactly at the refined frequency (kept at the grid point if that is higher).
+ *
+ * @example const { peaks } = computePeriodogram(lightCurve); peaks[0].period
+ */
+export function computePeriodogram(series: SampledSeries, options: PeriodogramOptions = {}): Periodogram {
+  const grid = options.grid ?? automaticFrequencyGrid(series, options);
+  const power = glsPower(series, grid);
+  let first = Number.POSITIVE_INFINITY;
+  let last = Number.NEGATIVE_INFINITY;
+  for (let i = 0; i < series.time.length; i++) {
+    first = Math.min(first, series.time[i]);
+    last = Math.max(last, series.time[i]);
+  }
+  const baseline = last - first;
+  const extent: SearchExtent = {
+    n: series.time.length,
+    maximumFrequency: grid.start + (grid.count - 1) * grid.step,
+    timeVariance: timeVariance(series),
+  };
+  const peakOptions: PeakOptions = {
+    count: options.peaks ?? 5,
+    minimumSeparation: options.peakSeparation ?? (baseline > 0 ? 1 / baseline : 5 * grid.step),
+  };
+  const peaks = findPeaks(grid, power, peakOptions).map((peak): RankedPeak => {
+    let { frequency, power: height } = peak;
+    if (!peak.atEdge) {
+      const exact = glsPowerAt(series, [frequency])[0];
+      if (exact >= power[peak.index]) height = exact;
+      else {
+        frequency = grid.start + peak.index * grid.step;
+        height = power[peak.index];
+      }
+    }
+    return {
+      ...peak,
+      frequency,
+      period: 1 / frequency,
+      power: height,
+      falseAlarm: extent.n >= 5 ? baluevFalseAlarm(height, extent) : Number.NaN,
+      sinusoid: frequency > 0 ? fitSinusoid(series, frequency) : undefined,
+    };
+  });
+  const levels = extent.n >= 5 ? (options.falseAlarmLevels ?? [0.1, 0.01, 0.001]) : [];
+  return {
+    grid,
+    frequency: gridFrequencies(grid),
+    power,
+    peaks,
+    falseAlarmLevels: levels.map((probability) => ({ probability, power: baluevPowerLevel(probability, extent) })),
+    n: extent.n,
+    baseline,
+  };
+}
