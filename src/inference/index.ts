@@ -1,0 +1,80 @@
+/**
+ * The inference layer: parameters with priors and transforms, maximum a posteriori, the ensemble and
+ * no-U-turn samplers, convergence diagnostics and posterior summaries. Works on any {@link LogDensity},
+ * so it does not depend on the Gaussian-process engine.
+ */
+export type { LogDensity, DifferentiableLogDensity } from "./log-density.js";
+export { hasGradient } from "./log-density.js";
+export { countEvaluations, evaluationCost, type CountedLogDensity, type EvaluationCounts } from "./evaluation-counter.js";
+export { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
+export {
+  uniformPrior,
+  logUniformPrior,
+  normalPrior,
+  halfNormalPrior,
+  logNormalPrior,
+  truncatedPrior,
+  type Prior,
+} from "./priors.js";
+export {
+  identityTransform,
+  lowerBoundTransform,
+  upperBoundTransform,
+  intervalTransform,
+  transformForSupport,
+  type Transform,
+} from "./transforms.js";
+export {
+  createParameterSpace,
+  withFixedParameters,
+  withFreeParameter,
+  type ParameterSpace,
+  type ParameterSpec,
+  type FreeParameter,
+} from "./parameter-space.js";
+export { posteriorDensity, type PhysicalLikelihood, type PosteriorDensityOptions } from "./posterior-density.js";
+export { minimizeLbfgs, type LbfgsOptions, type LocalMinimum, type GradientObjective } from "./lbfgs.js";
+export { minimizeNelderMead, type NelderMeadOptions } from "./nelder-mead.js";
+export { findMaximumPosterior, startingPoints, type MaximumPosterior, type LocalMaximum } from "./maximum-posterior.js";
+export { modeScales } from "./mode-curvature.js";
+export { stretchProposal, differentialEvolutionProposal, defaultWalkerProposals, type WalkerProposal, type WeightedProposal } from "./walker-proposals.js";
+export { createWalkerEnsemble, defaultWalkerCount, type WalkerEnsembleOptions } from "./walker-ensemble.js";
+export { createNutsSampler, type NutsSamplerOptions } from "./nuts-sampler.js";
+export type { MarkovSampler } from "./markov-sampler.js";
+export { DrawStore } from "./draw-store.js";
+export {
+  runSampler,
+  type RunSamplerOptions,
+  type SamplerRun,
+  type SamplerProgress,
+  type StopReason,
+  type CancellationSignal,
+  type RunDiagnostics,
+} from "./run-sampler.js";
+export {
+  assessConvergence,
+  DEFAULT_CONVERGENCE_CRITERIA,
+  type ConvergenceCriteria,
+  type ConvergenceReport,
+  type ParameterDiagnostics,
+} from "./convergence-check.js";
+export {
+  autocovariance,
+  averagedAutocorrelation,
+  integratedAutocorrelationTime,
+  chainsAutocorrelationTime,
+  type AutocorrelationTime,
+} from "./autocorrelation.js";
+export { rankNormalize, splitChains, foldAboutMedian } from "./rank-normalization.js";
+export { rankNormalizedSplitRhat, potentialScaleReduction } from "./split-rhat.js";
+export { effectiveSampleSize, bulkEffectiveSampleSize, tailEffectiveSampleSize } from "./effective-sample-size.js";
+export { highestDensityInterval } from "./highest-density-interval.js";
+export { summarizeDraws, type PosteriorSummary } from "./posterior-summary.js";
+export { posteriorDraws, posteriorDrawsToCsv, type PosteriorDraws } from "./posterior-draws.js";
+export {
+  samplePosterior,
+  DEFAULT_SAMPLER,
+  type SamplerKind,
+  type PosteriorSamplingOptions,
+  type PosteriorSample,
+} from "./sample-posterior.js";

@@ -1,0 +1,180 @@
+import { childSeed, createRng } from "../random/rng.js";
+import { createWalkerEnsemble, defaultWalkerCount } from "./walker-ensemble.js";
+import type { WeightedProposal } from "./walker-proposals.js";
+import { countEvaluations, evaluationCost } from "./evaluation-counter.js";
+import { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
+import { hasGradient, type LogDensity } from "./log-density.js";
+import { findMaximumPosterior, startingPoints, type MaximumPosterior } from "./maximum-posterior.js";
+import { modeScales } from "./mode-curvature.js";
+import { createNutsSampler } from "./nuts-sampler.js";
+import type { ParameterSpace } from "./parameter-space.js";
+import { posteriorDensity, type PhysicalLikelihood } from "./posterior-density.js";
+import { posteriorDraws } from "./posterior-draws.js";
+import { summarizeDraws, type PosteriorSummary } from "./posterior-summary.js";
+import { runSampler, type RunDiagnostics, type RunSamplerOptions, type SamplerRun, type StopReason } from "./run-sampler.js";
+import type { Rng } from "../random/rng.js";
+
+/** The two samplers. */
+export type SamplerKind = "nuts" | "ensemble";
+
+/**
+ * The sampler used when none is asked for and the likelihood has a gradient. Chosen by
+ * bench/samplers-compare.ts, which measures log-likelihood evaluations per effective sample (a
+ * gradient counted as DEFAULT_GRADIENT_COST evaluations) on a damped random walk of 250 points and a
+ * quasi-periodic light curve of 1000 points; see the figures recorded there. Without a gradient the
+ * ensemble sampler is used.
+ */
+export const DEFAULT_SAMPLER: SamplerKind = "nuts";
+
+/** Options of {@link samplePosterior}. */
+export interface PosteriorSamplingOptions extends RunSamplerOptions {
+  /** Seed of every random choice of the fit; the same seed gives the same draws, bit for bit. */
+  readonly seed: number | string;
+  /** "nuts" or "ensemble" (default {@link DEFAULT_SAMPLER}, or "ensemble" without a gradient). */
+  readonly sampler?: SamplerKind;
+  /** A first guess by parameter name (for example from a periodogram), the first optimiser start. */
+  readonly initial?: Readonly<Record<string, number>>;
+  /** Optimiser starts: the initial guess plus draws from the prior (default 6). */
+  readonly starts?: number;
+  /** NUTS chains (default 4). */
+  readonly chains?: number;
+  /** NUTS warm-up iterations per chain (default 500). */
+  readonly warmup?: number;
+  /** NUTS target acceptance statistic (default 0.8). */
+  readonly targetAcceptance?: number;
+  /** NUTS maximum tree depth (default 10). */
+  readonly maxTreeDepth?: number;
+  /** Ensemble walkers (default {@link defaultWalkerCount}). */
+  readonly walkers?: number;
+  /** Ensemble proposals (default the mixture of {@link defaultWalkerProposals}). */
+  readonly proposals?: readonly WeightedProposal[];
+}
+
+/** The result of {@link samplePosterior}. */
+export interface PosteriorSample {
+  readonly sampler: SamplerKind;
+  readonly seed: number | string;
+  readonly stopReason: StopReason;
+  /** The maximum a posteriori in physical parameters (no Jacobian), by name. */
+  readonly maximum: Readonly<Record<string, number>>;
+  /** ln posterior at the maximum (physical parameterisation). */
+  readonly maximumLogDensity: number;
+  /** Posterior summary of every parameter, by name; fixed ones carry `fixed: true` and sd 0. */
+  readonly parameters: Readonly<Record<string, PosteriorSummary & { readonly fixed?: boolean; readonly rhat?: number; readonly essBulk?: number; readonly essTail?: number }>>;
+  /** Run diagnostics; `logProbEvaluations` and `seconds` include the optimisation. */
+  readonly diagnostics: RunDiagnostics & { readonly optimizerEvaluations: number };
+  readonly run: SamplerRun;
+  readonly space: ParameterSpace;
+  /** Sampler details (step sizes, divergences, moves, ...). */
+  readonly details: Record<string, unknown>;
+}
+
+/** Draws `count` points around `centre`, `scale[i] * spread` wide, each with a finite log density. */
+function cloudAround(
+  target: LogDensity,
+  centre: Float64Array,
+  scale: Float64Array,
+  spread: number,
+  count: number,
+  rng: Rng,
+): Float64Array[] {
+  const points: Float64Array[] = [];
+  for (let k = 0; k < count; k++) {
+    let point = Float64Array.from(centre);
+    for (let attempt = 0, s = spread; attempt < 50; attempt++, s *= 0.5) {
+      const trial = Float64Array.from(centre, (c, i) => c + s * scale[i]! * rng.normal());
+      if (Number.isFinite(target.logDensity(trial))) {
+        point = trial;
+        break;
+      }
+    }
+    points.push(point);
+  }
+  return points;
+}
+
+/**
+ * Samples the posterior of a model: finds the maximum a posteriori from several starts (L-BFGS with the
+ * likelihood's gradient, or Nelder-Mead without), starts NUTS chains (spread by the curvature at the
+ * mode) or ensemble walkers (a tight ball, a tenth of that) around it, and runs the sampler until the
+ * convergence criteria hold or the budget is spent ({@link runSampler}). Returns summaries in
+ * physical units and the run.
+ *
+ * @example
+ * const fit = samplePosterior(space, likelihood, { seed: 7, onProgress: (p) => bar.update(p.fraction) });
+ * fit.parameters.tau.median; fit.diagnostics.converged; fit.stopReason;
+ */
+export function samplePosterior(
+  space: ParameterSpace,
+  likelihood: PhysicalLikelihood,
+  options: PosteriorSamplingOptions,
+): PosteriorSample {
+  const clock = options.clock ?? (() => performance.now());
+  const startTime = clock();
+  const gradientCost = options.gradientCost ?? DEFAULT_GRADIENT_COST;
+  const withGradient = likelihood.logLikelihoodAndGradient !== undefined;
+  const kind: SamplerKind = options.sampler ?? (withGradient ? DEFAULT_SAMPLER : "ensemble");
+  if (kind === "nuts" && !withGradient) throw new RangeError("NUTS needs a likelihood with a gradient");
+  if (space.dimension === 0) throw new RangeError("posterior sampling: every parameter is fixed");
+
+  const seed = options.seed;
+  const optimiserTarget = countEvaluations(posteriorDensity(space, likelihood, { jacobian: false }));
+  const starts = startingPoints(space, options.starts ?? 6, createRng(childSeed(seed, 0)), options.initial);
+  const maximum: MaximumPosterior = findMaximumPosterior(optimiserTarget, { starts });
+  const optimizerEvaluations = evaluationCost(optimiserTarget.counts, gradientCost);
+
+  const target = countEvaluations(posteriorDensity(space, likelihood, { jacobian: true }));
+  const scales = modeScales(target, maximum.x);
+  const startRng = createRng(childSeed(seed, 1));
+  let sampler;
+  if (kind === "nuts") {
+    if (!hasGradient(target)) throw new RangeError("NUTS needs a likelihood with a gradient");
+    const initial = cloudAround(target, maximum.x, scales, 1, options.chains ?? 4, startRng);
+    sampler = createNutsSampler(target, initial, childSeed(seed, 3), {
+      ...(options.warmup !== undefined ? { warmup: options.warmup } : {}),
+      ...(options.targetAcceptance !== undefined ? { targetAcceptance: options.targetAcceptance } : {}),
+      ...(options.maxTreeDepth !== undefined ? { maxTreeDepth: options.maxTreeDepth } : {}),
+    });
+  } else {
+    const initial = cloudAround(target, maximum.x, scales, 0.1, options.walkers ?? defaultWalkerCount(space.dimension), startRng);
+    sampler = createWalkerEnsemble(target, initial, createRng(childSeed(seed, 2)), options.proposals ? { proposals: options.proposals } : {});
+  }
+  const setupCost = evaluationCost(target.counts, gradientCost);
+  const run = runSampler(sampler, target.counts, {
+    ...options,
+    gradientCost,
+    maxEvaluations: Math.max(0, (options.maxEvaluations ?? 2e6) - optimizerEvaluations - setupCost),
+  });
+
+  const draws = posteriorDraws(space, run);
+  const parameters: Record<string, PosteriorSummary & { fixed?: boolean; rhat?: number; essBulk?: number; essTail?: number }> = {};
+  const freeIndex = new Map(space.free.map((p, i) => [p.name, i]));
+  for (const name of space.names) {
+    const summary = summarizeDraws(draws.columns[name]!);
+    const i = freeIndex.get(name);
+    if (i === undefined) {
+      parameters[name] = { ...summary, sd: 0, fixed: true };
+    } else {
+      const diag = run.diagnostics.convergence.parameters[i]!;
+      parameters[name] = { ...summary, rhat: diag.rhat, essBulk: diag.essBulk, essTail: diag.essTail };
+    }
+  }
+  const physicalMaximum = space.recordFromPhysical(space.toPhysical(maximum.x));
+  return {
+    sampler: kind,
+    seed,
+    stopReason: run.stopReason,
+    maximum: physicalMaximum,
+    maximumLogDensity: maximum.logDensity,
+    parameters,
+    diagnostics: {
+      ...run.diagnostics,
+      logProbEvaluations: run.diagnostics.logProbEvaluations + optimizerEvaluations + setupCost,
+      seconds: (clock() - startTime) / 1000,
+      optimizerEvaluations,
+    },
+    run,
+    space,
+    details: sampler.details(),
+  };
+}
