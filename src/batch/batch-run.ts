@@ -4,7 +4,7 @@ import { FitPool, type FitOutcome } from "./fit-pool.js";
 import { objectSeed } from "./object-seed.js";
 import { ColumnTypeTracker, writeParquetTable } from "./parquet-results-file.js";
 import { expectedColumns, unionColumns } from "./result-columns.js";
-import { failedRow, type ResultRow } from "./result-row.js";
+import { failedRow, withWarnings, type ResultRow } from "./result-row.js";
 import { journalPathFor, journalRows, ResultsJournal, type JournalOpenMode, type RunIdentity } from "./results-journal.js";
 import { acquireRunLock } from "./run-lock.js";
 import { formatShard, isInShard, type ShardSpec } from "./shard.js";
@@ -195,7 +195,11 @@ export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> 
           const task: Promise<void> = pool
             .fit(id, object.lightCurve, fitOptions)
             .then((outcome: FitOutcome) =>
-              record(outcome.kind === "ok" ? outcome.row : failedRow(id, seed, options.model, outcome.reason)),
+              record(
+                outcome.kind === "ok"
+                  ? withWarnings(outcome.row, object.warnings)
+                  : failedRow(id, seed, options.model, outcome.reason),
+              ),
             )
             .catch((error: Error) => {
               fatal ??= error;

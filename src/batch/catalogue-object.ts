@@ -9,4 +9,6 @@ export interface CatalogueObject {
   readonly lightCurve?: LightCurve;
   /** Why there is no light curve (for example an input error naming the file, line and column). */
   readonly problem?: string;
+  /** What the reader had to tell about the data (dropped rows, an assumed unit); added to the row's warnings. */
+  readonly warnings?: readonly string[];
 }

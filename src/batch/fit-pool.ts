@@ -2,7 +2,7 @@ import { Worker } from "node:worker_threads";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { FitRequest, FitWorkerData, FitWorkerMessage } from "./fit-worker-protocol.js";
 import type { ResultRow } from "./result-row.js";
-import { compiledWorkerUrl } from "./worker-script.js";
+import { compiledWorkerUrl } from "./compiled-location.js";
 
 /** Options of {@link FitPool.start}. */
 export interface FitPoolOptions {

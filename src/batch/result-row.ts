@@ -29,7 +29,7 @@ export function okRow(objectId: string, seed: number, fit: FitResult): ResultRow
   const row: Record<string, ResultCell> = {
     object_id: objectId,
     status: "ok",
-    reason: "",
+    reason: null,
     model: String(fit.model),
     seed,
   };
@@ -63,4 +63,14 @@ function isScalar(value: unknown): value is string | number | boolean {
 
 function scalarCell(value: unknown): ResultCell {
   return isScalar(value) ? value : null;
+}
+
+/**
+ * The row with `extra` warnings placed before the fit's own in the `warnings` column (for example what
+ * the reader said about the data). Returns the row unchanged when there is nothing to add.
+ */
+export function withWarnings(row: ResultRow, extra: readonly string[] | undefined): ResultRow {
+  if (!extra || extra.length === 0 || row.status !== "ok") return row;
+  const own = typeof row.warnings === "string" ? (JSON.parse(row.warnings) as string[]) : [];
+  return { ...row, warnings: JSON.stringify([...extra.map(singleLine), ...own]) };
 }
