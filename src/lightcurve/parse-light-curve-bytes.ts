@@ -1,7 +1,9 @@
 import type { LightCurveSet } from "./assemble-light-curves.js";
 import type { Delimiter } from "./delimited-text.js";
 import { parseDelimitedLightCurves, type DelimitedReadOptions } from "./delimited-light-curve.js";
+import { parseFitsLightCurves } from "./fits-light-curve.js";
 import type { LightCurveFormat } from "./light-curve-format.js";
+import { parseParquetLightCurves } from "./parquet-light-curve.js";
 
 /** Options of the light-curve readers: columns, band, unit, validation, and an optional forced format. */
 export interface LightCurveReadOptions extends DelimitedReadOptions {
@@ -26,7 +28,9 @@ export async function parseLightCurveBytes(
   switch (format) {
     case "text":
       return parseDelimitedLightCurves(new TextDecoder("utf-8").decode(bytes), source, options, preferredDelimiter);
-    default:
-      throw new Error(`format ${format} is handled in a later commit`);
+    case "parquet":
+      return parseParquetLightCurves(bytes, source, options);
+    case "fits":
+      return parseFitsLightCurves(bytes, source, options);
   }
 }
