@@ -1,6 +1,7 @@
 import type { TopLevelSpec } from "vega-lite";
 import { evenIndices } from "./even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
+import { formatSignificant } from "./format-measurement.js";
 import { timeUnitOf, valueUnitOf } from "./parameter-display.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
@@ -119,7 +120,7 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
       ? "The file gives no errors, so a white-noise term was fitted and no error bars are drawn."
       : withErrors
         ? "Bars are the 1σ measurement errors."
-        : `Error bars are left out above ${MAX_POINTS_WITH_ERROR_BARS} points; the median 1σ error is ${medianError(lightCurve.error).toPrecision(2)} ${valueUnit}.`;
+        : `Error bars are left out above ${MAX_POINTS_WITH_ERROR_BARS} points; the median 1σ error is ${formatSignificant(medianError(lightCurve.error), 2)} ${valueUnit}.`;
   const thinNote = drawn.length < n ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn.` : "";
   const offsetNote = offset === 0 ? "" : ` Times are shown relative to ${offset} ${timeUnit}.`;
   return {

@@ -61,14 +61,20 @@ function densePrediction(time: Float64Array, y: Float64Array, err: Float64Array,
   const chol = new CholeskyDecomposition(k);
   const resid = Matrix.columnVector(Array.from(y, (v) => v - TRUE_MEAN));
   const alpha = chol.solve(resid);
+  const cross = new Matrix(n, grid.length);
+  for (let i = 0; i < n; i++) for (let g = 0; g < grid.length; g++) cross.set(i, g, drwCov(time[i]!, grid[g]!));
+  const solved = chol.solve(cross);
   const mean = new Float64Array(grid.length);
   const sd = new Float64Array(grid.length);
   for (let g = 0; g < grid.length; g++) {
-    const ks = Matrix.columnVector(Array.from(time, (t) => drwCov(grid[g]!, t)));
-    mean[g] = TRUE_MEAN + ks.transpose().mmul(alpha).get(0, 0);
-    const v = chol.solve(ks);
-    const variance = drwCov(grid[g]!, grid[g]!) - ks.transpose().mmul(v).get(0, 0);
-    sd[g] = Math.sqrt(Math.max(variance, 0));
+    let m = 0;
+    let reduction = 0;
+    for (let i = 0; i < n; i++) {
+      m += cross.get(i, g) * alpha.get(i, 0);
+      reduction += cross.get(i, g) * solved.get(i, g);
+    }
+    mean[g] = TRUE_MEAN + m;
+    sd[g] = Math.sqrt(Math.max(drwCov(grid[g]!, grid[g]!) - reduction, 0));
   }
   return { mean, sd };
 }
@@ -180,8 +186,9 @@ export function inventedReportInput(options: InventedOptions = {}): ReportInput 
   const frequency = Float64Array.from({ length: 300 }, (_, i) => 10 ** (-3.5 + (2.5 * i) / 299));
   const power = classicalPeriodogram(time, value, frequency);
   // DRW PSD S(f) = 4 sigma^2 tau / (1 + (2 pi f tau)^2) per draw, then quantiles per frequency.
-  const tauDraws = pooled("tau");
-  const sigmaDraws = pooled("sigma");
+  const stride = Math.max(1, Math.floor(pooled("tau").length / 2000));
+  const tauDraws = pooled("tau").filter((_, i) => i % stride === 0);
+  const sigmaDraws = pooled("sigma").filter((_, i) => i % stride === 0);
   const median = new Float64Array(frequency.length);
   const lower = new Float64Array(frequency.length);
   const upper = new Float64Array(frequency.length);

@@ -1,0 +1,70 @@
+import { describe, expect, it } from "vitest";
+import type { ParameterSummary } from "../../src/models/fit-result.js";
+import { plainSummary } from "../../src/report/plain-summary.js";
+import type { ReportInput } from "../../src/report/report-input.js";
+import { inventedReportInput } from "./invented-input.js";
+
+const base = inventedReportInput({ chains: 2, steps: 50 });
+
+function summary(median: number, q16: number, q84: number): ParameterSummary {
+  return { median, mean: median, sd: (q84 - q16) / 2, "q2.5": q16 - (median - q16), q16, q84, "q97.5": q84 + (q84 - median) };
+}
+
+function withResult(patch: Partial<ReportInput["result"]>, extra: Partial<ReportInput> = {}): ReportInput {
+  return { ...base, ...extra, result: { ...base.result, ...patch } };
+}
+
+describe("plainSummary", () => {
+  it("states the DRW timescale and amplitude with rounded 68% intervals and their units", () => {
+    const input = withResult({
+      parameters: { tau: summary(312.4, 250.7, 391.6), sigma: summary(0.2381, 0.2131, 0.2669), mean: summary(19.4, 19.34, 19.46) },
+      data: { ...base.result.data, baseline: 4000 },
+    });
+    const text = plainSummary(input).join(" ");
+    expect(text).toContain("The damping timescale τ is 310 +80/−60 d");
+    expect(text).toContain("the variability amplitude σ is 0.238 +0.029/−0.025 mag");
+    expect(text).toContain("Other parameters: mean = 19.40 ± 0.06 mag");
+    // Kozlowski 2017 (A&A 597, A128): the baseline should be at least about 10 tau; 4000/312.4 = 12.8.
+    expect(text).toContain("The baseline is 13 times the timescale, long enough");
+  });
+  it("says when the baseline is too short for an unbiased DRW timescale", () => {
+    // Kozlowski 2017: below ~10 tau the timescale is biased; 1500 / 312.4 = 4.8.
+    const input = withResult({
+      parameters: { tau: summary(312.4, 250.7, 391.6), sigma: summary(0.24, 0.21, 0.27) },
+      data: { ...base.result.data, baseline: 1500 },
+    });
+    expect(plainSummary(input).join(" ")).toContain("The baseline is 4.8 times the timescale, short of the 10 times");
+  });
+  it("flags a sampler that did not converge and counts the warnings", () => {
+    const input = withResult({
+      diagnostics: { ...base.result.diagnostics, converged: false, rhatMax: 1.234 },
+      warnings: ["one", "two"],
+    });
+    const text = plainSummary(input).join(" ");
+    expect(text).toContain("The sampler did not converge (largest R-hat 1.234, target below 1.01");
+    expect(text).toContain("There are 2 warnings");
+  });
+  it("reports a quasi-periodic period and the coherence time quality × period / π from the draws", () => {
+    const n = 400;
+    // Quality fixed at 10 and period at 2 pi days give a coherence time of exactly 20 days (DESIGN.md definition).
+    const quality = new Float64Array(n).fill(10);
+    const period = Float64Array.from({ length: n }, (_, i) => 2 * Math.PI * (1 + 0.001 * Math.sin(i)));
+    const input = withResult(
+      {
+        model: "quasi-periodic",
+        parameters: { period: summary(6.2832, 6.2, 6.35), quality: summary(10, 9, 11) },
+      },
+      { draws: { names: ["period", "quality"], chains: { period: [period], quality: [quality] } } },
+    );
+    const text = plainSummary(input).join(" ");
+    expect(text).toContain("Fitted model: a quasi-periodic model");
+    expect(text).toContain("The period P is 6.28 +0.07/−0.08 d");
+    expect(text).toMatch(/coherent for about 20\.0\d* [±+]/);
+  });
+  it("mentions dropped rows and a missing error column", () => {
+    const input = withResult({ data: { ...base.result.data, dropped: 1, errorColumn: null } });
+    const text = plainSummary(input)[0]!;
+    expect(text).toContain("1 row was dropped for missing values");
+    expect(text).toContain("a white-noise term was fitted");
+  });
+});
