@@ -128,6 +128,14 @@ function orElse(index: number, other: number): number {
   return index >= 0 ? index : other;
 }
 
+/**
+ * The index of a column chosen by the user: exact name, then case-insensitive name, then 1-based
+ * column number; an InputError listing the columns when there is none.
+ */
+export function findColumn(names: readonly string[], choice: string, role: string, source: string): number {
+  return findExplicit(names, choice, role, source);
+}
+
 function findExplicit(names: readonly string[], choice: string, role: string, source: string): number {
   let index = names.indexOf(choice);
   if (index < 0) index = names.findIndex((n) => n.trim().toLowerCase() === choice.trim().toLowerCase());
