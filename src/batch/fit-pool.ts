@@ -1,4 +1,5 @@
 import { Worker } from "node:worker_threads";
+import { InputError } from "../lightcurve/input-error.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { FitRequest, FitWorkerData, FitWorkerMessage } from "./fit-worker-protocol.js";
 import type { ResultRow } from "./result-row.js";
@@ -117,7 +118,7 @@ export class FitPool {
             this.dispatch();
             break;
           case "load-failed":
-            rejectReady(new Error(message.reason));
+            rejectReady(new InputError(message.reason));
             void worker.terminate();
             break;
           case "fitted":

@@ -17,6 +17,8 @@ export interface MergeOptions {
   readonly format: ResultsFormat;
   /** The catalogue's ids, to find objects that no shard recorded. */
   readonly catalogueIds?: () => AsyncIterable<string>;
+  /** Called with the id of every missing object (for a full list; the report keeps only examples). */
+  readonly onMissing?: (id: string) => void;
 }
 
 /** What a merge found. */
@@ -106,6 +108,7 @@ export async function mergeResults(options: MergeOptions): Promise<MergeReport> 
       if (emitted.has(id) || counted.has(id)) continue;
       counted.add(id);
       missing += 1;
+      options.onMissing?.(id);
       if (missingExamples.length < EXAMPLES) missingExamples.push(id);
     }
   }

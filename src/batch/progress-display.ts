@@ -23,7 +23,7 @@ function statusText(progress: BatchProgress): { counts: string; rate: string; et
   const total = progress.toDo === undefined ? "" : `/${progress.toDo}`;
   return {
     counts: `${progress.recorded}${total} objects, ${progress.failed} failed`,
-    rate: `${formatRate(rate)} fits`,
+    rate: formatRate(rate),
     eta: `ETA ${formatDuration(etaSeconds)}`,
   };
 }

@@ -28,8 +28,8 @@ export function formatDuration(seconds: number | undefined): string {
   return `${Math.floor(s / 86400)}d ${pad(Math.floor((s % 86400) / 3600))}h`;
 }
 
-/** A rate for people, with two significant digits below 10: `0.42/s`, `3.1/s`, `57/s`. */
+/** A rate of fits for people, with two significant digits below 10: `0.42 fits/s`, `3.1 fits/s`, `57 fits/s`. */
 export function formatRate(rate: number | undefined): string {
-  if (rate === undefined) return "?/s";
-  return `${rate < 10 ? rate.toPrecision(2) : Math.round(rate)}/s`;
+  if (rate === undefined) return "? fits/s";
+  return `${rate < 10 ? rate.toPrecision(2) : Math.round(rate)} fits/s`;
 }
