@@ -318,3 +318,25 @@ describe("readLightCurves: compression and sniffing", () => {
     expect(lightCurves[0].value[5]).toBe(18.05);
   });
 });
+
+describe("delimited text: remaining error paths", () => {
+  it("rejects a forced delimiter that does not split the table", () => {
+    expect(inputError(() => parseDelimitedLightCurves("mjd,mag,err\n" + rows(5), "d.txt", { delimiter: "\t" })).message).toBe(
+      "d.txt:1: found fewer than two columns (expected at least time and value, separated by commas, tabs, semicolons, bars or spaces)",
+    );
+    expect(parseDelimitedLightCurves("mjd|mag|err\n" + rows(5).replace(/,/g, "|"), "d.txt", { delimiter: "|" }).lightCurves).toHaveLength(1);
+  });
+
+  it("rejects an error column that is also the time or value column", () => {
+    expect(inputError(() => parseDelimitedLightCurves("mjd,mag,err\n" + rows(5), "c.csv", { errorColumn: "mag" })).message).toBe(
+      'c.csv: column "mag": the error column is also chosen as time or value column',
+    );
+  });
+
+  it("drops rows without a band, with a warning", () => {
+    const text = "mjd,band,mag,err\n1,g,1,0.1\n2,,1.1,0.1\n3,g,1.2,0.1\n4,g,1,0.1\n5,null,1,0.1\n6,g,1,0.1\n7,g,1.3,0.1\n";
+    const { lightCurves, warnings } = parseDelimitedLightCurves(text, "b.csv");
+    expect(lightCurves[0].time.length).toBe(5);
+    expect(warnings).toEqual(['b.csv: dropped 2 row(s) with no band in column "band"']);
+  });
+});

@@ -89,6 +89,12 @@ describe("Parquet error paths", () => {
     );
   });
 
+  it("rejects Parquet whose data pages are corrupt", async () => {
+    const bytes = parquet(basic());
+    for (let i = 4; i < 12; i++) bytes[i] = 0xff;
+    expect((await parquetError(bytes)).message).toMatch(/^t\.parquet: cannot decode the Parquet data \(.+\)$/);
+  });
+
   it("rejects infinities and garbage strings with their row", async () => {
     const inf = basic();
     inf[1] = { ...inf[1], data: [1, 2, Number.POSITIVE_INFINITY, 4, 5, 6] };
