@@ -1,9 +1,11 @@
-import { opendir, stat } from "node:fs/promises";
-import { join, resolve } from "node:path";
+import { stat } from "node:fs/promises";
+import { basename, resolve } from "node:path";
 import { UsageError } from "../cli/cli-io.js";
 import { InputError } from "../lightcurve/input-error.js";
-import type { LightCurveSet } from "../lightcurve/assemble-light-curves.js";
-import { FORMAT_EXTENSIONS, isLightCurveFileName } from "../lightcurve/light-curve-format.js";
+import { streamCatalogue } from "../lightcurve/catalogue-stream.js";
+import type { LightCurve } from "../lightcurve/light-curve.js";
+import { FORMAT_EXTENSIONS } from "../lightcurve/light-curve-format.js";
+import { listLightCurveFiles } from "../lightcurve/list-light-curve-files.js";
 import { readLightCurves, type LightCurveReadOptions } from "../lightcurve/read-light-curves.js";
 import type { CatalogueObject } from "./catalogue-object.js";
 
@@ -37,9 +39,12 @@ export function objectIdFromFileName(name: string): string {
 
 /**
  * Opens the input of `horologium batch`: a folder of light-curve files (one object per file, its id the
- * file name without extension) or, with `idColumn`, one table holding every object. Nothing is read
- * until the objects are iterated; then one light curve at a time is in memory. A file that cannot be
- * read becomes an object with the reader's one-line reason, so it is recorded as failed and the run goes on.
+ * file name without extension, listed in sorted order) or, with `idColumn`, one delimited-text table
+ * holding every object, its rows grouped by id (streamed by the catalogue reader of src/lightcurve).
+ * Nothing is read until the objects are iterated; then about one light curve at a time is in memory.
+ * An object that cannot be read, or that has several bands when none was chosen, comes with the
+ * reader's one-line reason instead of a light curve, so it is recorded as failed and the run goes on;
+ * a problem of the table as a whole (no such file, unknown column, ids not grouped) is an InputError.
  */
 export async function openCatalogue(path: string, options: CatalogueReadOptions): Promise<Catalogue> {
   const absolute = resolve(path);
@@ -58,49 +63,57 @@ export async function openCatalogue(path: string, options: CatalogueReadOptions)
       kind: "folder",
       objects: () => folderObjects(absolute, options),
       ids: async function* () {
-        for await (const name of lightCurveFiles(absolute)) yield objectIdFromFileName(name);
+        for (const file of await listLightCurveFiles(absolute)) yield objectIdFromFileName(basename(file));
       },
     };
   }
-  if (options.idColumn === undefined) {
+  const idColumn = options.idColumn;
+  if (idColumn === undefined) {
     throw new UsageError(`${path} is a file: name its object-id column with --id-col, or give a folder of light-curve files`);
   }
-  throw new UsageError(
-    `${path}: reading a single catalogue table by --id-col is not available yet (it waits for the streaming ` +
-      "catalogue reader of src/lightcurve); give a folder of light-curve files",
-  );
-}
-
-/** The light-curve files of a folder, streamed in directory order (no sort, so no list in memory). */
-async function* lightCurveFiles(folder: string): AsyncGenerator<string> {
-  const directory = await opendir(folder);
-  for await (const entry of directory) {
-    if ((entry.isFile() || entry.isSymbolicLink()) && isLightCurveFileName(entry.name)) yield entry.name;
-  }
-}
-
-async function* folderObjects(folder: string, options: CatalogueReadOptions): AsyncGenerator<CatalogueObject> {
-  for await (const name of lightCurveFiles(folder)) {
-    const id = objectIdFromFileName(name);
-    let set: LightCurveSet;
-    try {
-      set = await readLightCurves(join(folder, name), options);
-    } catch (error) {
-      if (error instanceof InputError) {
-        yield { id, problem: error.message };
-        continue;
+  const entries = () => streamCatalogue(absolute, { ...options, idColumn });
+  return {
+    path: absolute,
+    kind: "table",
+    objects: async function* () {
+      for await (const entry of entries()) {
+        yield entry.problem !== undefined
+          ? { id: entry.id, problem: entry.problem }
+          : singleLightCurve(entry.id, `object "${entry.id}"`, entry.lightCurves, entry.warnings, options);
       }
-      throw error;
+    },
+    ids: async function* () {
+      for await (const entry of entries()) yield entry.id;
+    },
+  };
+}
+
+/** The objects of a folder, one file each, in the sorted order of the folder listing. */
+async function* folderObjects(folder: string, options: CatalogueReadOptions): AsyncGenerator<CatalogueObject> {
+  for (const file of await listLightCurveFiles(folder)) {
+    const name = basename(file);
+    const id = objectIdFromFileName(name);
+    try {
+      const set = await readLightCurves(file, options);
+      yield singleLightCurve(id, name, set.lightCurves, set.warnings, options);
+    } catch (error) {
+      if (!(error instanceof InputError)) throw error;
+      yield { id, problem: error.message };
     }
-    yield singleLightCurve(id, name, set, options);
   }
 }
 
-/** One object's light curve from what the reader returned, or the reason there is not exactly one. */
-function singleLightCurve(id: string, source: string, set: LightCurveSet, options: LightCurveReadOptions): CatalogueObject {
-  if (set.lightCurves.length === 1) return { id, lightCurve: set.lightCurves[0], warnings: set.warnings };
-  if (set.lightCurves.length === 0) return { id, problem: `${source}: no light curve in the file` };
-  const bands = set.lightCurves.map((lc) => lc.band ?? "?").join(", ");
+/** One object's light curve from what a reader returned, or the reason there is not exactly one. */
+function singleLightCurve(
+  id: string,
+  source: string,
+  lightCurves: readonly LightCurve[],
+  warnings: readonly string[],
+  options: LightCurveReadOptions,
+): CatalogueObject {
+  if (lightCurves.length === 1) return { id, lightCurve: lightCurves[0], warnings };
+  if (lightCurves.length === 0) return { id, problem: `${source}: no light curve` };
+  const bands = lightCurves.map((lc) => lc.band ?? "?").join(", ");
   const hint = options.band === undefined ? "; choose one with --band" : "";
-  return { id, problem: `${source}: ${set.lightCurves.length} bands (${bands})${hint}` };
+  return { id, problem: `${source}: ${lightCurves.length} bands (${bands})${hint}` };
 }

@@ -86,6 +86,28 @@ describe("horologium batch", () => {
     expect(rows.get("lf-004")).toMatchObject({ status: "failed", reason: "the stand-in fit rejects this object on purpose" });
   });
 
+  it("fits a single table grouped by an object-id column, with the same results as one file per object", async () => {
+    // The same invented light curves as one table, rows grouped by object id; lf-009 has a bad cell.
+    const lines = ["objid,mjd,mag,mag_err"];
+    for (const id of ids) {
+      const file = readFileSync(join(catalogue, `${id}.csv`), "utf8").trim().split("\n").slice(1);
+      for (const line of file) lines.push(`${id},${line}`);
+    }
+    writeFileSync(join(folder, "lanternfield-table.csv"), lines.join("\n") + "\n");
+    const { code, stderr } = await cli(["batch", "lanternfield-table.csv", "--id-col", "objid", ...fitArgs, "--out", "from-table.csv"]);
+    expect(code, stderr).toBe(0);
+    const fromTable = await table(join(folder, "from-table.csv"));
+    const fromFolder = await table(join(folder, "all.csv"));
+    expect([...fromTable.keys()].sort()).toEqual(ids);
+    for (const id of ids) {
+      if (id === "lf-009") {
+        expect(fromTable.get(id)!.reason).toMatch(/^object "lf-009": .*lanternfield-table\.csv:\d+: column "mag"/);
+        continue;
+      }
+      expect(fromTable.get(id)).toEqual(fromFolder.get(id));
+    }
+  });
+
   it("takes its shard from the Slurm job-array variables", async () => {
     const env = { SLURM_ARRAY_TASK_ID: "1", SLURM_ARRAY_TASK_COUNT: "3" };
     const { code, stderr } = await cli(["batch", "lanternfield", ...fitArgs, "--workers", "1", "--out", "task1.csv"], env);
