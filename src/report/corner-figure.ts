@@ -12,6 +12,8 @@ import type { ReportInput } from "./report-input.js";
 const MAX_DRAWS = 20000;
 /** Equal-width bins across each axis, shared by the marginals and the pairwise densities. */
 const BINS = 24;
+/** Pixels between cells; the headings of the marginals sit in this gap, under empty cells. */
+const SPACING = 16;
 /** The axes span this central fraction of the draws, so a few stray draws do not squash the picture. */
 const AXIS_MASS = 0.99;
 
@@ -19,6 +21,7 @@ const AXIS_MASS = 0.99;
 interface CornerAxis {
   readonly field: string;
   readonly title: string;
+  /** For example "τ = 310 +80/−60 d". */
   readonly heading: string;
   readonly extent: [number, number];
   /** Median, 16% and 84% quantiles on the plotted (possibly log10) scale. */
@@ -70,7 +73,8 @@ export function cornerFigure(input: ReportInput): ReportFigure {
   });
 
   const k = axes.length;
-  const cell = k <= 2 ? 200 : k <= 3 ? 170 : k <= 5 ? 135 : 110;
+  // Smaller cells for many parameters keep the whole plot near the page width, so its text is not shrunk.
+  const cell = k <= 2 ? 200 : k <= 3 ? 170 : k <= 5 ? 135 : k <= 6 ? 110 : 90;
   const cells: unknown[] = [];
   for (let i = 0; i < k; i++) {
     for (let j = 0; j < k; j++) {
@@ -82,10 +86,10 @@ export function cornerFigure(input: ReportInput): ReportFigure {
 
   const spec = {
     $schema: "https://vega.github.io/schema/vega-lite/v6.json",
-    config: { ...figureConfig(), axis: { ...figureConfig().axis, grid: false, tickCount: 4, labelOverlap: true } },
+    config: { ...figureConfig(), axis: { ...figureConfig().axis, grid: false, tickCount: k <= 5 ? 4 : 3, labelOverlap: true } },
     datasets: { draws: rows },
     columns: k,
-    spacing: 24,
+    spacing: SPACING,
     // Lay out by plot areas alone, so a long heading or axis title cannot push a column sideways; headings
     // stay clear of their neighbours because the cell right of each diagonal cell is empty.
     bounds: "flush",
@@ -141,7 +145,9 @@ function marginalCell(axis: CornerAxis, size: number, bottom: boolean) {
   return {
     width: size,
     height: size,
-    title: { text: axis.heading, fontSize: 11, limit: 2 * size },
+    // Never truncated: a heading wider than its cell runs over the empty cells to its right (or widens
+    // the figure, for the last column), and is aligned with the plot area, not the axis labels.
+    title: { text: axis.heading, fontSize: 11, limit: 0, frame: "group" },
     layer: [
       {
         data: { name: "draws" },

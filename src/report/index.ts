@@ -17,6 +17,7 @@ export { cornerFigure } from "./corner-figure.js";
 export { spectrumFigure, spectrumMarkers, type FrequencyMarker } from "./spectrum-figure.js";
 export { traceFigure } from "./trace-figure.js";
 export { reportFigures } from "./report-figures.js";
+export { checkReportInput } from "./check-report-input.js";
 export { renderFigure, renderSvg, type RenderedFigure, type RenderOptions } from "./render-figure.js";
 export { htmlReport, reportWarnings, type DrawnFigure } from "./html-report.js";
 export { plainSummary } from "./plain-summary.js";

@@ -17,7 +17,8 @@ const MAX_POINTS_DRAWN = 20000;
 /** Above this many grid times, the predictive curve is thinned evenly, for the same reason. */
 const MAX_GRID_DRAWN = 4000;
 
-const SERIES_DATA = "data ± 1σ";
+const SERIES_DATA_WITH_ERRORS = "data ± 1σ";
+const SERIES_DATA = "data";
 const SERIES_MEAN = "posterior-predictive mean";
 const SERIES_INNER = "68% band";
 const SERIES_OUTER = "95% band";
@@ -57,7 +58,8 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
   const isMag = lightCurve.unit === "mag";
   const yTitle = isMag ? "Magnitude [mag]" : "Flux [flux units]";
   const xTitle = timeAxisTitle(offset, timeUnit);
-  const seriesDomain = [SERIES_DATA, SERIES_MEAN, SERIES_INNER, SERIES_OUTER];
+  const dataSeries = withErrors ? SERIES_DATA_WITH_ERRORS : SERIES_DATA;
+  const seriesDomain = [dataSeries, SERIES_MEAN, SERIES_INNER, SERIES_OUTER];
   const colorScale = {
     domain: seriesDomain,
     range: [FIGURE_COLORS.data, FIGURE_COLORS.model, FIGURE_COLORS.modelBandInner, FIGURE_COLORS.modelBandOuter],
@@ -97,13 +99,13 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
     layers.push({
       data: { name: "data" },
       mark: { type: "rule", strokeWidth: 0.8, opacity: 0.7 },
-      encoding: { x, y: { field: "lo", type: "quantitative" }, y2: { field: "hi" }, color: { datum: SERIES_DATA } },
+      encoding: { x, y: { field: "lo", type: "quantitative" }, y2: { field: "hi" }, color: { datum: dataSeries } },
     });
   }
   layers.push({
     data: { name: "data" },
     mark: { type: "point", filled: true, size: n > 2000 ? 6 : 14, opacity: 0.9 },
-    encoding: { x, y: { field: "y", type: "quantitative" }, color: { datum: SERIES_DATA } },
+    encoding: { x, y: { field: "y", type: "quantitative" }, color: { datum: dataSeries } },
   });
 
   const spec = {

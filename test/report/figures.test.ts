@@ -75,6 +75,8 @@ describe("light-curve figure", () => {
     expect(figure.caption).toContain("no error bars");
     const svg = await renderSvg(figure);
     expect(svgTexts(svg)).toContain("Flux [flux units]");
+    expect(svgTexts(svg)).toContain("data");
+    expect(svgTexts(svg)).not.toContain("data ± 1σ");
     expect(markSets(svg).some((s) => s.type === "rule")).toBe(false);
   });
   it("leaves out error bars and thins points for very long light curves, and says so", () => {
