@@ -7,7 +7,7 @@ import {
 } from "./periodic-squared-exponential.js";
 import { QuasiPeriodicKernel, type QuasiPeriodicParameters } from "./quasi-periodic.js";
 
-export { Kernel, SumKernel, ProductKernel } from "./kernel.js";
+export { Kernel, SumKernel, ProductKernel, autocovarianceFromForm } from "./kernel.js";
 export { DampedRandomWalkKernel, Matern32Kernel, OscillatorKernel, PeriodicSquaredExponentialKernel, QuasiPeriodicKernel };
 export type {
   DampedRandomWalkParameters,

@@ -65,6 +65,7 @@ export abstract class Kernel {
 /** Shared machinery of sums and products: parameters of both operands, prefixed "0." and "1.". */
 abstract class CombinedKernel extends Kernel {
   readonly parameterNames: readonly string[];
+  private cachedForm?: SemiseparableForm | null;
 
   constructor(
     readonly first: Kernel,
@@ -85,6 +86,18 @@ abstract class CombinedKernel extends Kernel {
     out.set(b, a.length);
     return out;
   }
+
+  /** The combined form, built once (kernels are immutable). */
+  semiseparableForm(): SemiseparableForm | undefined {
+    if (this.cachedForm === undefined) {
+      const a = this.first.semiseparableForm();
+      const b = this.second.semiseparableForm();
+      this.cachedForm = a && b ? this.combineForms(a, b) : null;
+    }
+    return this.cachedForm ?? undefined;
+  }
+
+  protected abstract combineForms(a: SemiseparableForm, b: SemiseparableForm): SemiseparableForm;
 
   protected splitValues(values: ArrayLike<number>): [Kernel, Kernel] {
     const split = this.first.parameterNames.length;
@@ -111,10 +124,8 @@ export class SumKernel extends CombinedKernel {
     return this.first.spectralDensityAt(omega) + this.second.spectralDensityAt(omega);
   }
 
-  semiseparableForm(): SemiseparableForm | undefined {
-    const a = this.first.semiseparableForm();
-    const b = this.second.semiseparableForm();
-    return a && b ? sumOfForms(a, b) : undefined;
+  protected combineForms(a: SemiseparableForm, b: SemiseparableForm): SemiseparableForm {
+    return sumOfForms(a, b);
   }
 }
 
@@ -138,10 +149,8 @@ export class ProductKernel extends CombinedKernel {
     return spectrumByQuadrature(this, omega);
   }
 
-  semiseparableForm(): SemiseparableForm | undefined {
-    const a = this.first.semiseparableForm();
-    const b = this.second.semiseparableForm();
-    return a && b ? productOfForms(a, b) : undefined;
+  protected combineForms(a: SemiseparableForm, b: SemiseparableForm): SemiseparableForm {
+    return productOfForms(a, b);
   }
 }
 

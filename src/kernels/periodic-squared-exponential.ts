@@ -59,17 +59,32 @@ export class PeriodicSquaredExponentialKernel extends Kernel {
   }
 
   spectralDensityAt(omega: number): number {
-    const z = this.gamma / 2;
     const spacing = (2 * Math.PI) / this.period;
     const l = this.scale;
     const gaussian = (w: number) => l * Math.sqrt(2 * Math.PI) * Math.exp(-0.5 * w * w * l * l);
-    let total = scaledBesselI(0, z) * gaussian(omega);
-    for (let n = 1; n < 200; n++) {
-      const weight = scaledBesselI(n, z);
-      total += weight * (gaussian(omega - n * spacing) + gaussian(omega + n * spacing));
-      if (weight < 1e-17) break;
+    const weights = this.harmonicWeights();
+    let total = weights[0] * gaussian(omega);
+    for (let n = 1; n < weights.length; n++) {
+      total += weights[n] * (gaussian(omega - n * spacing) + gaussian(omega + n * spacing));
     }
     return this.sigma * this.sigma * total;
+  }
+
+  private weights?: Float64Array;
+
+  /** e^{-z} I_n(z), z = gamma / 2, for n = 0, 1, ... until negligible (computed once). */
+  private harmonicWeights(): Float64Array {
+    if (!this.weights) {
+      const z = this.gamma / 2;
+      const values: number[] = [];
+      for (let n = 0; n < 400; n++) {
+        const weight = scaledBesselI(n, z);
+        values.push(weight);
+        if (n > z && weight < 1e-17) break;
+      }
+      this.weights = Float64Array.from(values);
+    }
+    return this.weights;
   }
 
   semiseparableForm(): SemiseparableForm | undefined {
