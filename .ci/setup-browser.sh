@@ -7,4 +7,4 @@ if [ -x /usr/bin/chromium ] && fc-list 2>/dev/null | grep -qi "DejaVu Sans"; the
 fi
 export DEBIAN_FRONTEND=noninteractive
 apt-get update -qq
-apt-get install -y -qq --no-install-recommends chromium fonts-dejavu-core fontconfig >/dev/null
+apt-get install -y -qq chromium fonts-dejavu-core fontconfig >/dev/null
