@@ -1,3 +1,4 @@
+import { CarmaKernel, type CarmaOscillation, type CarmaParameters } from "./carma.js";
 import { DampedRandomWalkKernel, type DampedRandomWalkParameters } from "./damped-random-walk.js";
 import { Matern32Kernel, type Matern32Parameters } from "./matern32.js";
 import { OscillatorKernel, type OscillatorParameters } from "./oscillator.js";
@@ -8,8 +9,10 @@ import {
 import { QuasiPeriodicKernel, type QuasiPeriodicParameters } from "./quasi-periodic.js";
 
 export { Kernel, SumKernel, ProductKernel, autocovarianceFromForm } from "./kernel.js";
-export { DampedRandomWalkKernel, Matern32Kernel, OscillatorKernel, PeriodicSquaredExponentialKernel, QuasiPeriodicKernel };
+export { CarmaKernel, DampedRandomWalkKernel, Matern32Kernel, OscillatorKernel, PeriodicSquaredExponentialKernel, QuasiPeriodicKernel };
 export type {
+  CarmaOscillation,
+  CarmaParameters,
   DampedRandomWalkParameters,
   Matern32Parameters,
   OscillatorParameters,
@@ -35,6 +38,8 @@ export const kernels = {
   quasiPeriodic: (parameters: QuasiPeriodicParameters) => new QuasiPeriodicKernel(parameters),
   /** sigma^2 (1 + sqrt(3)|t|/scale) exp(-sqrt(3)|t|/scale). */
   matern32: (parameters: Matern32Parameters) => new Matern32Kernel(parameters),
+  /** CARMA(p, q) (Kelly et al. 2014), stationary by construction. */
+  carma: (parameters: CarmaParameters) => new CarmaKernel(parameters),
   /** Squared exponential times periodic: dense engine only. */
   periodicSquaredExponential: (parameters: PeriodicSquaredExponentialParameters) =>
     new PeriodicSquaredExponentialKernel(parameters),

@@ -17,6 +17,8 @@ export class TransitionLayout {
   readonly phi: Float64Array;
   /** Scratch of length R for in-place products. */
   readonly scratch: Float64Array;
+  /** True when every block is 1 x 1 or 2 x 2 (all kernels but products): congruences go block pair by block pair. */
+  private readonly smallBlocks: boolean;
 
   constructor(form: SemiseparableForm) {
     this.blocks = form.blocks;
@@ -37,6 +39,7 @@ export class TransitionLayout {
     this.dimension = state;
     this.phi = new Float64Array(phiLength);
     this.scratch = new Float64Array(state);
+    this.smallBlocks = form.blocks.every((block) => block.size <= 2);
   }
 
   /** Fills `phi` with every block's exp(F dt). */
@@ -99,6 +102,10 @@ export class TransitionLayout {
 
   /** matrix <- Phi matrix Phi^T, in place (R x R row-major at `offset`). */
   applyCongruence(matrix: Float64Array, offset: number): void {
+    if (this.smallBlocks) {
+      this.smallBlockCongruence(matrix, offset, false);
+      return;
+    }
     const r = this.dimension;
     // Left product: every column j, block by block.
     for (let j = 0; j < r; j++) this.applyStrided(matrix, offset + j, r, false);
@@ -108,9 +115,81 @@ export class TransitionLayout {
 
   /** matrix <- Phi^T matrix Phi, in place. */
   applyTransposeCongruence(matrix: Float64Array, offset: number): void {
+    if (this.smallBlocks) {
+      this.smallBlockCongruence(matrix, offset, true);
+      return;
+    }
     const r = this.dimension;
     for (let j = 0; j < r; j++) this.applyStrided(matrix, offset + j, r, true);
     for (let i = 0; i < r; i++) this.applyTransposeToVector(matrix, offset + i * r);
+  }
+
+  /**
+   * matrix <- A matrix A^T with A = Phi (or Phi^T), for blocks of size 1 and 2 only, one block pair
+   * (a, b) at a time: M_ab <- A_a M_ab A_b^T. Each element is computed with the same operations in the same
+   * order as the column-then-row passes (left product first), so the results are identical, but every
+   * element is loaded and stored once instead of twice and the per-column calls disappear.
+   */
+  private smallBlockCongruence(matrix: Float64Array, offset: number, transpose: boolean): void {
+    const { blockStart, blockSize, phiStart, phi } = this;
+    const r = this.dimension;
+    const count = blockStart.length;
+    for (let a = 0; a < count; a++) {
+      const pa = phiStart[a];
+      const rowStart = offset + blockStart[a] * r;
+      if (blockSize[a] === 1) {
+        const g = phi[pa];
+        for (let b = 0; b < count; b++) {
+          const pb = phiStart[b];
+          const o = rowStart + blockStart[b];
+          if (blockSize[b] === 1) {
+            matrix[o] = phi[pb] * (g * matrix[o]);
+          } else {
+            const b01 = transpose ? phi[pb + 2] : phi[pb + 1];
+            const b10 = transpose ? phi[pb + 1] : phi[pb + 2];
+            const y0 = g * matrix[o];
+            const y1 = g * matrix[o + 1];
+            matrix[o] = phi[pb] * y0 + b01 * y1;
+            matrix[o + 1] = b10 * y0 + phi[pb + 3] * y1;
+          }
+        }
+      } else {
+        const a00 = phi[pa];
+        const a01 = transpose ? phi[pa + 2] : phi[pa + 1];
+        const a10 = transpose ? phi[pa + 1] : phi[pa + 2];
+        const a11 = phi[pa + 3];
+        for (let b = 0; b < count; b++) {
+          const pb = phiStart[b];
+          const o = rowStart + blockStart[b];
+          const o2 = o + r;
+          if (blockSize[b] === 1) {
+            const g = phi[pb];
+            const x0 = matrix[o];
+            const x1 = matrix[o2];
+            matrix[o] = g * (a00 * x0 + a01 * x1);
+            matrix[o2] = g * (a10 * x0 + a11 * x1);
+          } else {
+            const x00 = matrix[o];
+            const x01 = matrix[o + 1];
+            const x10 = matrix[o2];
+            const x11 = matrix[o2 + 1];
+            // Left product Y = A X, then Y B^T.
+            const y00 = a00 * x00 + a01 * x10;
+            const y01 = a00 * x01 + a01 * x11;
+            const y10 = a10 * x00 + a11 * x10;
+            const y11 = a10 * x01 + a11 * x11;
+            const b00 = phi[pb];
+            const b01 = transpose ? phi[pb + 2] : phi[pb + 1];
+            const b10 = transpose ? phi[pb + 1] : phi[pb + 2];
+            const b11 = phi[pb + 3];
+            matrix[o] = b00 * y00 + b01 * y01;
+            matrix[o + 1] = b10 * y00 + b11 * y01;
+            matrix[o2] = b00 * y10 + b01 * y11;
+            matrix[o2 + 1] = b10 * y10 + b11 * y11;
+          }
+        }
+      }
+    }
   }
 
   /** Applies Phi (or Phi^T) to the strided vector matrix[start + k stride], k = 0..R-1. */

@@ -11,6 +11,7 @@ const families: Array<[string, Kernel]> = [
   ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 6, quality: 3, harmonicWeight: 0.4 })],
   ["matern32", kernels.matern32({ sigma: 0.15, scale: 4 })],
   ["sum", kernels.matern32({ sigma: 0.15, scale: 4 }).plus(kernels.dampedRandomWalk({ sigma: 0.1, tau: 20 }))],
+  ["carma(3, 1)", kernels.carma({ sigma: 0.2, oscillations: [{ period: 9, quality: 4 }], timescales: [15], movingAverage: [2] })],
   ["product", kernels.oscillator({ sigma: 0.5, period: 8, quality: 2 }).times(kernels.dampedRandomWalk({ sigma: 0.4, tau: 30 }))],
 ];
 
