@@ -95,9 +95,9 @@ export function runIdentity(options: BatchRunOptions): RunIdentity {
  *
  * Objects are read one at a time, and the next is read only when a worker is free, so memory holds a
  * few light curves whatever the size of the catalogue (plus the set of ids, for resuming and for
- * duplicate checks). Each result row is appended to the journal and flushed to storage before it
- * counts; a CSV table is appended to alongside, a Parquet table is written from the journal at the end
- * (both atomically rebuilt from the journal whenever needed). With mode "resume" the objects already
+ * duplicate checks). Each result row is appended to the journal as soon as it arrives (and flushed to
+ * storage in the background); a CSV table is appended to alongside, a Parquet table is written from
+ * the journal at the end (both atomically rebuilt from the journal whenever needed). With mode "resume" the objects already
  * recorded are skipped, so a run killed at any moment is finished by running it again with `--resume`.
  * Each object is fitted with its own seed, {@link objectSeed}, so results do not depend on order,
  * shard or worker count. An object that cannot be read or fitted is recorded as "failed" with the
@@ -213,9 +213,9 @@ export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> 
       } finally {
         await pool.close();
       }
-      csv?.close();
+      await csv?.close();
       csv = undefined;
-      journal.close();
+      await journal.close();
 
       if (options.format === "parquet") {
         const types = new ColumnTypeTracker();
@@ -246,8 +246,8 @@ export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> 
         journal: journalPath,
       };
     } finally {
-      csv?.close();
-      journal.close();
+      await csv?.close();
+      await journal.close();
     }
   } finally {
     lock.release();

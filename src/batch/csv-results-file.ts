@@ -1,5 +1,5 @@
 import { closeSync, openSync, writeFileSync } from "node:fs";
-import { appendDurably, replaceAtomically } from "./durable-file.js";
+import { DurableAppender, replaceAtomically } from "./durable-file.js";
 import type { ResultCell, ResultRow } from "./result-row.js";
 
 /**
@@ -19,31 +19,30 @@ export function formatCsvLine(columns: readonly string[], row: ResultRow): strin
 }
 
 /**
- * A CSV results table written append-only: a header, then one line per object, each flushed to storage
- * as it is written. The column set is fixed when the file is opened; cells of columns outside it stay in
- * the journal and the table is rebuilt from the journal at the end of the run (see batch-run.ts).
+ * A CSV results table written append-only: a header, then one line per object, written as the object
+ * is done and flushed to storage in the background (see {@link DurableAppender}). The column set is
+ * fixed when the file is opened; cells of columns outside it stay in the journal and the table is
+ * rebuilt from the journal at the end of the run (see batch-run.ts).
  */
 export class CsvResultsAppender {
-  private fd: number | undefined;
+  private readonly file: DurableAppender;
 
   /** Opens `path` for appending; the file must already hold the header (see {@link writeCsvTable}). */
   constructor(
     readonly path: string,
     readonly columns: readonly string[],
   ) {
-    this.fd = openSync(path, "a");
+    this.file = new DurableAppender(path);
   }
 
-  /** Appends one row and flushes it to storage. */
+  /** Appends one row. */
   append(row: ResultRow): void {
-    if (this.fd === undefined) throw new Error(`${this.path} is closed`);
-    appendDurably(this.fd, formatCsvLine(this.columns, row));
+    this.file.append(formatCsvLine(this.columns, row));
   }
 
-  /** Closes the file. */
-  close(): void {
-    if (this.fd !== undefined) closeSync(this.fd);
-    this.fd = undefined;
+  /** Flushes the rows to storage and closes the file. */
+  async close(): Promise<void> {
+    await this.file.close();
   }
 }
 

@@ -2,7 +2,7 @@ import { closeSync, existsSync, ftruncateSync, openSync } from "node:fs";
 import { dirname } from "node:path";
 import { UsageError } from "../cli/cli-io.js";
 import { InputError } from "../lightcurve/input-error.js";
-import { appendDurably, syncDirectory } from "./durable-file.js";
+import { DurableAppender, syncDirectory } from "./durable-file.js";
 import { fileLines } from "./file-lines.js";
 import { decodeJournalRow, encodeJournalRow } from "./journal-codec.js";
 import type { ResultRow } from "./result-row.js";
@@ -39,16 +39,17 @@ export function journalPathFor(outputPath: string): string {
 
 /**
  * The record of a batch run: a JSON Lines file whose first line states the run's identity and every
- * further line is one object's result row, appended and flushed to storage (fdatasync) before the
- * object counts as done. It is the single source of truth from which the CSV or Parquet table is
- * (re)built, so a run killed at any moment, even by SIGKILL or a power cut, resumes exactly: a line
- * cut short by the crash is removed, and every whole line is an object that is not fitted again.
+ * further line is one object's result row, written as soon as the object is done and flushed to
+ * storage (fdatasync) in the background (see {@link DurableAppender}). It is the single source of
+ * truth from which the CSV or Parquet table is (re)built, so a run killed at any moment, even by
+ * SIGKILL or a power cut, resumes exactly: a line cut short by the crash is removed, and every whole
+ * line is an object that is not fitted again.
  */
 export class ResultsJournal {
   private constructor(
     /** The journal's path. */
     readonly path: string,
-    private fd: number | undefined,
+    private readonly file: DurableAppender,
   ) {}
 
   /**
@@ -72,26 +73,24 @@ export class ResultsJournal {
         const fd = openSync(path, "r+");
         if (scanned.validBytes < scanned.totalBytes) ftruncateSync(fd, scanned.validBytes);
         closeSync(fd);
-        return { journal: new ResultsJournal(path, openSync(path, "a")), contents: scanned.contents };
+        return { journal: new ResultsJournal(path, new DurableAppender(path)), contents: scanned.contents };
       }
       // The header itself was cut short: nothing was recorded, so start afresh.
     }
-    const fd = openSync(path, "w");
-    appendDurably(fd, JSON.stringify({ [JOURNAL_TAG]: JOURNAL_VERSION, run: identity }) + "\n");
+    const file = new DurableAppender(path, true);
+    file.append(JSON.stringify({ [JOURNAL_TAG]: JOURNAL_VERSION, run: identity }) + "\n");
     syncDirectory(dirname(path));
-    return { journal: new ResultsJournal(path, fd), contents: empty };
+    return { journal: new ResultsJournal(path, file), contents: empty };
   }
 
-  /** Records one object's row; when this returns, the row is on storage. */
+  /** Records one object's row: written at once, on storage within about one background flush. */
   append(row: ResultRow): void {
-    if (this.fd === undefined) throw new Error(`journal ${this.path} is closed`);
-    appendDurably(this.fd, encodeJournalRow(row) + "\n");
+    this.file.append(encodeJournalRow(row) + "\n");
   }
 
-  /** Closes the file; further appends throw. */
-  close(): void {
-    if (this.fd !== undefined) closeSync(this.fd);
-    this.fd = undefined;
+  /** Flushes every row to storage and closes the file; further appends throw. */
+  async close(): Promise<void> {
+    await this.file.close();
   }
 }
 

@@ -20,7 +20,9 @@ beforeAll(async () => {
   catalogue = join(folder, "lanternfield");
   ids = await writeInventedFolder(catalogue, 16, { failing: ["lf-004"], unreadable: ["lf-009"] });
 });
-afterAll(() => rmSync(folder, { recursive: true, force: true }));
+afterAll(() => {
+  if (folder) rmSync(folder, { recursive: true, force: true });
+});
 
 /**
  * Runs the compiled command line in a child process, in the test folder, with the given environment

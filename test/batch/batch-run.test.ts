@@ -20,7 +20,9 @@ beforeAll(() => {
   requireFreshBuild();
   folder = mkdtempSync(join(tmpdir(), "horologium-batch-run-"));
 });
-afterAll(() => rmSync(folder, { recursive: true, force: true }));
+afterAll(() => {
+  if (folder) rmSync(folder, { recursive: true, force: true });
+});
 
 const RUN_SEED = 20261;
 

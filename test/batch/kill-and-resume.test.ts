@@ -19,7 +19,9 @@ beforeAll(async () => {
   folder = mkdtempSync(join(tmpdir(), "horologium-kill-"));
   ids = await writeInventedFolder(join(folder, "catalogue"), 40, { failing: ["lf-013"] });
 });
-afterAll(() => rmSync(folder, { recursive: true, force: true }));
+afterAll(() => {
+  if (folder) rmSync(folder, { recursive: true, force: true });
+});
 
 function batchArgs(out: string, ...extra: string[]): string[] {
   return [CLI, "batch", join(folder, "catalogue"), "--model", "drw", "--seed", "5", "--workers", "2", "--fit-module", FIT, "--out", out, ...extra];

@@ -1,0 +1,151 @@
+/**
+ * Benchmark of `horologium batch`: fits per second on 1 and on 2 cores for a catalogue of simulated
+ * quasar light curves (about 250 points each, damped random walks of the invented Lanternfield survey),
+ * fitted with the DRW model to the inference layer's convergence criteria; the scaling efficiency
+ * (rate on 2 workers / twice the rate on 1); and the peak memory (resident set, main thread and workers)
+ * of each run. Then, with the fast stand-in fit of the tests, the peak memory for a catalogue ten
+ * times larger, to show that memory does not grow with the catalogue.
+ *
+ * Each configuration runs in a fresh child process, so that its peak memory is its own.
+ *
+ *   npm run build && node dist/bench/batch-throughput.js [--objects 1000] [--workers 1,2]
+ *                    [--fit-module FILE] [--skip-flatness]
+ *
+ * Prints figures; it is not a test. On a shared machine the rates vary with the other load.
+ */
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, rmSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import { fileURLToPath, pathToFileURL } from "node:url";
+import { parseArgs } from "node:util";
+import { runBatch } from "../src/batch/batch-run.js";
+import { openCatalogue } from "../src/batch/catalogue-input.js";
+import { readResultsTable } from "../src/batch/results-table-reader.js";
+import { writeQuasarCatalogue } from "./batch-simulated-catalogue.js";
+
+/** What one configuration measured. */
+interface Measurement {
+  readonly workers: number;
+  readonly objects: number;
+  readonly seconds: number;
+  readonly ok: number;
+  readonly failed: number;
+  readonly converged: number;
+  readonly medianPoints: number;
+  readonly peakRssMb: number;
+}
+
+const SELF = fileURLToPath(import.meta.url);
+const STAND_IN_FIT = fileURLToPath(new URL("../../test/batch/fixtures/summary-fit.mjs", import.meta.url));
+
+/** Child mode: one batch run, then its measurement as JSON on stdout. */
+async function measure(catalogue: string, out: string, workers: number, fitModule: string | undefined): Promise<Measurement> {
+  const input = await openCatalogue(catalogue, { idColumn: "object_id" });
+  const started = performance.now();
+  const summary = await runBatch({
+    objects: input.objects(),
+    inputDescription: catalogue,
+    out,
+    format: "csv",
+    model: "drw",
+    seed: 1,
+    shard: { index: 0, count: 1 },
+    workers,
+    fitModule: fitModule === undefined ? undefined : pathToFileURL(fitModule).href,
+    mode: "overwrite",
+    now: () => Date.now(),
+  });
+  const seconds = (performance.now() - started) / 1000;
+  let converged = 0;
+  const points: number[] = [];
+  for await (const row of readResultsTable(out)) {
+    if (row["diagnostics.converged"] === true) converged += 1;
+    if (typeof row["data.n"] === "number") points.push(row["data.n"]);
+  }
+  points.sort((a, b) => a - b);
+  return {
+    workers,
+    objects: summary.recorded,
+    seconds,
+    ok: summary.ok,
+    failed: summary.failed,
+    converged,
+    medianPoints: points.length ? points[Math.floor(points.length / 2)] : NaN,
+    peakRssMb: process.resourceUsage().maxRSS / 1024,
+  };
+}
+
+function runChild(catalogue: string, out: string, workers: number, fitModule: string | undefined): Measurement {
+  const args = [SELF, "--child", "--catalogue", catalogue, "--out", out, "--workers", String(workers)];
+  if (fitModule) args.push("--fit-module", fitModule);
+  const result = spawnSync(process.execPath, args, { encoding: "utf8", stdio: ["ignore", "pipe", "inherit"], maxBuffer: 1 << 20 });
+  if (result.status !== 0) throw new Error(`the ${workers}-worker run failed (exit ${result.status})`);
+  return JSON.parse(result.stdout.trim().split("\n").at(-1)!) as Measurement;
+}
+
+function describe(m: Measurement): string {
+  const rate = m.objects / m.seconds;
+  return (
+    `  ${String(m.workers).padStart(7)}  ${String(m.objects).padStart(7)}  ${m.seconds.toFixed(1).padStart(8)}` +
+    `  ${rate.toFixed(2).padStart(8)}  ${`${m.converged}/${m.ok}`.padStart(9)}  ${String(m.failed).padStart(6)}` +
+    `  ${m.peakRssMb.toFixed(0).padStart(8)}`
+  );
+}
+
+const HEADER = "  workers  objects  seconds  fits/s  converged  failed  peak MB";
+
+async function main(): Promise<void> {
+  const { values } = parseArgs({
+    options: {
+      child: { type: "boolean" },
+      catalogue: { type: "string" },
+      out: { type: "string" },
+      objects: { type: "string", default: "1000" },
+      workers: { type: "string", default: "1,2" },
+      "fit-module": { type: "string" },
+      "skip-flatness": { type: "boolean" },
+    },
+  });
+  if (values.child) {
+    const m = await measure(values.catalogue!, values.out!, Number(values.workers), values["fit-module"]);
+    process.stdout.write(JSON.stringify(m) + "\n");
+    return;
+  }
+  const objects = Number(values.objects);
+  const workerCounts = values.workers!.split(",").map(Number);
+  const folder = mkdtempSync(join(tmpdir(), "horologium-bench-batch-"));
+  try {
+    const catalogue = join(folder, "lanternfield-quasars.csv");
+    const rows = await writeQuasarCatalogue(catalogue, { objects, seed: 1000 });
+    const fit = values["fit-module"] ? `fit module ${values["fit-module"]}` : "Horologium's DRW fit";
+    console.log(`batch throughput: ${objects} simulated quasars (${(rows / objects).toFixed(0)} points on average), ${fit}`);
+    console.log(HEADER);
+    const measured: Measurement[] = [];
+    for (const workers of workerCounts) {
+      const m = runChild(catalogue, join(folder, `results-${workers}.csv`), workers, values["fit-module"]);
+      measured.push(m);
+      console.log(describe(m));
+    }
+    const one = measured.find((m) => m.workers === 1);
+    for (const m of measured) {
+      if (!one || m.workers === 1) continue;
+      const efficiency = m.objects / m.seconds / ((one.objects / one.seconds) * m.workers);
+      console.log(`scaling efficiency on ${m.workers} workers: ${(100 * efficiency).toFixed(0)}% (rate / (${m.workers} x rate on 1))`);
+    }
+
+    if (!values["skip-flatness"]) {
+      console.log("\nmemory against catalogue size (stand-in fit of the tests, 2 workers):");
+      console.log(HEADER);
+      for (const size of [2000, 20000]) {
+        const small = join(folder, `flat-${size}.csv`);
+        await writeQuasarCatalogue(small, { objects: size, seed: 7, seasons: 2 });
+        console.log(describe(runChild(small, join(folder, `flat-results-${size}.csv`), 2, STAND_IN_FIT)));
+      }
+    }
+  } finally {
+    rmSync(folder, { recursive: true, force: true });
+  }
+}
+
+await main();
