@@ -1,5 +1,6 @@
 #!/usr/bin/env node
 import { InputError } from "../lightcurve/input-error.js";
+import { HOROLOGIUM_VERSION } from "../version.js";
 import { UsageError, type CliIo, type CliVerb } from "./cli-io.js";
 
 /** The verbs of the `horologium` command; each lives in `verbs/<name>.ts` and exports `verb: CliVerb`. */
@@ -64,9 +65,6 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
     return 1;
   }
 }
-
-/** The package version, reported in results. */
-export const HOROLOGIUM_VERSION = "0.1.0";
 
 const invokedDirectly = process.argv[1] !== undefined && import.meta.url.endsWith(process.argv[1].replace(/\\/g, "/"));
 if (invokedDirectly || process.argv[1]?.endsWith("/horologium")) {

@@ -1,0 +1,118 @@
+import type { LightCurve } from "../../lightcurve/light-curve.js";
+import { InputError } from "../../lightcurve/input-error.js";
+import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
+import type { FitOptions } from "../../models/fit-options.js";
+import { modelFromResult } from "../../models/model-from-result.js";
+import { posteriorPredictive } from "../../models/posterior-predictive.js";
+import { storedPosteriorSample } from "../../models/posterior-sample.js";
+import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
+import { fitSummaryText } from "../fit-summary-text.js";
+import { samplerProgressBar } from "../progress-bar.js";
+import { readInput } from "../read-input.js";
+import { readFitResult } from "../read-result.js";
+import { parseGrid, readTimesFile } from "../requested-times.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
+import { writeOutput } from "../write-output.js";
+import { fitOptionsFrom } from "./fit.js";
+
+const HELP = `Usage: horologium predict FILE --model MODEL (--at TIMES.csv | --grid START:STOP:STEP) [options]
+
+Predicts the latent (noise-free) light curve at any times, inside seasonal gaps and after the
+last point, from the posterior predictive: a mixture over posterior draws of the Gaussian-process
+prediction, so that parameter uncertainty widens the band. Writes CSV with the columns
+time,mean,sd,lower95,upper95.
+
+Options:
+  --model NAME            drw, oscillator or quasi-periodic (a fresh fit; or taken from --from)
+  --from RESULT.json      use the posterior draws stored by "horologium fit" instead of refitting
+  --at FILE               requested times: one per line, or a CSV with a time column
+  --grid START:STOP:STEP  requested times on a regular grid
+  --draws N               posterior draws in the mixture (default 200)
+  --out FILE              write the CSV here (default: standard output)
+  --background drw, --seed N, --sampler, --max-evaluations, --redshift, --jitter   as for fit
+  --quiet                 no progress bar, no summary on stderr
+${COLUMN_HELP}
+
+Example:
+  horologium predict lds-quasar.csv --from quasar.json --grid 59000:61000:5 --out forecast.csv
+`;
+
+const OPTIONS = {
+  ...COLUMN_OPTIONS,
+  model: { type: "string" },
+  from: { type: "string" },
+  at: { type: "string" },
+  grid: { type: "string" },
+  draws: { type: "string" },
+  out: { type: "string" },
+  background: { type: "string" },
+  seed: { type: "string" },
+  sampler: { type: "string" },
+  "max-evaluations": { type: "string" },
+  redshift: { type: "string" },
+  jitter: { type: "boolean" },
+  quiet: { type: "boolean" },
+} as const;
+
+/** Formats a predictive curve as CSV with full double precision. */
+export function predictionCsv(curve: { time: ArrayLike<number>; mean: ArrayLike<number>; sd: ArrayLike<number>; lower95: ArrayLike<number>; upper95: ArrayLike<number> }): string {
+  const lines = ["time,mean,sd,lower95,upper95"];
+  for (let i = 0; i < curve.time.length; i++)
+    lines.push([curve.time[i], curve.mean[i], curve.sd[i], curve.lower95[i], curve.upper95[i]].map(String).join(","));
+  return lines.join("\n") + "\n";
+}
+
+/** `horologium predict`. */
+export const verb: CliVerb = {
+  summary: "posterior-predictive light curve at any times (CSV: time,mean,sd,lower95,upper95)",
+  async run(args: string[], io: CliIo): Promise<number> {
+    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
+    if (!parsed) return 0;
+    const { values, positionals } = parsed;
+    const file = singleInput(positionals);
+    const quiet = values.quiet === true;
+    const at = textOption(values, "at");
+    const grid = textOption(values, "grid");
+    if ((at === undefined) === (grid === undefined)) throw new UsageError("give exactly one of --at FILE or --grid START:STOP:STEP");
+    const times = at !== undefined ? readTimesFile(at, io.cwd) : parseGrid(grid!);
+    const drawsText = textOption(values, "draws");
+    const drawCount = drawsText === undefined ? 200 : Number(drawsText);
+    if (!Number.isInteger(drawCount) || drawCount < 1) throw new UsageError(`--draws must be a positive integer, got "${drawsText}"`);
+    const lightCurves = await readInput(file, values, io, quiet);
+    if (lightCurves.length > 1)
+      throw new InputError(`the file has ${lightCurves.length} bands (${lightCurves.map((l) => l.band).join(", ")}); choose one with --band`, { file });
+    const lightCurve: LightCurve = lightCurves[0];
+    const from = textOption(values, "from");
+    let model;
+    let rows: readonly (readonly number[])[];
+    if (from !== undefined) {
+      const result = readFitResult(from, io.cwd, lightCurve.band);
+      const requested = textOption(values, "model");
+      if (requested !== undefined && requested !== result.model)
+        throw new UsageError(`--model ${requested} does not match the model of ${from} (${result.model})`);
+      try {
+        model = modelFromResult(result, lightCurve);
+        rows = storedPosteriorSample(result, model.space.names).rows;
+      } catch (error) {
+        if (error instanceof RangeError) throw new InputError(error.message, { file: from });
+        throw error;
+      }
+    } else {
+      const options = fitOptionsFrom(values) as FitOptions;
+      const bar = samplerProgressBar(io, quiet, "fitting");
+      let fit;
+      try {
+        fit = fitLightCurveDetailed(lightCurve, { ...options, ...(bar.onProgress ? { onProgress: bar.onProgress } : {}), clock: io.now });
+      } finally {
+        bar.stop();
+      }
+      if (!quiet) io.stderr(fitSummaryText(fit.result));
+      model = fit.model;
+      rows = (fit.result.posteriorSample as { rows: number[][] }).rows;
+    }
+    const used = Array.from({ length: Math.min(drawCount, rows.length) }, (_, k) => rows[Math.floor((k * rows.length) / Math.min(drawCount, rows.length))]);
+    const curve = posteriorPredictive(model, lightCurve, used, times);
+    writeOutput(predictionCsv(curve), textOption(values, "out"), io);
+    return 0;
+  },
+};

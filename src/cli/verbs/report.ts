@@ -1,0 +1,71 @@
+import { InputError } from "../../lightcurve/input-error.js";
+import { readLightCurves } from "../../lightcurve/read-light-curves.js";
+import { modelFromResult } from "../../models/model-from-result.js";
+import { reportInputFromFit } from "../../report/report-from-fit.js";
+import { writeReport } from "../../report/write-report.js";
+import { resolve } from "node:path";
+import type { CliIo, CliVerb } from "../cli-io.js";
+import { readFitResult } from "../read-result.js";
+import { parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
+
+const HELP = `Usage: horologium report RESULT.json [--data FILE] [--out DIR] [--band NAME]
+
+Writes a self-contained HTML report (DIR/report.html) with its figures as SVG and PNG
+(DIR/figures/): the data with the posterior-predictive band across the gaps, the corner plot of
+the posterior, the model power spectrum over the periodogram, the chain traces, the diagnostics,
+the warnings and a plain-language summary.
+
+The light curve is read again from the file named in the result (data.source) with the same
+columns, unless --data names another copy of it.
+
+Options:
+  --data FILE             the light-curve file (default: the result's data.source)
+  --out DIR               output folder (default: report)
+  --band NAME             the band, for a result file holding several bands
+  --quiet                 print nothing
+
+Example:
+  horologium report quasar.json --out quasar-report
+`;
+
+const OPTIONS = {
+  data: { type: "string" },
+  out: { type: "string" },
+  band: { type: "string" },
+  quiet: { type: "boolean" },
+} as const;
+
+/** `horologium report`. */
+export const verb: CliVerb = {
+  summary: "HTML report with figures (SVG and PNG) from a fit result",
+  async run(args: string[], io: CliIo): Promise<number> {
+    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
+    if (!parsed) return 0;
+    const { values, positionals } = parsed;
+    const resultPath = singleInput(positionals, "RESULT.json");
+    const result = readFitResult(resultPath, io.cwd, textOption(values, "band"));
+    const data = result.data as unknown as { source?: string; timeColumn: string; valueColumn: string; errorColumn: string | null; band?: string; unit?: "mag" | "flux" };
+    const dataPath = textOption(values, "data") ?? data.source;
+    if (!dataPath) throw new InputError("the result names no data file; give one with --data", { file: resultPath });
+    const set = await readLightCurves(resolve(io.cwd, dataPath), {
+      timeColumn: data.timeColumn,
+      valueColumn: data.valueColumn,
+      errorColumn: data.errorColumn,
+      ...(data.band !== undefined ? { band: data.band } : {}),
+      ...(data.unit ? { unit: data.unit } : {}),
+    });
+    const lightCurve = set.lightCurves[0];
+    if (lightCurve.time.length !== result.data.n)
+      throw new InputError(`the light curve has ${lightCurve.time.length} points, the result was fitted to ${result.data.n}: not the same data`, { file: dataPath });
+    let input;
+    try {
+      input = reportInputFromFit(lightCurve, result, modelFromResult(result, lightCurve));
+    } catch (error) {
+      if (error instanceof RangeError) throw new InputError(error.message, { file: resultPath });
+      throw error;
+    }
+    const written = await writeReport(input, resolve(io.cwd, textOption(values, "out") ?? "report"));
+    if (values.quiet !== true) io.stdout(`${written.html}\n`);
+    return 0;
+  },
+};

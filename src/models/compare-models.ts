@@ -1,0 +1,109 @@
+import { findMaximumPosterior, posteriorDensity, startingPoints } from "../inference/index.js";
+import type { LightCurve } from "../lightcurve/light-curve.js";
+import { computePeriodogram } from "../periodogram/periodogram.js";
+import { childSeed, createRng } from "../random/rng.js";
+import { summarizeLightCurve } from "./data-summary.js";
+import { laplaceLogEvidence } from "./laplace-evidence.js";
+import { buildModel, modelLikelihood, type ModelName } from "./light-curve-model.js";
+
+/** One model's standing in a comparison. */
+export interface ModelStanding {
+  readonly model: ModelName;
+  /** Laplace-approximated ln evidence (marginal likelihood) of the model. */
+  readonly logEvidence: number;
+  /** ln L at the maximum a posteriori. */
+  readonly logLikelihood: number;
+  /** Bayesian information criterion k ln N - 2 ln L (lower is better), for reference. */
+  readonly bic: number;
+  readonly parameterCount: number;
+  /** ln Z of this model minus ln Z of the best one (0 for the best). */
+  readonly deltaLogEvidence: number;
+  /** Posterior probability of the model among those compared, with equal prior odds. */
+  readonly probability: number;
+  /** The maximum a posteriori, by parameter name. */
+  readonly maximum: Readonly<Record<string, number>>;
+}
+
+/** The outcome of {@link compareModels}. */
+export interface ModelComparison {
+  readonly criterion: string;
+  /** Best first. */
+  readonly ranking: readonly ModelStanding[];
+  /** A plain-language verdict, for example whether there is a period at all. */
+  readonly verdict: string;
+}
+
+/**
+ * Ranks Gaussian-process models of one light curve by their Bayesian evidence (marginal likelihood)
+ * Z = integral L(theta) pi(theta) dtheta, in the Laplace approximation at the maximum a posteriori
+ * (MacKay 2003, ch. 28). The evidence is the natural criterion for Gaussian processes: the likelihood
+ * already integrates over the latent light curve, and the integral over the parameters penalises the extra
+ * freedom of a periodic kernel, which the maximum likelihood alone would always reward. Differences are
+ * read on the scale of Kass & Raftery 1995 (JASA 90, 773): 2 ln B above 6 is strong evidence, above 10
+ * very strong. The BIC is reported beside it for reference.
+ */
+export function compareModels(
+  lightCurve: LightCurve,
+  models: readonly ModelName[],
+  options: { readonly seed: number | string; readonly background?: "drw"; readonly starts?: number },
+): ModelComparison {
+  const summary = summarizeLightCurve(lightCurve);
+  const peak = computePeriodogram(
+    { time: lightCurve.time, value: lightCurve.value, ...(lightCurve.error ? { error: lightCurve.error } : {}) },
+    { minimumFrequency: 2 / summary.baseline, maximumFrequency: 1 / (2 * Math.max(summary.minimumSpacing, summary.baseline * 1e-6)), peaks: 1 },
+  ).peaks[0];
+  const standings = models.map((name, k) => {
+    const model = buildModel(name, summary, {
+      ...(options.background ? { background: options.background } : {}),
+      ...(peak ? { periodGuess: peak.period } : {}),
+    });
+    const likelihood = modelLikelihood(model, lightCurve);
+    const target = posteriorDensity(model.space, likelihood, { jacobian: true });
+    const rng = createRng(childSeed(options.seed, k));
+    const starts = startingPoints(model.space, options.starts ?? 6, rng, model.initialGuess);
+    if (model.initialGuess.period !== undefined) {
+      for (const factor of [0.5, 2]) {
+        const period = model.initialGuess.period * factor;
+        const prior = model.space.free.find((p) => p.name === "period")!.prior;
+        if (period > prior.lower && period < prior.upper)
+          starts.push(model.space.toUnconstrained(model.space.physicalFromRecord({ ...model.initialGuess, period })));
+      }
+    }
+    const best = findMaximumPosterior(target, { starts });
+    const evidence = laplaceLogEvidence(target, best.x);
+    const physical = model.space.toPhysical(best.x);
+    const logLikelihood = likelihood.logLikelihood(physical);
+    const k2 = model.space.dimension;
+    return {
+      model: name,
+      logEvidence: evidence.logEvidence,
+      logLikelihood,
+      bic: k2 * Math.log(summary.n) - 2 * logLikelihood,
+      parameterCount: k2,
+      maximum: model.space.recordFromPhysical(physical),
+    };
+  });
+  const top = Math.max(...standings.map((s) => s.logEvidence));
+  const total = standings.reduce((sum, s) => sum + Math.exp(s.logEvidence - top), 0);
+  const ranking = standings
+    .map((s) => ({ ...s, deltaLogEvidence: s.logEvidence - top, probability: Math.exp(s.logEvidence - top) / total }))
+    .sort((a, b) => b.logEvidence - a.logEvidence);
+  return {
+    criterion: "Laplace-approximated Bayesian evidence (marginal likelihood); Kass & Raftery 1995 scale",
+    ranking,
+    verdict: verdictOf(ranking),
+  };
+}
+
+function verdictOf(ranking: readonly ModelStanding[]): string {
+  const best = ranking[0];
+  const aperiodic = ranking.find((s) => s.model === "drw");
+  const periodic = ranking.find((s) => s.model !== "drw");
+  const strength = (twoLnB: number) =>
+    twoLnB > 10 ? "very strong" : twoLnB > 6 ? "strong" : twoLnB > 2 ? "positive" : "not worth more than a bare mention";
+  if (!aperiodic || !periodic) return `${best.model} is preferred.`;
+  const twoLnB = 2 * Math.abs(periodic.logEvidence - aperiodic.logEvidence);
+  if (best.model === "drw") return `No period: the aperiodic damped random walk is preferred (2 ln B = ${twoLnB.toFixed(1)}, ${strength(twoLnB)} evidence).`;
+  const period = best.maximum.period;
+  return `A period is supported: ${best.model} (period ${period.toPrecision(4)}) over the damped random walk, 2 ln B = ${twoLnB.toFixed(1)} (${strength(twoLnB)} evidence).`;
+}

@@ -1,0 +1,55 @@
+import type { LightCurve } from "../lightcurve/light-curve.js";
+
+/** Scales of a light curve from which the models derive their priors (never hard-coded days or magnitudes). */
+export interface DataSummary {
+  readonly n: number;
+  /** Last time minus first time, input time unit. */
+  readonly baseline: number;
+  /** Median spacing between consecutive distinct times. */
+  readonly medianCadence: number;
+  /** Smallest spacing between consecutive distinct times. */
+  readonly minimumSpacing: number;
+  /** Median of the values. */
+  readonly median: number;
+  /** Robust spread of the values: 1.4826 x median absolute deviation, or the sample sd if larger. */
+  readonly spread: number;
+  /** Median per-point error (0 without an error column). */
+  readonly medianError: number;
+  readonly hasErrors: boolean;
+}
+
+/** Computes the scales of a light curve (sorted times assumed, as the readers deliver them). */
+export function summarizeLightCurve(lightCurve: LightCurve): DataSummary {
+  const { time, value, error } = lightCurve;
+  const n = time.length;
+  const spacings: number[] = [];
+  for (let i = 1; i < n; i++) if (time[i] > time[i - 1]) spacings.push(time[i] - time[i - 1]);
+  const median = medianOf(Array.from(value));
+  const deviations = Array.from(value, (v) => Math.abs(v - median));
+  let mean = 0;
+  for (let i = 0; i < n; i++) mean += value[i];
+  mean /= n;
+  let ss = 0;
+  for (let i = 0; i < n; i++) ss += (value[i] - mean) ** 2;
+  const sd = n > 1 ? Math.sqrt(ss / (n - 1)) : 0;
+  const spread = Math.max(1.4826 * medianOf(deviations), sd);
+  const medianError = error ? medianOf(Array.from(error)) : 0;
+  return {
+    n,
+    baseline: n > 0 ? time[n - 1] - time[0] : 0,
+    medianCadence: spacings.length ? medianOf(spacings) : 0,
+    minimumSpacing: spacings.length ? Math.min(...spacings) : 0,
+    median,
+    spread: spread > 0 ? spread : Math.max(medianError, 1e-12),
+    medianError,
+    hasErrors: error !== undefined,
+  };
+}
+
+/** The median of a list (the mean of the two middle values for an even count). */
+export function medianOf(values: number[]): number {
+  if (values.length === 0) return NaN;
+  const sorted = [...values].sort((a, b) => a - b);
+  const mid = sorted.length >> 1;
+  return sorted.length % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
+}

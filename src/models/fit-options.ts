@@ -1,0 +1,25 @@
+import type { CancellationSignal, SamplerKind, SamplerProgress } from "../inference/index.js";
+import type { ModelName } from "./light-curve-model.js";
+
+/** Options of a fit. */
+export interface FitOptions {
+  readonly model: ModelName;
+  /** Seed of every random choice; the same seed gives the same result, bit for bit. */
+  readonly seed: number | string;
+  /** Add a slow damped random walk for trends. */
+  readonly background?: "drw";
+  /** Fit a white-noise jitter even when the light curve has errors. */
+  readonly jitter?: boolean;
+  /** Source redshift: adds the rest-frame timescale tau / (1 + z) to damped-random-walk results. */
+  readonly redshift?: number;
+  /** "nuts" (default) or "ensemble". */
+  readonly sampler?: SamplerKind;
+  /** Budget in log-likelihood evaluations (gradients weighted by their cost); default 2e6. */
+  readonly maxEvaluations?: number;
+  /** Number of posterior draws kept in the result for predictions and reports (default 400). */
+  readonly keptDraws?: number;
+  readonly onProgress?: (progress: SamplerProgress) => void;
+  readonly signal?: CancellationSignal;
+  /** Milliseconds clock for the timing figure (default performance.now). */
+  readonly clock?: () => number;
+}

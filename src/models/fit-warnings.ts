@@ -1,0 +1,74 @@
+import type { LightCurve } from "../lightcurve/light-curve.js";
+import type { DataSummary } from "./data-summary.js";
+import type { FitDiagnostics, ParameterSummary } from "./fit-result.js";
+import type { LightCurveModel } from "./light-curve-model.js";
+import type { PeriodMode } from "./period-modes.js";
+
+/** What the warnings are drawn from. */
+export interface WarningInputs {
+  readonly model: LightCurveModel;
+  readonly summary: DataSummary;
+  readonly lightCurve: LightCurve;
+  readonly parameters: Readonly<Record<string, ParameterSummary>>;
+  readonly diagnostics: FitDiagnostics & { readonly stopReason?: string };
+  readonly modes: readonly PeriodMode[];
+  readonly redshift?: number;
+}
+
+const fmt = (x: number) => (Math.abs(x) >= 1e4 || Math.abs(x) < 1e-2 ? x.toExponential(2) : x.toPrecision(3));
+
+/**
+ * Plain-language warnings about what the data do and do not constrain:
+ * - the sampler did not converge (R-hat, ESS, budget);
+ * - a damped-random-walk timescale longer than a tenth of the baseline is biased (Kozlowski 2017, A&A 597,
+ *   A128), and one shorter than the median cadence is not resolved by the sampling;
+ * - a posterior piled against a prior bound gives only a limit;
+ * - the period posterior has several modes (aliases);
+ * - rows were dropped, or no error column was given and a white-noise term was fitted.
+ */
+export function fitWarnings(inputs: WarningInputs): string[] {
+  const { model, summary, lightCurve, parameters, diagnostics, modes } = inputs;
+  const warnings: string[] = [];
+  if (!diagnostics.converged) {
+    warnings.push(
+      `The sampler stopped (${diagnostics.stopReason ?? "budget"}) before convergence: largest R-hat ${fmt(diagnostics.rhatMax)}, ` +
+        `smallest ESS ${fmt(diagnostics.essMin)} (targets: R-hat < 1.01, ESS >= 400); treat the intervals as rough or raise the budget.`,
+    );
+  }
+  if (model.name === "drw" && parameters.tau) {
+    const tau = parameters.tau.median;
+    if (summary.baseline < 10 * tau) {
+      warnings.push(
+        `The baseline (${fmt(summary.baseline)}) is shorter than 10 tau (tau = ${fmt(tau)}): damped-random-walk timescales ` +
+          `this long relative to the baseline are biased (Kozlowski 2017, A&A 597, A128).`,
+      );
+    }
+    if (tau < summary.medianCadence) {
+      warnings.push(
+        `tau (${fmt(tau)}) is shorter than the median cadence (${fmt(summary.medianCadence)}): the sampling does not resolve the timescale.`,
+      );
+    }
+  }
+  for (const p of model.space.free) {
+    const s = parameters[p.name];
+    if (!s || p.prior.family !== "log-uniform") continue;
+    const logRange = Math.log(p.prior.upper / p.prior.lower);
+    if (Math.log(p.prior.upper / s["q97.5"]) < 0.02 * logRange && Math.log(s["q2.5"] / p.prior.lower) > 0.1 * logRange) {
+      warnings.push(`${p.name} runs into the upper end of its prior (${fmt(p.prior.upper)}): the data give only a lower limit (${fmt(s["q2.5"])} at 97.5%).`);
+    } else if (Math.log(s["q2.5"] / p.prior.lower) < 0.02 * logRange && Math.log(p.prior.upper / s["q97.5"]) > 0.1 * logRange) {
+      warnings.push(`${p.name} runs into the lower end of its prior (${fmt(p.prior.lower)}): the data give only an upper limit (${fmt(s["q97.5"])} at 97.5%).`);
+    }
+  }
+  const significant = modes.filter((m) => m.probability >= 0.01);
+  if (significant.length > 1) {
+    const list = significant.map((m) => `${fmt(m.period)} (${(100 * m.probability).toFixed(0)}%)`).join(", ");
+    warnings.push(`The period posterior is multimodal: ${list}. The summaries pool the modes; quote them with care.`);
+  }
+  if (lightCurve.provenance.dropped > 0) {
+    warnings.push(`${lightCurve.provenance.dropped} rows with missing values were dropped.`);
+  }
+  if (!summary.hasErrors) {
+    warnings.push("The light curve has no error column: a white-noise term (jitter) was fitted for the measurement errors.");
+  }
+  return warnings;
+}

@@ -1,0 +1,82 @@
+import type { LightCurve } from "../lightcurve/light-curve.js";
+import type { FitResult } from "../models/fit-result.js";
+import type { LightCurveModel } from "../models/light-curve-model.js";
+import { posteriorPredictive } from "../models/posterior-predictive.js";
+import { storedPosteriorSample } from "../models/posterior-sample.js";
+import { computePeriodogram } from "../periodogram/periodogram.js";
+import type { ReportInput } from "./report-input.js";
+
+/** Sizes of the report's computed curves. */
+export interface ReportSizes {
+  /** Grid points of the predictive curve (default 600). */
+  readonly gridPoints?: number;
+  /** Posterior draws used for the predictive curve and the PSD band (default 120). */
+  readonly draws?: number;
+}
+
+/**
+ * Fills a report from a fit: the posterior-predictive curve on a grid spanning the data, 5% before the
+ * first point and 10% after the last (so the forecast after the last point shows); the draws per chain;
+ * the generalised Lomb-Scargle periodogram; and the 68% band of the model PSD, S(2 pi f) (two-sided, per
+ * unit angular frequency) at log-spaced frequencies from a tenth of 1 / baseline to 1 / (2 x smallest spacing).
+ */
+export function reportInputFromFit(
+  lightCurve: LightCurve,
+  result: FitResult,
+  model: LightCurveModel,
+  sizes: ReportSizes = {},
+): ReportInput {
+  const sample = storedPosteriorSample(result, model.space.names);
+  const { time } = lightCurve;
+  const first = time[0];
+  const last = time[time.length - 1];
+  const baseline = last - first;
+  const points = sizes.gridPoints ?? 600;
+  const grid = Float64Array.from({ length: points }, (_, i) => first - 0.05 * baseline + (1.15 * baseline * i) / (points - 1));
+  const used = evenly(sample.rows, sizes.draws ?? 120);
+  const prediction = posteriorPredictive(model, lightCurve, used, grid);
+
+  const chains = [...new Set(sample.chain)].sort((a, b) => a - b);
+  const perChain = chains.map((c) => sample.rows.filter((_, k) => sample.chain[k] === c));
+  const length = Math.min(...perChain.map((rows) => rows.length));
+  const draws = {
+    names: [...model.space.names],
+    chains: Object.fromEntries(
+      model.space.names.map((name, i) => [name, perChain.map((rows) => rows.slice(0, length).map((row) => row[i]))]),
+    ),
+  };
+
+  const periodogram = computePeriodogram({
+    time: lightCurve.time,
+    value: lightCurve.value,
+    ...(lightCurve.error ? { error: lightCurve.error } : {}),
+  });
+  let smallest = Infinity;
+  for (let i = 1; i < time.length; i++) if (time[i] > time[i - 1]) smallest = Math.min(smallest, time[i] - time[i - 1]);
+  const fLow = 0.1 / baseline;
+  const fHigh = 1 / (2 * smallest);
+  const frequencies = Float64Array.from({ length: 200 }, (_, i) => fLow * Math.pow(fHigh / fLow, i / 199));
+  const spectra = used.map((row) => model.kernelAt(row).psd(frequencies.map((f) => 2 * Math.PI * f)));
+  const band = (q: number) => frequencies.map((_, i) => quantile(spectra.map((s) => s[i]), q));
+  return {
+    result,
+    lightCurve,
+    prediction: { time: prediction.time, mean: prediction.mean, sd: prediction.sd },
+    draws,
+    periodogram: { frequency: periodogram.frequency, power: periodogram.power, label: "Lomb-Scargle power" },
+    psdBand: { frequency: frequencies, median: band(0.5), lower: band(0.16), upper: band(0.84), mass: 0.68 },
+  };
+}
+
+function evenly<T>(items: readonly T[], count: number): T[] {
+  const n = Math.min(items.length, count);
+  return Array.from({ length: n }, (_, k) => items[Math.floor((k * items.length) / n)]);
+}
+
+function quantile(values: number[], q: number): number {
+  const sorted = [...values].sort((a, b) => a - b);
+  const position = q * (sorted.length - 1);
+  const lo = Math.floor(position);
+  const hi = Math.ceil(position);
+  return sorted[lo] + (sorted[hi] - sorted[lo]) * (position - lo);
+}
