@@ -1,7 +1,10 @@
 import { LEADING_COLUMNS, type ResultRow } from "./result-row.js";
 
-/** The statistics of each parameter summary in the fit JSON (DESIGN.md, "Fit result JSON"). */
-export const SUMMARY_STATISTICS = ["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5"] as const;
+/**
+ * The statistics of each parameter summary in the fit JSON: those of DESIGN.md ("Fit result JSON"),
+ * and the 95% highest-density interval that models/fit-light-curve.ts adds.
+ */
+export const SUMMARY_STATISTICS = ["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5", "hdi95.lower", "hdi95.upper"] as const;
 
 /** The diagnostics of the fit JSON (DESIGN.md, "Fit result JSON"). */
 export const DIAGNOSTIC_KEYS = [

@@ -20,8 +20,10 @@ const DATA_KEYS = ["n", "dropped", "baseline", "medianCadence"] as const;
 
 /**
  * Flattens a fit result to one row: the leading columns, `data.<key>` for the size of the light curve,
- * `<parameter>.<statistic>` for every scalar of every parameter summary (for example `tau.median`,
- * `tau.q2.5`), `diagnostics.<key>` for every scalar diagnostic, and `warnings` as a JSON array of strings.
+ * `<parameter>.<statistic>` for every number of every parameter summary (for example `tau.median`,
+ * `tau.q2.5`; an interval [lower, upper] such as `hdi95` gives `tau.hdi95.lower` and `.upper`), the
+ * same for the summaries of derived quantities when the fit reports them (`derived`, for example
+ * `sfInf.median`), `diagnostics.<key>` for every scalar diagnostic, and `warnings` as a JSON array.
  *
  * @example okRow("quasar-0001", 123, fit)["tau.median"] === fit.parameters.tau.median
  */
@@ -35,9 +37,14 @@ export function okRow(objectId: string, seed: number, fit: FitResult): ResultRow
   };
   const data = (fit.data ?? {}) as unknown as Record<string, unknown>;
   for (const key of DATA_KEYS) row[`data.${key}`] = scalarCell(data[key]);
-  for (const [name, summary] of Object.entries(fit.parameters ?? {})) {
+  const summaries = { ...(fit.parameters ?? {}), ...summaryRecord(fit.derived) };
+  for (const [name, summary] of Object.entries(summaries)) {
     for (const [statistic, value] of Object.entries(summary)) {
-      if (isScalar(value)) row[`${name}.${statistic}`] = value;
+      if (typeof value === "number" || typeof value === "boolean") row[`${name}.${statistic}`] = value;
+      else if (isInterval(value)) {
+        row[`${name}.${statistic}.lower`] = value[0];
+        row[`${name}.${statistic}.upper`] = value[1];
+      }
     }
   }
   for (const [key, value] of Object.entries(fit.diagnostics ?? {})) {
@@ -55,6 +62,20 @@ export function failedRow(objectId: string, seed: number, model: string, reason:
 /** Replaces line breaks and tabs by spaces and trims, so a reason fits one CSV line and one log line. */
 export function singleLine(text: string): string {
   return text.replace(/[\r\n\t]+/g, " ").trim();
+}
+
+/** The summaries of an optional `derived` record of the fit JSON (name to summary object), else none. */
+function summaryRecord(derived: unknown): Record<string, Record<string, unknown>> {
+  if (derived === null || typeof derived !== "object") return {};
+  const out: Record<string, Record<string, unknown>> = {};
+  for (const [name, summary] of Object.entries(derived)) {
+    if (summary !== null && typeof summary === "object" && !Array.isArray(summary)) out[name] = summary as Record<string, unknown>;
+  }
+  return out;
+}
+
+function isInterval(value: unknown): value is [number, number] {
+  return Array.isArray(value) && value.length === 2 && value.every((bound) => typeof bound === "number");
 }
 
 function isScalar(value: unknown): value is string | number | boolean {

@@ -48,6 +48,10 @@ Options:
                           default from SLURM_ARRAY_TASK_ID and SLURM_ARRAY_TASK_COUNT when set
   --resume                continue an interrupted run (starts afresh if there is none)
   --overwrite             discard earlier results at --out and start again
+  --sampler nuts|ensemble the posterior sampler (default nuts)
+  --max-evaluations N     sampling budget per object, in log-likelihood evaluations (default 2e6);
+                          a fit that runs out is reported with diagnostics.converged false
+  --jitter                fit a white-noise jitter even where light curves have errors
   --timeout SECONDS       give up on an object after this long (recorded as failed)
   --fit-module FILE       fit with fitLightCurve(lightCurve, options) exported by this ES module
                           instead of Horologium's own (for custom models)
@@ -83,7 +87,8 @@ Options:
   --launcher CMD          how compute nodes run Horologium (default: this node and this build,
                           by absolute paths; e.g. --launcher horologium when it is installed)
   and the fitting options of "horologium batch": --model, --background, --seed, --id-col,
-  --time-col, --value-col, --error-col, --band-col, --band, --timeout, --fit-module
+  --time-col, --value-col, --error-col, --band-col, --band, --sampler, --max-evaluations, --jitter,
+  --timeout, --fit-module
 
 Example:
   horologium batch plan lanternfield/quasars --model drw --seed 7 --shards 40 \\
@@ -126,6 +131,9 @@ const FIT_OPTIONS = {
   band: { type: "string" },
   timeout: { type: "string" },
   "fit-module": { type: "string" },
+  sampler: { type: "string" },
+  "max-evaluations": { type: "string" },
+  jitter: { type: "boolean" },
   help: { type: "boolean", short: "h" },
 } as const satisfies ParseArgsConfig["options"];
 
@@ -174,6 +182,8 @@ interface FitChoice {
   readonly read: CatalogueReadOptions;
   readonly timeoutSeconds?: number;
   readonly fitModule?: string;
+  /** Options handed to the fit as they are: sampler, budget, jitter. */
+  readonly fitOptions: Record<string, string | number | boolean>;
   /** The same choices as command-line arguments, for job scripts. */
   readonly arguments: string[];
 }
@@ -200,14 +210,24 @@ function fitChoice(values: Values, io: CliIo): FitChoice {
   const timeoutSeconds = positiveNumber(values, "timeout");
   const modulePath = text(values, "fit-module");
   const fitModule = modulePath === undefined ? undefined : pathToFileURL(resolve(io.cwd, modulePath)).href;
+  const fitOptions: Record<string, string | number | boolean> = {};
+  const sampler = text(values, "sampler");
+  if (sampler !== undefined) {
+    if (sampler !== "nuts" && sampler !== "ensemble") throw new UsageError(`--sampler must be nuts or ensemble, got "${sampler}"`);
+    fitOptions.sampler = sampler;
+  }
+  const maxEvaluations = positiveInteger(values, "max-evaluations");
+  if (maxEvaluations !== undefined) fitOptions.maxEvaluations = maxEvaluations;
+  if (values.jitter === true) fitOptions.jitter = true;
   const argumentsList: string[] = ["--model", model, "--seed", seed];
   if (background) argumentsList.push("--background", background);
-  for (const name of ["id-col", "time-col", "value-col", "error-col", "band-col", "band", "timeout"]) {
+  for (const name of ["id-col", "time-col", "value-col", "error-col", "band-col", "band", "timeout", "sampler", "max-evaluations"]) {
     const value = text(values, name);
     if (value !== undefined) argumentsList.push(`--${name}`, value);
   }
+  if (values.jitter === true) argumentsList.push("--jitter");
   if (modulePath !== undefined) argumentsList.push("--fit-module", resolve(io.cwd, modulePath));
-  return { model, background, seed, read, timeoutSeconds, fitModule, arguments: argumentsList };
+  return { model, background, seed, read, timeoutSeconds, fitModule, fitOptions, arguments: argumentsList };
 }
 
 function defaultWorkers(io: CliIo): number {
@@ -268,6 +288,7 @@ async function fitCatalogue(args: string[], io: CliIo): Promise<number> {
       model: choice.model,
       background: choice.background,
       seed: choice.seed,
+      fitOptions: choice.fitOptions,
       shard,
       workers,
       fitModule: choice.fitModule,
