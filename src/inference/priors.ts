@@ -1,13 +1,15 @@
-import normalCdf from "@stdlib/stats/base/dists/normal/cdf";
-import normalLogPdf from "@stdlib/stats/base/dists/normal/logpdf";
-import normalQuantile from "@stdlib/stats/base/dists/normal/quantile";
-import halfNormalLogPdf from "@stdlib/stats/base/dists/halfnormal/logpdf";
-import logNormalCdf from "@stdlib/stats/base/dists/lognormal/cdf";
-import logNormalLogPdf from "@stdlib/stats/base/dists/lognormal/logpdf";
-import logNormalQuantile from "@stdlib/stats/base/dists/lognormal/quantile";
-import uniformCdf from "@stdlib/stats/base/dists/uniform/cdf";
-import uniformLogPdf from "@stdlib/stats/base/dists/uniform/logpdf";
-import uniformQuantile from "@stdlib/stats/base/dists/uniform/quantile";
+import {
+  halfNormalLogPdf,
+  logNormalCdf,
+  logNormalLogPdf,
+  logNormalQuantile,
+  normalCdf,
+  normalLogPdf,
+  normalQuantile,
+  uniformCdf,
+  uniformLogPdf,
+  uniformQuantile,
+} from "./distribution-functions.js";
 
 /**
  * A proper prior on one scalar parameter, in the parameter's physical unit. Densities, distribution

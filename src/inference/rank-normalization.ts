@@ -1,4 +1,4 @@
-import normalQuantile from "@stdlib/stats/base/dists/normal/quantile";
+import { normalQuantile } from "./distribution-functions.js";
 import { pooled, sortedCopy, sortedQuantile } from "./sample-quantile.js";
 
 /**

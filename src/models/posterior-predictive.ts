@@ -1,4 +1,4 @@
-import normalCdf from "@stdlib/stats/base/dists/normal/cdf";
+import { normalCdf } from "../inference/distribution-functions.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { LightCurveModel } from "./light-curve-model.js";
 
