@@ -1,0 +1,491 @@
+/*
+ * engine-loglike: a plain C version of Horologium's one-pass semiseparable log-likelihood, used only by
+ * the engine benchmark (bench/run-engine.ts) as a speed and accuracy reference. Not part of the package.
+ *
+ * It runs the same recursion as src/linalg/semiseparable-likelihood.ts, with the same state-space
+ * blocks and the same formulas:
+ *   - damped random walk: a 1x1 block exp(-dt / tau);
+ *   - oscillator: a 2x2 block exp(F dt) = exp(-c dt) [C I + S G] (src/linalg/oscillator-transition.ts),
+ *     with C, S summed as power series when |lambda dt^2| < 1, else cos/sin or the two real rates;
+ *   - quasi-periodic: two oscillators with eta-corrected frequencies w and 2w (src/kernels/quasi-periodic.ts);
+ *   - S <- Phi (S + u u^T / D) Phi^T one block pair at a time, exactly as TransitionLayout.applyCongruence
+ *     does for blocks of size 1 and 2;
+ *   - sum log D as the log of a running product of pivots, folded in when it leaves [1e-150, 1e150].
+ *
+ * One evaluation = "build the kernel from its physical parameters + evaluate", like the TypeScript
+ * benchmark's `new GaussianProcess(kernel, t, { yerr, mean }).logLikelihood(y)`: the inputs are checked
+ * (finite, sorted), the noise variances yerr^2 and the residuals y - mean are formed, then the recursion runs.
+ *
+ * Usage:
+ *   engine-loglike [--repeat K] [--rounds M] DATAFILE TERM [TERM ...]
+ *       times M rounds of K evaluations; prints the log-likelihood and the median ns per point
+ *       (process CPU time and wall clock).
+ *   engine-loglike --serve DATAFILE TERM [TERM ...]
+ *       reads requests "full K" or "core K" on stdin, one per line, runs K evaluations and answers
+ *       "LOGL WALL CPU" on stdout (wall-clock and process CPU seconds for all K); used by the benchmark runner to interleave C and
+ *       TypeScript timings. "full" is build + check + evaluate; "core" is the recursion alone on
+ *       prepared noise variances and residuals.
+ *
+ * TERM (a sum of terms is the sum of the kernels):
+ *   drw:SIGMA:TAU                    sigma^2 exp(-|t| / tau)                        R = 1
+ *   osc:SIGMA:PERIOD:QUALITY         stochastically driven damped oscillator        R = 2
+ *   qp:SIGMA:PERIOD:QUALITY:WEIGHT   quasi-periodic (two oscillators, Q > 1/2)      R = 4
+ *
+ * DATAFILE (little-endian): 8 bytes magic "HORODAT1", uint64 n, float64 mean, then n float64 times,
+ * n float64 errors (1 sigma), n float64 values.
+ *
+ * Build: gcc -O3 -march=native -o bench/build/engine-loglike bench/c/engine-loglike.c -lm
+ */
+#define _POSIX_C_SOURCE 199309L
+#include <math.h>
+#include <stdint.h>
+#include <stdio.h>
+#include <stdlib.h>
+#include <string.h>
+#include <time.h>
+
+#define MAX_BLOCKS 64
+#define MAX_STATE 128
+
+static const double TWO_PI = 6.283185307179586;
+
+enum block_kind { EXPONENTIAL = 1, OSCILLATOR = 2 };
+
+/* One block of the drift matrix. */
+typedef struct {
+  enum block_kind kind;
+  double rate;       /* exponential: 1 / tau */
+  double w0;         /* oscillator: undamped angular frequency */
+  double half_width; /* oscillator: c = w0 / (2 Q) */
+  double lambda;     /* oscillator: c^2 - w0^2 */
+} block_t;
+
+/* A kernel in semiseparable form, with the layout of its blocks in the state vector. */
+typedef struct {
+  int block_count;
+  int dimension;
+  block_t blocks[MAX_BLOCKS];
+  int block_start[MAX_BLOCKS];
+  int block_size[MAX_BLOCKS];
+  int phi_start[MAX_BLOCKS];
+  double p[MAX_STATE];
+  double q[MAX_STATE];
+} form_t;
+
+/* One term of the kernel as given on the command line (physical parameters). */
+typedef struct {
+  char kind[8];
+  double value[4];
+} term_t;
+
+static void die(const char *message, const char *detail) {
+  fprintf(stderr, "engine-loglike: %s%s%s\n", message, detail ? ": " : "", detail ? detail : "");
+  exit(2);
+}
+
+/* ---------- building the form from physical parameters (mirrors the kernel files in src/kernels) ---------- */
+
+static int add_block(form_t *form, block_t block, int size) {
+  if (form->block_count >= MAX_BLOCKS || form->dimension + size > MAX_STATE) die("kernel too large", NULL);
+  int b = form->block_count++;
+  int phi_length = b == 0 ? 0 : form->phi_start[b - 1] + form->block_size[b - 1] * form->block_size[b - 1];
+  form->blocks[b] = block;
+  form->block_start[b] = form->dimension;
+  form->block_size[b] = size;
+  form->phi_start[b] = phi_length;
+  int start = form->dimension;
+  form->dimension += size;
+  return start;
+}
+
+static void add_oscillator(form_t *form, double w0, double quality, double variance) {
+  block_t block = {OSCILLATOR, 0, w0, w0 / (2 * quality), w0 * w0 * (1 / (4 * quality * quality) - 1)};
+  int s = add_block(form, block, 2);
+  form->p[s] = 1;
+  form->p[s + 1] = 0;
+  form->q[s] = variance;
+  form->q[s + 1] = 0;
+}
+
+static void require_positive(const char *name, double value) {
+  if (!(value > 0) || !isfinite(value)) die("parameter must be positive and finite", name);
+}
+
+static void build_form(form_t *form, const term_t *terms, int count) {
+  memset(form, 0, sizeof *form);
+  for (int i = 0; i < count; i++) {
+    const term_t *term = &terms[i];
+    if (strcmp(term->kind, "drw") == 0) {
+      double sigma = term->value[0], tau = term->value[1];
+      require_positive("sigma", sigma);
+      require_positive("tau", tau);
+      block_t block = {EXPONENTIAL, 1 / tau, 0, 0, 0};
+      int s = add_block(form, block, 1);
+      form->p[s] = 1;
+      form->q[s] = sigma * sigma;
+    } else if (strcmp(term->kind, "osc") == 0) {
+      double sigma = term->value[0], period = term->value[1], quality = term->value[2];
+      require_positive("sigma", sigma);
+      require_positive("period", period);
+      require_positive("quality", quality);
+      add_oscillator(form, TWO_PI / period, quality, sigma * sigma);
+    } else if (strcmp(term->kind, "qp") == 0) {
+      double sigma = term->value[0], period = term->value[1], quality = term->value[2], weight = term->value[3];
+      require_positive("sigma", sigma);
+      require_positive("period", period);
+      if (!(quality > 0.5)) die("quality must exceed 1/2", "quality");
+      if (!(weight >= 0 && weight <= 1)) die("harmonicWeight must be in [0, 1]", "harmonicWeight");
+      double eta = sqrt(1 - 1 / (4 * quality * quality));
+      double w = TWO_PI / (period * eta);
+      double variance = sigma * sigma;
+      add_oscillator(form, w, quality, variance * (1 - weight));
+      add_oscillator(form, 2 * w, quality, variance * weight);
+    } else {
+      die("unknown kernel term", term->kind);
+    }
+  }
+}
+
+static void parse_term(const char *text, term_t *term) {
+  memset(term, 0, sizeof *term);
+  const char *colon = strchr(text, ':');
+  if (!colon || colon - text >= (long)sizeof term->kind) die("bad kernel term", text);
+  memcpy(term->kind, text, (size_t)(colon - text));
+  int expected = strcmp(term->kind, "drw") == 0 ? 2 : strcmp(term->kind, "osc") == 0 ? 3 : 4;
+  const char *cursor = colon + 1;
+  for (int i = 0; i < expected; i++) {
+    char *end;
+    term->value[i] = strtod(cursor, &end);
+    if (end == cursor) die("bad number in kernel term", text);
+    cursor = end;
+    if (i + 1 < expected) {
+      if (*cursor != ':') die("too few numbers in kernel term", text);
+      cursor++;
+    }
+  }
+  if (*cursor != '\0') die("too many numbers in kernel term", text);
+}
+
+/* ---------- transitions (mirrors the transition files in src/linalg) ---------- */
+
+/* [exp(-c dt) C, exp(-c dt) S] with C = cosh(sqrt(lambda) dt), S = sinh(sqrt(lambda) dt) / sqrt(lambda). */
+static inline void damped_hyperbolic_pair(double c, double lambda, double w0, double dt, double *ec, double *es) {
+  double x = lambda * dt * dt;
+  if (fabs(x) < 1) {
+    double c_sum = 1, s_sum = 1, c_term = 1, s_term = 1;
+    for (int k = 1; k < 12; k++) {
+      c_term *= x / ((2 * k - 1) * (2 * k));
+      s_term *= x / ((2 * k) * (2 * k + 1));
+      c_sum += c_term;
+      s_sum += s_term;
+    }
+    double e = exp(-c * dt);
+    *ec = e * c_sum;
+    *es = e * (dt * s_sum);
+    return;
+  }
+  if (lambda < 0) {
+    double omega = sqrt(-lambda);
+    double e = exp(-c * dt);
+    *ec = e * cos(omega * dt);
+    *es = e * (sin(omega * dt) / omega);
+  } else {
+    double root = sqrt(lambda);
+    double fast_rate = c + root;
+    double slow_rate = (w0 * w0) / fast_rate;
+    double slow = exp(-slow_rate * dt);
+    double fast = exp(-fast_rate * dt);
+    *ec = 0.5 * (slow + fast);
+    *es = (slow - fast) / (2 * root);
+  }
+}
+
+static inline void compute_transitions(const form_t *form, double dt, double *phi) {
+  for (int b = 0; b < form->block_count; b++) {
+    const block_t *block = &form->blocks[b];
+    double *out = phi + form->phi_start[b];
+    if (block->kind == EXPONENTIAL) {
+      out[0] = exp(-block->rate * dt);
+    } else {
+      double ec, es;
+      damped_hyperbolic_pair(block->half_width, block->lambda, block->w0, dt, &ec, &es);
+      double c = block->half_width, w0 = block->w0;
+      out[0] = ec + es * c;
+      out[1] = es * w0;
+      out[2] = -es * w0;
+      out[3] = ec - es * c;
+    }
+  }
+}
+
+/* x[start + k stride] <- Phi x[start + k stride], k = 0..R-1, block by block (f <- Phi f uses stride 1). */
+static inline void apply_strided(const form_t *form, const double *phi, double *x, int start, int stride) {
+  for (int b = 0; b < form->block_count; b++) {
+    int s = start + form->block_start[b] * stride;
+    const double *a = phi + form->phi_start[b];
+    if (form->block_size[b] == 1) {
+      x[s] *= a[0];
+    } else {
+      double x0 = x[s], x1 = x[s + stride];
+      x[s] = a[0] * x0 + a[1] * x1;
+      x[s + stride] = a[2] * x0 + a[3] * x1;
+    }
+  }
+}
+
+/*
+ * S <- Phi S Phi^T one block pair (a, b) at a time, S_ab <- Phi_a S_ab Phi_b^T, left product first: the same
+ * operations in the same order as TransitionLayout's block-pair congruence.
+ */
+static inline void apply_congruence(const form_t *form, const double *phi, double *s) {
+  const int r = form->dimension;
+  const int count = form->block_count;
+  for (int a = 0; a < count; a++) {
+    const double *pa = phi + form->phi_start[a];
+    double *row = s + form->block_start[a] * r;
+    if (form->block_size[a] == 1) {
+      const double g = pa[0];
+      for (int b = 0; b < count; b++) {
+        const double *pb = phi + form->phi_start[b];
+        double *x = row + form->block_start[b];
+        if (form->block_size[b] == 1) {
+          x[0] = pb[0] * (g * x[0]);
+        } else {
+          double y0 = g * x[0], y1 = g * x[1];
+          x[0] = pb[0] * y0 + pb[1] * y1;
+          x[1] = pb[2] * y0 + pb[3] * y1;
+        }
+      }
+    } else {
+      const double a00 = pa[0], a01 = pa[1], a10 = pa[2], a11 = pa[3];
+      for (int b = 0; b < count; b++) {
+        const double *pb = phi + form->phi_start[b];
+        double *x = row + form->block_start[b];
+        double *x2 = x + r;
+        if (form->block_size[b] == 1) {
+          const double g = pb[0];
+          double x0 = x[0], x1 = x2[0];
+          x[0] = g * (a00 * x0 + a01 * x1);
+          x2[0] = g * (a10 * x0 + a11 * x1);
+        } else {
+          double x00 = x[0], x01 = x[1], x10 = x2[0], x11 = x2[1];
+          double y00 = a00 * x00 + a01 * x10, y01 = a00 * x01 + a01 * x11;
+          double y10 = a10 * x00 + a11 * x10, y11 = a10 * x01 + a11 * x11;
+          x[0] = pb[0] * y00 + pb[1] * y01;
+          x[1] = pb[2] * y00 + pb[3] * y01;
+          x2[0] = pb[0] * y10 + pb[1] * y11;
+          x2[1] = pb[2] * y10 + pb[3] * y11;
+        }
+      }
+    }
+  }
+}
+
+/* ---------- the one-pass log-likelihood (mirrors semiseparableLogLikelihood) ---------- */
+
+static const double HALF_LOG_TWO_PI = 0.91893853320467274178;
+
+/* sum log D is the log of a running product of pivots, folded in when it leaves [1e-150, 1e150]. */
+static const double PIVOT_LOW = 1e-100, PIVOT_HIGH = 1e100;
+static const double PRODUCT_LOW = 1e-150, PRODUCT_HIGH = 1e150;
+
+static double recursion(const form_t *form, size_t n, const double *time, const double *noise, const double *residual) {
+  const int r = form->dimension;
+  const double *p = form->p;
+  const double *q = form->q;
+  double variance = 0;
+  for (int i = 0; i < r; i++) variance += p[i] * q[i];
+  double s[MAX_STATE * MAX_STATE];
+  double f[MAX_STATE], u[MAX_STATE], phi[MAX_STATE * 2];
+  memset(s, 0, sizeof(double) * (size_t)(r * r));
+  memset(f, 0, sizeof(double) * (size_t)r);
+  memset(u, 0, sizeof(double) * (size_t)r);
+  double quadratic = 0, log_determinant = 0, product = 1, previous_inverse = 0, previous_z = 0;
+  for (size_t k = 0; k < n; k++) {
+    if (k > 0) {
+      for (int i = 0; i < r; i++) {
+        double ui = u[i] * previous_inverse;
+        double *row = s + i * r;
+        for (int j = 0; j < r; j++) row[j] += ui * u[j];
+        f[i] += ui * previous_z;
+      }
+      compute_transitions(form, time[k] - time[k - 1], phi);
+      apply_congruence(form, phi, s);
+      apply_strided(form, phi, f, 0, 1);
+    }
+    double p_s_p = 0, p_f = 0;
+    for (int i = 0; i < r; i++) {
+      double sp = 0;
+      const double *row = s + i * r;
+      for (int j = 0; j < r; j++) sp += row[j] * p[j];
+      u[i] = q[i] - sp;
+      p_s_p += p[i] * sp;
+      p_f += p[i] * f[i];
+    }
+    double pivot = noise[k] + variance - p_s_p;
+    if (!(pivot > 0) || !isfinite(pivot)) {
+      fprintf(stderr, "engine-loglike: not positive definite at point %zu (pivot %g)\n", k, pivot);
+      return NAN;
+    }
+    double z = residual[k] - p_f;
+    previous_inverse = 1 / pivot;
+    previous_z = z;
+    quadratic += z * z * previous_inverse;
+    if (pivot > PIVOT_LOW && pivot < PIVOT_HIGH) {
+      product *= pivot;
+      if (!(product > PRODUCT_LOW && product < PRODUCT_HIGH)) {
+        log_determinant += log(product);
+        product = 1;
+      }
+    } else {
+      log_determinant += log(pivot);
+    }
+  }
+  log_determinant += log(product);
+  return -0.5 * (quadratic + log_determinant) - (double)n * HALF_LOG_TWO_PI;
+}
+
+/* ---------- data and one evaluation ---------- */
+
+typedef struct {
+  size_t n;
+  double mean;
+  double *time, *yerr, *value;
+} data_t;
+
+static void read_data(const char *path, data_t *data) {
+  FILE *file = fopen(path, "rb");
+  if (!file) die("cannot open data file", path);
+  char magic[8];
+  uint64_t n;
+  if (fread(magic, 1, 8, file) != 8 || memcmp(magic, "HORODAT1", 8) != 0) die("not a benchmark data file", path);
+  if (fread(&n, 8, 1, file) != 1 || fread(&data->mean, 8, 1, file) != 1) die("truncated data file", path);
+  data->n = (size_t)n;
+  double **columns[3] = {&data->time, &data->yerr, &data->value};
+  for (int c = 0; c < 3; c++) {
+    *columns[c] = malloc(sizeof(double) * (data->n ? data->n : 1));
+    if (!*columns[c]) die("out of memory", NULL);
+    if (fread(*columns[c], sizeof(double), data->n, file) != data->n) die("truncated data file", path);
+  }
+  fclose(file);
+}
+
+/* Build the kernel from its parameters, check and prepare the inputs, run the recursion. */
+static double evaluate(const term_t *terms, int term_count, const data_t *data) {
+  form_t form;
+  build_form(&form, terms, term_count);
+  size_t n = data->n;
+  const double *t = data->time;
+  for (size_t i = 0; i < n; i++) {
+    if (!isfinite(t[i])) die("time is not finite", NULL);
+    if (i > 0 && t[i] < t[i - 1]) die("times must be sorted", NULL);
+  }
+  double *noise = malloc(sizeof(double) * n);
+  double *residual = malloc(sizeof(double) * n);
+  if (!noise || !residual) die("out of memory", NULL);
+  for (size_t i = 0; i < n; i++) {
+    double e = data->yerr[i];
+    if (!isfinite(e) || e < 0) die("error must be finite and >= 0", NULL);
+    noise[i] = e * e;
+  }
+  for (size_t i = 0; i < n; i++) {
+    double y = data->value[i];
+    if (!isfinite(y)) die("value is not finite", NULL);
+    residual[i] = y - data->mean;
+  }
+  double result = recursion(&form, n, t, noise, residual);
+  free(noise);
+  free(residual);
+  return result;
+}
+
+static double clock_seconds(clockid_t clock) {
+  struct timespec ts;
+  clock_gettime(clock, &ts);
+  return (double)ts.tv_sec + 1e-9 * (double)ts.tv_nsec;
+}
+
+/* Wall-clock seconds. */
+static double now_seconds(void) { return clock_seconds(CLOCK_MONOTONIC); }
+
+/* CPU seconds used by this process (on a shared machine, waiting for a core is not counted). */
+static double cpu_seconds(void) { return clock_seconds(CLOCK_PROCESS_CPUTIME_ID); }
+
+static int compare_doubles(const void *a, const void *b) {
+  double x = *(const double *)a, y = *(const double *)b;
+  return (x > y) - (x < y);
+}
+
+int main(int argc, char **argv) {
+  int serve = 0;
+  long repeat = 1, rounds = 7;
+  int arg = 1;
+  for (; arg < argc && strncmp(argv[arg], "--", 2) == 0; arg++) {
+    if (strcmp(argv[arg], "--serve") == 0) serve = 1;
+    else if (strcmp(argv[arg], "--repeat") == 0 && arg + 1 < argc) repeat = atol(argv[++arg]);
+    else if (strcmp(argv[arg], "--rounds") == 0 && arg + 1 < argc) rounds = atol(argv[++arg]);
+    else die("unknown option", argv[arg]);
+  }
+  if (argc - arg < 2 || repeat < 1 || rounds < 1) {
+    fprintf(stderr, "usage: engine-loglike [--serve | --repeat K --rounds M] DATAFILE TERM [TERM ...]\n");
+    return 2;
+  }
+  data_t data;
+  read_data(argv[arg++], &data);
+  int term_count = argc - arg;
+  if (term_count > MAX_BLOCKS) die("too many kernel terms", NULL);
+  term_t terms[MAX_BLOCKS];
+  for (int i = 0; i < term_count; i++) parse_term(argv[arg + i], &terms[i]);
+
+  if (serve) {
+    /* Prepared inputs for "core" requests. */
+    form_t form;
+    build_form(&form, terms, term_count);
+    double *noise = malloc(sizeof(double) * (data.n ? data.n : 1));
+    double *residual = malloc(sizeof(double) * (data.n ? data.n : 1));
+    if (!noise || !residual) die("out of memory", NULL);
+    for (size_t i = 0; i < data.n; i++) {
+      noise[i] = data.yerr[i] * data.yerr[i];
+      residual[i] = data.value[i] - data.mean;
+    }
+    char line[64];
+    while (fgets(line, sizeof line, stdin)) {
+      int core = strncmp(line, "core ", 5) == 0;
+      if (!core && strncmp(line, "full ", 5) != 0) break;
+      long k = atol(line + 5);
+      if (k < 1) break;
+      double value = 0;
+      double start = now_seconds();
+      double cpu_start = cpu_seconds();
+      if (core)
+        for (long i = 0; i < k; i++) value = recursion(&form, data.n, data.time, noise, residual);
+      else
+        for (long i = 0; i < k; i++) value = evaluate(terms, term_count, &data);
+      double cpu = cpu_seconds() - cpu_start;
+      double seconds = now_seconds() - start;
+      printf("%.17g %.9e %.9e\n", value, seconds, cpu);
+      fflush(stdout);
+    }
+    return 0;
+  }
+
+  double *wall = malloc(sizeof(double) * (size_t)rounds);
+  double *cpu = malloc(sizeof(double) * (size_t)rounds);
+  if (!wall || !cpu) die("out of memory", NULL);
+  double value = evaluate(terms, term_count, &data); /* warm-up */
+  double points = (double)repeat * (double)data.n;
+  for (long round = 0; round < rounds; round++) {
+    double start = now_seconds();
+    double cpu_start = cpu_seconds();
+    for (long i = 0; i < repeat; i++) value = evaluate(terms, term_count, &data);
+    cpu[round] = 1e9 * (cpu_seconds() - cpu_start) / points;
+    wall[round] = 1e9 * (now_seconds() - start) / points;
+  }
+  qsort(wall, (size_t)rounds, sizeof(double), compare_doubles);
+  qsort(cpu, (size_t)rounds, sizeof(double), compare_doubles);
+  printf("logL %.17g\nns/point %.3f (CPU time) %.3f (wall clock), median of %ld rounds\n", value, cpu[rounds / 2],
+         wall[rounds / 2], rounds);
+  free(wall);
+  free(cpu);
+  return 0;
+}
