@@ -3,4 +3,4 @@
  * log-likelihood evaluations, used to put gradient-based and gradient-free samplers on one scale.
  * Measured by bench/samplers-gradient-cost.ts (see the figures there).
  */
-export const DEFAULT_GRADIENT_COST = 2.5;
+export const DEFAULT_GRADIENT_COST = 4;

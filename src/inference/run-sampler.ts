@@ -33,6 +33,11 @@ export interface RunSamplerOptions {
   readonly maxIterations?: number;
   /** Kept iterations before the first convergence check (default 100). */
   readonly minIterations?: number;
+  /**
+   * Factor by which the kept draws grow between convergence checks (default 1.25). Larger values
+   * check less often (cheaper for cheap targets) but may run up to that factor past convergence.
+   */
+  readonly checkGrowth?: number;
   /** Cost of one value-and-gradient evaluation in value evaluations (default {@link DEFAULT_GRADIENT_COST}). */
   readonly gradientCost?: number;
   readonly criteria?: Partial<ConvergenceCriteria>;
@@ -69,8 +74,9 @@ export interface SamplerRun {
 /**
  * Runs a sampler until its draws pass the convergence criteria ({@link assessConvergence}), the budget
  * is spent, or the signal is aborted, and says which. Convergence is checked after `minIterations`
- * kept iterations and then whenever the kept draws have grown by a quarter, so checks cost a small
- * fraction of the run. `counts` must be the tally of the target the sampler evaluates.
+ * kept iterations and then whenever the kept draws have grown by `checkGrowth`, so checks cost a small
+ * fraction of the run. The schedule depends on iteration counts only, never on the clock, so a seed
+ * fixes where the run stops. `counts` must be the tally of the target the sampler evaluates.
  */
 export function runSampler(
   sampler: MarkovSampler,
@@ -83,6 +89,7 @@ export function runSampler(
   const minIterations = Math.max(16, options.minIterations ?? 100);
   const gradientCost = options.gradientCost ?? DEFAULT_GRADIENT_COST;
   const progressInterval = Math.max(1, options.progressInterval ?? 10);
+  const checkGrowth = Math.max(1.01, options.checkGrowth ?? 1.25);
   const clock = options.clock ?? (() => performance.now());
   const startTime = clock();
   const startCost = evaluationCost(counts, gradientCost);
@@ -132,7 +139,7 @@ export function runSampler(
     const kept = sampler.draws.length;
     if (kept >= nextCheck) {
       report = assess(true);
-      nextCheck = Math.ceil(kept * 1.25);
+      nextCheck = Math.ceil(kept * checkGrowth);
       if (report.converged) {
         stopReason = "converged";
         fraction = 1;

@@ -1,4 +1,4 @@
-import { childSeed, createRng } from "../random/rng.js";
+import { childSeed, createRng, type Rng } from "../random/rng.js";
 import { createWalkerEnsemble, defaultWalkerCount } from "./walker-ensemble.js";
 import type { WeightedProposal } from "./walker-proposals.js";
 import { countEvaluations, evaluationCost } from "./evaluation-counter.js";
@@ -12,7 +12,6 @@ import { posteriorDensity, type PhysicalLikelihood } from "./posterior-density.j
 import { posteriorDraws } from "./posterior-draws.js";
 import { summarizeDraws, type PosteriorSummary } from "./posterior-summary.js";
 import { runSampler, type RunDiagnostics, type RunSamplerOptions, type SamplerRun, type StopReason } from "./run-sampler.js";
-import type { Rng } from "../random/rng.js";
 
 /** The two samplers. */
 export type SamplerKind = "nuts" | "ensemble";
@@ -95,8 +94,9 @@ function cloudAround(
 
 /**
  * Samples the posterior of a model: finds the maximum a posteriori from several starts (L-BFGS with the
- * likelihood's gradient, or Nelder-Mead without), starts NUTS chains (spread by the curvature at the
- * mode) or ensemble walkers (a tight ball, a tenth of that) around it, and runs the sampler until the
+ * likelihood's gradient, or Nelder-Mead without), moves from it to the mode of the unconstrained density
+ * the samplers see, starts NUTS chains (spread by the curvature at that mode) or ensemble walkers (a
+ * tight ball, a tenth of that) around it, and runs the sampler until the
  * convergence criteria hold or the budget is spent ({@link runSampler}). Returns summaries in
  * physical units and the run.
  *
@@ -124,19 +124,24 @@ export function samplePosterior(
   const optimizerEvaluations = evaluationCost(optimiserTarget.counts, gradientCost);
 
   const target = countEvaluations(posteriorDensity(space, likelihood, { jacobian: true }));
-  const scales = modeScales(target, maximum.x);
+  // Samplers start around the mode of the density they sample (with the Jacobian), reached from the
+  // physical MAP by one more local search. The physical MAP can sit on the edge of a prior's support
+  // (a variability amplitude the data cannot resolve), which is -Infinity away in the unconstrained
+  // space; chains started there spend their warm-up crawling back.
+  const mode = findMaximumPosterior(target, { starts: [maximum.x] }).x;
+  const scales = modeScales(target, mode);
   const startRng = createRng(childSeed(seed, 1));
   let sampler;
   if (kind === "nuts") {
     if (!hasGradient(target)) throw new RangeError("NUTS needs a likelihood with a gradient");
-    const initial = cloudAround(target, maximum.x, scales, 1, options.chains ?? 4, startRng);
+    const initial = cloudAround(target, mode, scales, 1, options.chains ?? 4, startRng);
     sampler = createNutsSampler(target, initial, childSeed(seed, 3), {
       ...(options.warmup !== undefined ? { warmup: options.warmup } : {}),
       ...(options.targetAcceptance !== undefined ? { targetAcceptance: options.targetAcceptance } : {}),
       ...(options.maxTreeDepth !== undefined ? { maxTreeDepth: options.maxTreeDepth } : {}),
     });
   } else {
-    const initial = cloudAround(target, maximum.x, scales, 0.1, options.walkers ?? defaultWalkerCount(space.dimension), startRng);
+    const initial = cloudAround(target, mode, scales, 0.1, options.walkers ?? defaultWalkerCount(space.dimension), startRng);
     sampler = createWalkerEnsemble(target, initial, createRng(childSeed(seed, 2)), options.proposals ? { proposals: options.proposals } : {});
   }
   const setupCost = evaluationCost(target.counts, gradientCost);

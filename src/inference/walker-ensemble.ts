@@ -114,7 +114,7 @@ export function createWalkerEnsemble(
     details() {
       return {
         walkers,
-        moves: moves.map((m, i) => ({
+        proposals: moves.map((m, i) => ({
           proposal: m.proposal.name,
           weight: m.weight / totalWeight,
           acceptance: proposed[i]! > 0 ? accepted[i]! / proposed[i]! : null,

@@ -54,10 +54,12 @@ export class RunningVariance {
     this.m2 = new Float64Array(dimension);
   }
 
+  /** Vectors added since the last reset. */
   get count(): number {
     return this.n;
   }
 
+  /** Adds one vector (for example a chain's position after an iteration). */
   add(x: Float64Array): void {
     this.n++;
     for (let i = 0; i < x.length; i++) {
@@ -76,6 +78,7 @@ export class RunningVariance {
     return Float64Array.from(this.m2, (m2) => (n / (n + 5)) * (m2 / (n - 1)) + 1e-3 * (5 / (n + 5)));
   }
 
+  /** Forgets every vector added, for the next adaptation window. */
   reset(): void {
     this.n = 0;
     this.mean.fill(0);

@@ -19,7 +19,8 @@ function sample(target: KnownTarget, kind: "ensemble" | "nuts", seed: number, sp
   const initial = Array.from({ length: count }, () => Float64Array.from({ length: d }, () => spread * rng.normal()));
   const sampler =
     kind === "ensemble" ? createWalkerEnsemble(counted, initial, rng) : createNutsSampler(counted, initial, seed);
-  return runSampler(sampler, counted.counts, { maxEvaluations: 3e6 });
+  // Checks every 50% growth: these targets are cheap, so the convergence checks would dominate the time.
+  return runSampler(sampler, counted.counts, { maxEvaluations: 3e6, checkGrowth: 1.5 });
 }
 
 /**
