@@ -10,20 +10,20 @@
 #
 # Needs: root, Debian's slurm-wlm and munge (bash .ci/setup-slurm.sh), and a build (npm run build).
 # The fit is Horologium's damped-random-walk fit on about 80 points per light curve, with a sampling
-# budget of 3e5 log-likelihood evaluations so that the test takes minutes, not hours: results may be
+# budget of 2e5 log-likelihood evaluations so that the test takes minutes, not hours: results may be
 # reported as not converged, which does not matter here, since the check is that the scheduler's run
 # and the single-process run agree cell for cell.
 #
-# Environment: HOROLOGIUM_SLURM_OBJECTS (default 6), HOROLOGIUM_SLURM_SHARDS (default 3),
+# Environment: HOROLOGIUM_SLURM_OBJECTS (default 4), HOROLOGIUM_SLURM_SHARDS (default 3),
 #   HOROLOGIUM_SLURM_WAIT (seconds for the job array, default 420),
 #   HOROLOGIUM_SLURM_FIT_MODULE (fit with this module instead of Horologium's DRW fit),
 #   HOROLOGIUM_SLURM_KEEP=1 (keep the temporary folder for inspection).
 set -euo pipefail
 
 ROOT="$(cd "$(dirname "${BASH_SOURCE[0]}")/.." && pwd)"
-CLI="$ROOT/dist/src/cli/main.js"
+CLI="$ROOT/dist/src/cli/bin.js"
 SIMULATE="$ROOT/dist/bench/batch-simulated-catalogue.js"
-OBJECTS="${HOROLOGIUM_SLURM_OBJECTS:-6}"
+OBJECTS="${HOROLOGIUM_SLURM_OBJECTS:-4}"
 SHARDS="${HOROLOGIUM_SLURM_SHARDS:-3}"
 WAIT_LIMIT="${HOROLOGIUM_SLURM_WAIT:-420}"
 NODE="$(command -v node)"
@@ -139,7 +139,7 @@ say "node $HOST is idle with $CPUS CPUs"
 # --- the catalogue, the plan, the job array --------------------------------------------------------
 CATALOGUE="$WORK/lanternfield-quasars.csv"
 timeout 120 "$NODE" "$SIMULATE" --objects "$OBJECTS" --seed 4242 --seasons 2 --out "$CATALOGUE"
-FIT=(--model drw --seed 11 --id-col object_id --max-evaluations 300000 --timeout 600)
+FIT=(--model drw --seed 11 --id-col object_id --max-evaluations 200000 --timeout 600)
 if [ -n "${HOROLOGIUM_SLURM_FIT_MODULE:-}" ]; then FIT+=(--fit-module "$HOROLOGIUM_SLURM_FIT_MODULE"); fi
 
 timeout 60 "$NODE" "$CLI" batch plan "$CATALOGUE" "${FIT[@]}" --shards "$SHARDS" --out-dir "$WORK/array" \

@@ -32,7 +32,7 @@ export function compiledWorkerUrl(): URL {
   return compiledProjectFile("batch/fit-worker.js");
 }
 
-/** The compiled command line (`dist/src/cli/main.js`), for job scripts; see {@link compiledProjectFile}. */
+/** The compiled command line (`dist/src/cli/bin.js`), for job scripts; see {@link compiledProjectFile}. */
 export function compiledCliPath(): string {
-  return fileURLToPath(compiledProjectFile("cli/main.js"));
+  return fileURLToPath(compiledProjectFile("cli/bin.js"));
 }

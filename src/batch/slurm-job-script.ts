@@ -4,7 +4,7 @@ import type { ResultsFormat } from "./batch-run.js";
 export interface SlurmJobScriptOptions {
   /** Number of shards, one array task each (tasks 0 to N-1). */
   readonly shards: number;
-  /** The command that runs Horologium on the compute nodes, for example [node, /abs/dist/src/cli/main.js]. */
+  /** The command that runs Horologium on the compute nodes, for example [node, /abs/dist/src/cli/bin.js]. */
   readonly launcher: readonly string[];
   /** Arguments of `horologium batch` other than --out, --shard and --workers: the input and fit options. */
   readonly batchArguments: readonly string[];
@@ -29,6 +29,22 @@ export interface SlurmJobScriptOptions {
 /** Quotes a word for bash when it needs it: `'...'`, with embedded single quotes as `'\''`. */
 export function shellQuote(word: string): string {
   return /^[A-Za-z0-9_\/.:=,+@%^-]+$/.test(word) ? word : `'${word.replace(/'/g, `'\\''`)}'`;
+}
+
+/**
+ * Lays a command out one option per line for reading: the program words up to the first option on the
+ * first line, then each option with its value.
+ */
+function optionLines(words: readonly string[]): string[] {
+  const firstOption = words.findIndex((word) => word.startsWith("--"));
+  const head = firstOption < 0 ? words.length : firstOption;
+  const lines: string[] = [words.slice(0, head).join(" ")];
+  for (const word of words.slice(head)) {
+    const previous = lines[lines.length - 1];
+    if (previous.startsWith("--") && !previous.includes(" ") && !word.startsWith("--")) lines[lines.length - 1] = `${previous} ${word}`;
+    else lines.push(word);
+  }
+  return lines;
 }
 
 /** The path of shard K's table in the output folder: `shard-K.csv` (or `.parquet`). */
@@ -87,7 +103,7 @@ export function slurmJobScript(options: SlurmJobScriptOptions): string {
     "",
     "set -euo pipefail",
     `echo "shard \${SLURM_ARRAY_TASK_ID}/${shards} on $(hostname) with \${SLURM_CPUS_PER_TASK:-1} CPUs"`,
-    command.join(" \\\n  "),
+    optionLines(command).join(" \\\n  "),
     "",
     "# When every task has ended, join the shards and list what is missing or failed:",
     `#   ${merge.join(" ")}`,

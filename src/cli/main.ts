@@ -1,29 +1,28 @@
-#!/usr/bin/env node
 import { InputError } from "../lightcurve/input-error.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
 import { UsageError, type CliIo, type CliVerb } from "./cli-io.js";
 
-/** The verbs of the `horologium` command; each lives in `verbs/<name>.ts` and exports `verb: CliVerb`. */
-export const VERB_NAMES = [
-  "fit",
-  "predict",
-  "simulate",
-  "periodogram",
-  "compare",
-  "report",
-  "batch",
-  "demo",
-] as const;
+/**
+ * The verbs of the `horologium` command; each lives in `verbs/<name>.ts` and exports `verb: CliVerb`.
+ * Loaded on demand, so that `horologium fit` does not load the batch machinery.
+ */
+const VERB_LOADERS: Readonly<Record<string, () => Promise<{ verb: CliVerb }>>> = {
+  fit: () => import("./verbs/fit.js"),
+  predict: () => import("./verbs/predict.js"),
+  simulate: () => import("./verbs/simulate.js"),
+  periodogram: () => import("./verbs/periodogram.js"),
+  compare: () => import("./verbs/compare.js"),
+  report: () => import("./verbs/report.js"),
+  batch: () => import("./verbs/batch.js"),
+  demo: () => import("./verbs/demo.js"),
+};
+
+/** The verb names, in the order of the help. */
+export const VERB_NAMES = Object.keys(VERB_LOADERS);
 
 async function loadVerb(name: string): Promise<CliVerb | undefined> {
-  if (!(VERB_NAMES as readonly string[]).includes(name)) return undefined;
-  try {
-    const module = (await import(`./verbs/${name}.js`)) as { verb: CliVerb };
-    return module.verb;
-  } catch (error) {
-    if ((error as NodeJS.ErrnoException).code === "ERR_MODULE_NOT_FOUND") return undefined;
-    throw error;
-  }
+  const loader = Object.hasOwn(VERB_LOADERS, name) ? VERB_LOADERS[name] : undefined;
+  return loader ? (await loader()).verb : undefined;
 }
 
 async function topLevelHelp(): Promise<string> {
@@ -64,19 +63,4 @@ export async function runCli(argv: string[], io: CliIo): Promise<number> {
     if (io.env.HOROLOGIUM_DEBUG && error instanceof Error) io.stderr(`${error.stack}\n`);
     return 1;
   }
-}
-
-const invokedDirectly = process.argv[1] !== undefined && import.meta.url.endsWith(process.argv[1].replace(/\\/g, "/"));
-if (invokedDirectly || process.argv[1]?.endsWith("/horologium")) {
-  const io: CliIo = {
-    stdout: (text) => process.stdout.write(text),
-    stderr: (text) => process.stderr.write(text),
-    stderrIsTty: Boolean(process.stderr.isTTY),
-    env: process.env,
-    cwd: process.cwd(),
-    now: () => Date.now(),
-  };
-  runCli(process.argv.slice(2), io).then((code) => {
-    process.exitCode = code;
-  });
 }

@@ -1,0 +1,73 @@
+import { compareModels } from "../../models/compare-models.js";
+import { MODEL_NAMES, type ModelName } from "../../models/light-curve-model.js";
+import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
+import { readInput } from "../read-input.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, seedOption, singleInput, textOption } from "../verb-arguments.js";
+import { writeOutput } from "../write-output.js";
+
+const HELP = `Usage: horologium compare FILE [--models drw,oscillator,quasi-periodic] [options]
+
+Fits several models to one light curve and ranks them by their Bayesian evidence (the marginal
+likelihood, in the Laplace approximation at the maximum a posteriori): the criterion suited to
+Gaussian processes, whose likelihood already integrates over the latent light curve, and which
+charges a periodic kernel for its extra freedom where the best-fit likelihood alone would always
+prefer it. It answers "is there a period at all?": differences are read on the scale of Kass &
+Raftery 1995 (2 ln B > 6 strong, > 10 very strong). The BIC is shown beside it.
+
+Options:
+  --models LIST           comma-separated models (default drw,oscillator,quasi-periodic)
+  --background drw        add a damped-random-walk background to every model
+  --seed N                seed of the optimiser's random starts (default 1)
+  --out FILE              write the comparison as JSON here
+  --quiet                 do not print the table
+${COLUMN_HELP}
+
+Example:
+  horologium compare lds-spotted-star.csv --out comparison.json
+`;
+
+const OPTIONS = {
+  ...COLUMN_OPTIONS,
+  models: { type: "string" },
+  background: { type: "string" },
+  seed: { type: "string" },
+  out: { type: "string" },
+  quiet: { type: "boolean" },
+} as const;
+
+/** `horologium compare`. */
+export const verb: CliVerb = {
+  summary: "rank models by Bayesian evidence: is there a period at all?",
+  async run(args: string[], io: CliIo): Promise<number> {
+    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
+    if (!parsed) return 0;
+    const { values, positionals } = parsed;
+    const file = singleInput(positionals);
+    const quiet = values.quiet === true;
+    const models = (textOption(values, "models") ?? MODEL_NAMES.join(",")).split(",").map((m) => m.trim());
+    for (const model of models)
+      if (!MODEL_NAMES.includes(model as ModelName)) throw new UsageError(`--models: "${model}" is not one of ${MODEL_NAMES.join(", ")}`);
+    const background = textOption(values, "background");
+    if (background !== undefined && background !== "drw") throw new UsageError(`--background must be drw, got "${background}"`);
+    const seed = seedOption(values);
+    const lightCurves = await readInput(file, values, io, quiet);
+    const comparisons = lightCurves.map((lightCurve) => ({
+      ...(lightCurve.band !== undefined ? { band: lightCurve.band } : {}),
+      ...compareModels(lightCurve, models as ModelName[], { seed, ...(background ? { background: "drw" as const } : {}) }),
+    }));
+    if (!quiet) {
+      for (const comparison of comparisons) {
+        io.stdout(`${file}${comparison.band ? ` [band ${comparison.band}]` : ""} — ${comparison.criterion}\n`);
+        io.stdout(`  ${"model".padEnd(16)} ${"ln Z".padStart(11)} ${"delta".padStart(8)} ${"prob".padStart(7)} ${"ln L".padStart(11)} ${"BIC".padStart(11)}\n`);
+        for (const s of comparison.ranking)
+          io.stdout(
+            `  ${s.model.padEnd(16)} ${s.logEvidence.toFixed(2).padStart(11)} ${s.deltaLogEvidence.toFixed(2).padStart(8)} ${s.probability.toFixed(3).padStart(7)} ${s.logLikelihood.toFixed(2).padStart(11)} ${s.bic.toFixed(2).padStart(11)}\n`,
+          );
+        io.stdout(`  ${comparison.verdict}\n`);
+      }
+    }
+    const out = textOption(values, "out");
+    if (out !== undefined) writeOutput(JSON.stringify(comparisons.length === 1 ? comparisons[0] : comparisons, null, 2) + "\n", out, io);
+    return 0;
+  },
+};
