@@ -3,7 +3,7 @@ import { CsvResultsAppender, writeCsvTable } from "./csv-results-file.js";
 import { FitPool, type FitOutcome } from "./fit-pool.js";
 import { objectSeed } from "./object-seed.js";
 import { ColumnTypeTracker, writeParquetTable } from "./parquet-results-file.js";
-import { expectedColumns, unionColumns } from "./result-columns.js";
+import { expectedColumns, orderColumns, unionColumns } from "./result-columns.js";
 import { failedRow, withWarnings, type ResultRow } from "./result-row.js";
 import { journalPathFor, journalRows, ResultsJournal, type JournalOpenMode, type RunIdentity } from "./results-journal.js";
 import { acquireRunLock } from "./run-lock.js";
@@ -112,6 +112,7 @@ export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> 
     try {
       let columns = expectedColumns(options.model, options.background) as readonly string[];
       for (const column of contents.columns) columns = unionColumns(columns, { [column]: null });
+      columns = orderColumns(columns);
       let csvNeedsRebuild = false;
       if (options.format === "csv") {
         await writeCsvTable(options.out, columns, journalRows(journalPath));
@@ -223,12 +224,12 @@ export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> 
           columns = unionColumns(columns, row);
           types.observe(row);
         }
-        await writeParquetTable(options.out, columns, types, journalRows(journalPath), {
+        await writeParquetTable(options.out, orderColumns(columns), types, journalRows(journalPath), {
           "horologium.batch.run": JSON.stringify(runIdentity(options)),
         });
       } else if (csvNeedsRebuild) {
         for await (const row of journalRows(journalPath)) columns = unionColumns(columns, row);
-        await writeCsvTable(options.out, columns, journalRows(journalPath));
+        await writeCsvTable(options.out, orderColumns(columns), journalRows(journalPath));
       }
 
       const final = progress();

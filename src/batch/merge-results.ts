@@ -2,7 +2,7 @@ import { existsSync } from "node:fs";
 import { InputError } from "../lightcurve/input-error.js";
 import { writeCsvTable } from "./csv-results-file.js";
 import { ColumnTypeTracker, writeParquetTable } from "./parquet-results-file.js";
-import { unionColumns } from "./result-columns.js";
+import { orderColumns, unionColumns } from "./result-columns.js";
 import type { ResultRow } from "./result-row.js";
 import { journalIdentity, journalPathFor, type RunIdentity } from "./results-journal.js";
 import { readResultsTable } from "./results-table-reader.js";
@@ -93,7 +93,7 @@ export async function mergeResults(options: MergeOptions): Promise<MergeReport> 
       }
     }
   }
-  if (columns.length === 0) columns = ["object_id", "status", "reason", "model", "seed"];
+  columns = columns.length === 0 ? ["object_id", "status", "reason", "model", "seed"] : orderColumns(columns);
   const rows =
     options.format === "parquet"
       ? await writeParquetTable(options.out, columns, types, firstOccurrences())

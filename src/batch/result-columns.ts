@@ -62,3 +62,26 @@ export function unionColumns(base: readonly string[], row: ResultRow): readonly 
   }
   return extra ? [...base, ...extra] : base;
 }
+
+/**
+ * Orders table columns by kind, keeping the order within each kind: the leading columns, `data.*`,
+ * the summaries (parameters, then derived quantities, as first seen), `diagnostics.*`, then
+ * `warnings`. Columns found only in later rows thus join their own group instead of trailing after
+ * the warnings.
+ */
+export function orderColumns(columns: readonly string[]): string[] {
+  const leading = new Set<string>(LEADING_COLUMNS);
+  const rank = (column: string): number =>
+    leading.has(column)
+      ? 0
+      : column.startsWith("data.")
+        ? 1
+        : column.startsWith("diagnostics.")
+          ? 3
+          : column === "warnings"
+            ? 4
+            : 2;
+  const first = LEADING_COLUMNS.filter((column) => columns.includes(column));
+  const rest = columns.filter((column) => !leading.has(column));
+  return [...first, ...rest.map((column, index) => ({ column, index })).sort((a, b) => rank(a.column) - rank(b.column) || a.index - b.index).map(({ column }) => column)];
+}

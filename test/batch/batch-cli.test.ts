@@ -30,7 +30,7 @@ afterAll(() => {
  */
 async function cli(args: string[], env: Record<string, string> = {}): Promise<{ code: number; stdout: string; stderr: string }> {
   const base = Object.fromEntries(Object.entries(process.env).filter(([name]) => !name.startsWith("SLURM_")));
-  const result = spawnSync(process.execPath, [join(PROJECT_ROOT, "dist", "src", "cli", "main.js"), ...args], {
+  const result = spawnSync(process.execPath, [join(PROJECT_ROOT, "dist", "src", "cli", "bin.js"), ...args], {
     cwd: folder,
     env: { ...base, ...env },
     encoding: "utf8",

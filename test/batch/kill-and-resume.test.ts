@@ -9,7 +9,7 @@ import type { ResultRow } from "../../src/batch/result-row.js";
 import { PROJECT_ROOT, requireFreshBuild } from "./build-check.js";
 import { writeInventedFolder } from "./invented-folder.js";
 
-const CLI = join(PROJECT_ROOT, "dist", "src", "cli", "main.js");
+const CLI = join(PROJECT_ROOT, "dist", "src", "cli", "bin.js");
 const FIT = join(PROJECT_ROOT, "test", "batch", "fixtures", "summary-fit.mjs");
 
 let folder: string;

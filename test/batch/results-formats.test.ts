@@ -2,6 +2,7 @@ import { execFileSync } from "node:child_process";
 import { describe, expect, it } from "vitest";
 import { formatCsvCell, formatCsvLine } from "../../src/batch/csv-results-file.js";
 import { decodeJournalRow, encodeJournalRow } from "../../src/batch/journal-codec.js";
+import { orderColumns } from "../../src/batch/result-columns.js";
 import { okRow, failedRow, withWarnings } from "../../src/batch/result-row.js";
 import { parseResultCell, splitCsvRecord } from "../../src/batch/results-table-reader.js";
 import { shellQuote } from "../../src/batch/slurm-job-script.js";
@@ -39,6 +40,14 @@ describe("result rows", () => {
     expect(JSON.parse(row.warnings as string)).toEqual(["the baseline is shorter than 10 tau, so tau is biased low"]);
     expect(JSON.parse(withWarnings(row, ["dropped 2 rows"]).warnings as string)).toHaveLength(2);
     expect(failedRow("lf-2", 5, "drw", "bad\r\nthing")).toEqual({ object_id: "lf-2", status: "failed", reason: "bad thing", model: "drw", seed: 5 });
+  });
+
+  it("are laid out by kind: identity, data, summaries, diagnostics, warnings", () => {
+    const seen = ["object_id", "status", "reason", "model", "seed", "data.n", "tau.median", "diagnostics.converged", "warnings", "sfInf.median", "diagnostics.stopReason", "data.source"];
+    expect(orderColumns(seen)).toEqual([
+      "object_id", "status", "reason", "model", "seed", "data.n", "data.source", "tau.median", "sfInf.median",
+      "diagnostics.converged", "diagnostics.stopReason", "warnings",
+    ]);
   });
 
   it("survive the journal round trip exactly, NaN and infinities included", () => {

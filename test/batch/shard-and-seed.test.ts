@@ -1,5 +1,5 @@
 import { createHash } from "node:crypto";
-import chisquareCdf from "@stdlib/stats/base/dists/chisquare/cdf";
+import chisquareCdf from "@stdlib/stats/base/dists/chisquare/cdf/lib/index.js";
 import { describe, expect, it } from "vitest";
 import { hash48 } from "../../src/batch/id-hash.js";
 import { objectSeed } from "../../src/batch/object-seed.js";
