@@ -29,11 +29,20 @@ for (const fit of fits) {
   for (let s = 0; s < seeds; s++) {
     for (const sampler of samplers) {
       const seed = 1000 + s;
+      let shown = 0;
       const result = samplePosterior(fit.space, fit.likelihood, {
         seed,
         sampler,
         initial: fit.initial,
         maxEvaluations: 5e6,
+        // Progress on stderr, every tenth of the run, so a long benchmark shows it is alive.
+        onProgress: (p) => {
+          const tenth = Math.floor(p.fraction * 10);
+          if (tenth > shown) {
+            shown = tenth;
+            console.error(`  ${fit.label}, ${sampler}: ${p.phase} ${(100 * p.fraction).toFixed(0)}%, ${p.logProbEvaluations.toFixed(0)} evaluations`);
+          }
+        },
       });
       const d = result.diagnostics;
       const key = `${fit.label}|${sampler}`;
