@@ -37,6 +37,8 @@ export interface BatchRunOptions {
   readonly mode: JournalOpenMode;
   /** Wall-clock milliseconds (passed in, like every clock in Horologium). */
   readonly now: () => number;
+  /** The environment, for the Slurm job that may hold the results' lock (see run-lock.ts). */
+  readonly env?: Readonly<Record<string, string | undefined>>;
   /** Called once the work is counted and after every object recorded. */
   readonly onProgress?: (progress: BatchProgress) => void;
 }
@@ -105,7 +107,7 @@ export function runIdentity(options: BatchRunOptions): RunIdentity {
  */
 export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> {
   const journalPath = journalPathFor(options.out);
-  const lock = acquireRunLock(options.out);
+  const lock = acquireRunLock(options.out, options.env);
   try {
     const { journal, contents } = await ResultsJournal.open(journalPath, runIdentity(options), options.mode);
     let csv: CsvResultsAppender | undefined;

@@ -295,6 +295,7 @@ async function fitCatalogue(args: string[], io: CliIo): Promise<number> {
       timeoutSeconds: choice.timeoutSeconds,
       mode: values.resume ? "resume" : values.overwrite ? "overwrite" : "new",
       now: io.now,
+      env: io.env,
       onProgress: display ? (progress) => display.update(progress) : undefined,
     });
   } finally {
