@@ -18,13 +18,14 @@ export interface ProgressTarget {
   readonly lineIntervalMs?: number;
 }
 
-function statusText(progress: BatchProgress): { counts: string; rate: string; eta: string } {
+/** The tokens of a status line; named so as not to clash with cli-progress's own ({eta}, {value}, ...). */
+function statusText(progress: BatchProgress): { counts: string; rate: string; remaining: string } {
   const { rate, etaSeconds } = throughput(progress.recorded, progress.toDo, progress.elapsedMs);
   const total = progress.toDo === undefined ? "" : `/${progress.toDo}`;
   return {
-    counts: `${progress.recorded}${total} objects, ${progress.failed} failed`,
+    counts: `${progress.recorded}${total} done, ${progress.failed} failed`,
     rate: formatRate(rate),
-    eta: `ETA ${formatDuration(etaSeconds)}`,
+    remaining: `ETA ${formatDuration(etaSeconds)}`,
   };
 }
 
@@ -42,7 +43,7 @@ export function progressDisplay(target: ProgressTarget): ProgressDisplay {
         if (now - last < interval) return;
         last = now;
         const text = statusText(progress);
-        target.write(`batch: ${text.counts}, ${text.rate}, ${text.eta}\n`);
+        target.write(`batch: ${text.counts}, ${text.rate}, ${text.remaining}\n`);
       },
       stop() {},
     };
@@ -58,8 +59,8 @@ export function progressDisplay(target: ProgressTarget): ProgressDisplay {
   const bar = new cliProgress.SingleBar(
     {
       stream,
-      format: "fitting [{bar}] {counts} | {rate} | {eta}",
-      barsize: 24,
+      format: "[{bar}] {counts} | {rate} | {remaining}",
+      barsize: 16,
       hideCursor: null,
       clearOnComplete: false,
       fps: 5,
