@@ -1,3 +1,5 @@
+import { existsSync } from "node:fs";
+import { UsageError } from "../cli/cli-io.js";
 import type { CatalogueObject } from "./catalogue-object.js";
 import { CsvResultsAppender, writeCsvTable } from "./csv-results-file.js";
 import { FitPool, type FitOutcome } from "./fit-pool.js";
@@ -107,6 +109,9 @@ export function runIdentity(options: BatchRunOptions): RunIdentity {
  */
 export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> {
   const journalPath = journalPathFor(options.out);
+  if (options.mode === "new" && existsSync(options.out)) {
+    throw new UsageError(`${options.out} exists: pass --resume to continue its run, or --overwrite to replace it`);
+  }
   const lock = acquireRunLock(options.out, options.env);
   try {
     const { journal, contents } = await ResultsJournal.open(journalPath, runIdentity(options), options.mode);

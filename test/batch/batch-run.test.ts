@@ -139,10 +139,12 @@ describe("runBatch", () => {
   it("refuses to overwrite earlier results unless asked, and to resume with different options", async () => {
     const ids = inventedIds(3);
     await runBatch(options("guarded.csv", ids));
-    await expect(runBatch(options("guarded.csv", ids))).rejects.toThrow(/--resume to continue it, or --overwrite/);
+    await expect(runBatch(options("guarded.csv", ids))).rejects.toThrow(/guarded\.csv exists: pass --resume to continue its run, or --overwrite/);
     await expect(runBatch(options("guarded.csv", ids, { mode: "resume", seed: 99 }))).rejects.toThrow(
       /seed was "20261", now "99"/,
     );
+    writeFileSync(join(folder, "precious.csv"), "someone else's table\n");
+    await expect(runBatch(options("precious.csv", ids))).rejects.toThrow(/precious\.csv exists: pass --resume/);
     const again = await runBatch(options("guarded.csv", ids, { mode: "overwrite" }));
     expect(again.recorded).toBe(3);
     expect(existsSync(join(folder, "guarded.csv.lock"))).toBe(false);
