@@ -10,7 +10,8 @@
  *   - quasi-periodic: two oscillators with eta-corrected frequencies w and 2w (src/kernels/quasi-periodic.ts);
  *   - S <- Phi (S + u u^T / D) Phi^T one block pair at a time, exactly as TransitionLayout.applyCongruence
  *     does for blocks of size 1 and 2;
- *   - sum log D as the log of a running product of pivots, folded in when it leaves [1e-150, 1e150].
+ *   - sum log D as the log of a running product of pivots, folded in when it leaves [1e-150, 1e150];
+ *   - for one-block kernels (R = 1 and 2) the state in local variables, as the TS engine does.
  *
  * One evaluation = "build the kernel from its physical parameters + evaluate", like the TypeScript
  * benchmark's `new GaussianProcess(kernel, t, { yerr, mean }).logLikelihood(y)`: the inputs are checked
@@ -289,7 +290,8 @@ static const double HALF_LOG_TWO_PI = 0.91893853320467274178;
 static const double PIVOT_LOW = 1e-100, PIVOT_HIGH = 1e100;
 static const double PRODUCT_LOW = 1e-150, PRODUCT_HIGH = 1e150;
 
-static double recursion(const form_t *form, size_t n, const double *time, const double *noise, const double *residual) {
+static double general_recursion(const form_t *form, size_t n, const double *time, const double *noise,
+                                const double *residual) {
   const int r = form->dimension;
   const double *p = form->p;
   const double *q = form->q;
@@ -343,6 +345,111 @@ static double recursion(const form_t *form, size_t n, const double *time, const 
   }
   log_determinant += log(product);
   return -0.5 * (quadratic + log_determinant) - (double)n * HALF_LOG_TWO_PI;
+}
+
+/* Folds one pivot into the log-determinant (running product, as in the general loop). */
+#define FOLD_PIVOT(pivot)                                                  \
+  do {                                                                     \
+    if ((pivot) > PIVOT_LOW && (pivot) < PIVOT_HIGH) {                     \
+      product *= (pivot);                                                  \
+      if (!(product > PRODUCT_LOW && product < PRODUCT_HIGH)) {            \
+        log_determinant += log(product);                                   \
+        product = 1;                                                       \
+      }                                                                    \
+    } else {                                                               \
+      log_determinant += log(pivot);                                       \
+    }                                                                      \
+  } while (0)
+
+static double not_positive_definite(size_t k, double pivot) {
+  fprintf(stderr, "engine-loglike: not positive definite at point %zu (pivot %g)\n", k, pivot);
+  return NAN;
+}
+
+/*
+ * One 1 x 1 block (R = 1) with the state in local variables, as semiseparableLogLikelihood's advanceOne:
+ * the same operations in the same order as the general loop.
+ */
+static double one_block_recursion(const form_t *form, size_t n, const double *time, const double *noise,
+                                  const double *residual) {
+  const double p0 = form->p[0], q0 = form->q[0];
+  const double variance = 0 + p0 * q0;
+  double s = 0, f = 0, u = 0, phi[4];
+  double quadratic = 0, log_determinant = 0, product = 1, previous_inverse = 0, previous_z = 0;
+  for (size_t k = 0; k < n; k++) {
+    if (k > 0) {
+      double ui = u * previous_inverse;
+      s += ui * u;
+      f += ui * previous_z;
+      compute_transitions(form, time[k] - time[k - 1], phi);
+      double g = phi[0];
+      s = g * (g * s);
+      f *= g;
+    }
+    double sp = s * p0;
+    u = q0 - sp;
+    double pivot = noise[k] + variance - p0 * sp;
+    if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
+    double z = residual[k] - p0 * f;
+    previous_inverse = 1 / pivot;
+    previous_z = z;
+    quadratic += z * z * previous_inverse;
+    FOLD_PIVOT(pivot);
+  }
+  log_determinant += log(product);
+  return -0.5 * (quadratic + log_determinant) - (double)n * HALF_LOG_TWO_PI;
+}
+
+/* One 2 x 2 block (R = 2) with the state in local variables, as advanceTwo. */
+static double two_block_recursion(const form_t *form, size_t n, const double *time, const double *noise,
+                                  const double *residual) {
+  const double p0 = form->p[0], p1 = form->p[1], q0 = form->q[0], q1 = form->q[1];
+  const double variance = 0 + p0 * q0 + p1 * q1;
+  double s00 = 0, s01 = 0, s10 = 0, s11 = 0, f0 = 0, f1 = 0, u0 = 0, u1 = 0, phi[4];
+  double quadratic = 0, log_determinant = 0, product = 1, previous_inverse = 0, previous_z = 0;
+  for (size_t k = 0; k < n; k++) {
+    if (k > 0) {
+      double a0 = u0 * previous_inverse, a1 = u1 * previous_inverse;
+      s00 += a0 * u0;
+      s01 += a0 * u1;
+      s10 += a1 * u0;
+      s11 += a1 * u1;
+      f0 += a0 * previous_z;
+      f1 += a1 * previous_z;
+      compute_transitions(form, time[k] - time[k - 1], phi);
+      double b00 = phi[0], b01 = phi[1], b10 = phi[2], b11 = phi[3];
+      double y00 = b00 * s00 + b01 * s10, y01 = b00 * s01 + b01 * s11;
+      double y10 = b10 * s00 + b11 * s10, y11 = b10 * s01 + b11 * s11;
+      s00 = b00 * y00 + b01 * y01;
+      s01 = b10 * y00 + b11 * y01;
+      s10 = b00 * y10 + b01 * y11;
+      s11 = b10 * y10 + b11 * y11;
+      double g0 = b00 * f0 + b01 * f1;
+      f1 = b10 * f0 + b11 * f1;
+      f0 = g0;
+    }
+    double sp0 = 0 + s00 * p0 + s01 * p1, sp1 = 0 + s10 * p0 + s11 * p1;
+    u0 = q0 - sp0;
+    u1 = q1 - sp1;
+    double p_s_p = 0 + p0 * sp0 + p1 * sp1;
+    double p_f = 0 + p0 * f0 + p1 * f1;
+    double pivot = noise[k] + variance - p_s_p;
+    if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
+    double z = residual[k] - p_f;
+    previous_inverse = 1 / pivot;
+    previous_z = z;
+    quadratic += z * z * previous_inverse;
+    FOLD_PIVOT(pivot);
+  }
+  log_determinant += log(product);
+  return -0.5 * (quadratic + log_determinant) - (double)n * HALF_LOG_TWO_PI;
+}
+
+/* The log-likelihood: the one-block recursions for R = 1 and 2, the general loop otherwise (as the TS engine). */
+static double recursion(const form_t *form, size_t n, const double *time, const double *noise, const double *residual) {
+  if (form->block_count == 1 && form->block_size[0] == 1) return one_block_recursion(form, n, time, noise, residual);
+  if (form->block_count == 1 && form->block_size[0] == 2) return two_block_recursion(form, n, time, noise, residual);
+  return general_recursion(form, n, time, noise, residual);
 }
 
 /* ---------- data and one evaluation ---------- */
