@@ -158,6 +158,14 @@ describe("runBatch", () => {
     expect(found.get("lf-002")).toMatchObject({ status: "failed", reason: "no result within the time limit of 1 s" });
   });
 
+  it("records an object whose fit exhausts the worker's memory as failed, and goes on", async () => {
+    const ids = inventedIds(4);
+    const summary = await runBatch(options("hoard.csv", ids, { memoryLimitMb: 48 }, { hoarding: ["lf-001"] }));
+    expect(summary).toMatchObject({ ok: 3, failed: 1 });
+    const found = byId(await rows(join(folder, "hoard.csv")));
+    expect(String(found.get("lf-001")!.reason)).toMatch(/worker thread stopped during the fit \(.*memory limit/);
+  });
+
   it("writes Parquet that an independent reader (hyparquet) reads back to the same values", async () => {
     const ids = inventedIds(8);
     await runBatch(options("table.parquet", ids, {}, { failing: ["lf-003"] }));

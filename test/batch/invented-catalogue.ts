@@ -5,7 +5,7 @@ import type { LightCurve } from "../../src/lightcurve/light-curve.js";
 /**
  * Invented light curves of the made-up "Lanternfield" survey for the batch tests: object `lf-NNN` has
  * `points` noisy magnitudes around 19 + NNN/100. Sentinel ids get a sentinel first value understood by
- * fixtures/summary-fit.mjs: `failing` ids -999, `crashing` ids -777, `hanging` ids -555.
+ * fixtures/summary-fit.mjs: `failing` ids -999, `crashing` ids -777, `hanging` ids -555, `hoarding` ids -333.
  */
 export function inventedLightCurve(id: string, points: number, firstValue?: number): LightCurve {
   const rng = createRng(`lanternfield/${id}`);
@@ -35,6 +35,8 @@ export interface Sentinels {
   readonly failing?: readonly string[];
   readonly crashing?: readonly string[];
   readonly hanging?: readonly string[];
+  /** Ids whose fit allocates memory without end. */
+  readonly hoarding?: readonly string[];
   /** Ids whose light curve "could not be read" (no light curve, a problem text instead). */
   readonly unreadable?: readonly string[];
 }
@@ -57,7 +59,9 @@ export async function* inventedCatalogue(ids: readonly string[], sentinels: Sent
         ? -777
         : sentinels.hanging?.includes(id)
           ? -555
-          : undefined;
+          : sentinels.hoarding?.includes(id)
+            ? -333
+            : undefined;
     yield { id, lightCurve: inventedLightCurve(id, points, first) };
   }
 }

@@ -29,13 +29,13 @@ describe.skipIf(!wanted)("horologium batch under Slurm", () => {
       if (process.getuid?.() !== 0) throw new Error("Slurm test: must run as root (it starts munged, slurmctld and slurmd)");
       const result = spawnSync("bash", [join(PROJECT_ROOT, "scripts", "slurm-integration.sh")], {
         encoding: "utf8",
-        timeout: 9 * 60_000,
+        timeout: 12 * 60_000,
         killSignal: "SIGTERM", // the script's trap stops the daemons it started
       });
       const output = `${result.stdout}\n${result.stderr}`;
       expect(result.status, output).toBe(0);
       expect(result.stdout).toContain("PASSED: the merged job-array results equal the single-process run");
     },
-    10 * 60_000,
+    13 * 60_000,
   );
 });

@@ -44,6 +44,9 @@ Options:
   --time-col, --value-col, --error-col, --band-col NAME   choose columns (--error-col none: no errors)
   --band NAME             fit this band of multi-band light curves
   --workers N             worker threads (default: the CPUs available, or SLURM_CPUS_PER_TASK)
+  --worker-memory MB      JavaScript heap limit of each worker (typed-array buffers are not
+                          counted); an object whose fit needs more is recorded as failed
+                          (default: Node's own limit, which also stops only that worker)
   --shard K/N             fit only shard K of N (K = 0..N-1), a deterministic share by object id;
                           default from SLURM_ARRAY_TASK_ID and SLURM_ARRAY_TASK_COUNT when set
   --resume                continue an interrupted run (starts afresh if there is none)
@@ -241,6 +244,7 @@ async function fitCatalogue(args: string[], io: CliIo): Promise<number> {
     ...FIT_OPTIONS,
     out: { type: "string" },
     workers: { type: "string" },
+    "worker-memory": { type: "string" },
     shard: { type: "string" },
     resume: { type: "boolean" },
     overwrite: { type: "boolean" },
@@ -293,6 +297,7 @@ async function fitCatalogue(args: string[], io: CliIo): Promise<number> {
       workers,
       fitModule: choice.fitModule,
       timeoutSeconds: choice.timeoutSeconds,
+      memoryLimitMb: positiveInteger(values, "worker-memory"),
       mode: values.resume ? "resume" : values.overwrite ? "overwrite" : "new",
       now: io.now,
       env: io.env,
