@@ -34,3 +34,7 @@ export const uniformCdf: (x: number, a: number, b: number) => number = uniformCd
 export const uniformLogPdf: (x: number, a: number, b: number) => number = uniformLogPdfFunction;
 /** Uniform quantile on [a, b]. */
 export const uniformQuantile: (p: number, a: number, b: number) => number = uniformQuantileFunction;
+
+import gammaCdfFunction from "@stdlib/stats/base/dists/gamma/cdf/lib/index.js";
+/** Gamma CDF with shape alpha and rate beta. */
+export const gammaCdf: (x: number, alpha: number, beta: number) => number = gammaCdfFunction;

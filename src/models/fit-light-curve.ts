@@ -17,6 +17,7 @@ import type { FitOptions } from "./fit-options.js";
 import type { FitResult, ParameterSummary } from "./fit-result.js";
 import { buildModel, modelLikelihood, type LightCurveModel } from "./light-curve-model.js";
 import { findPeriodModes, type PeriodMode } from "./period-modes.js";
+import { robustNoiseWeights, withNoiseWeights, type RobustNoise } from "./robust-noise.js";
 
 /** Everything a fit produces: the result JSON plus the model and draws, for predictions and reports. */
 export interface DetailedFit {
@@ -28,6 +29,9 @@ export interface DetailedFit {
   /** The sampler run of each period mode (one run when the posterior is unimodal). */
   readonly runs: readonly PosteriorSample[];
   readonly modes: readonly PeriodMode[];
+  /** The light curve the posterior is conditioned on (errors inflated by the robust weights, if any). */
+  readonly conditioning: LightCurve;
+  readonly robust?: RobustNoise;
 }
 
 /** Modes carrying less posterior probability than this are reported but not sampled. */
@@ -69,7 +73,13 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     ...(options.jitter ? { jitter: true } : {}),
     ...(periodGuess !== undefined ? { periodGuess } : {}),
   });
-  const likelihood = modelLikelihood(model, lightCurve);
+  let robust: RobustNoise | undefined;
+  let conditioning = lightCurve;
+  if (options.robust) {
+    robust = robustNoiseWeights(model, lightCurve);
+    conditioning = withNoiseWeights(lightCurve, robust.weights);
+  }
+  const likelihood = modelLikelihood(model, conditioning);
   const modes = periodic && periodGuess !== undefined ? findPeriodModes(model, likelihood, model.initialGuess.period) : [];
   const sampled = modes.filter((m) => m.probability >= MODE_THRESHOLD);
   const starts = sampled.length > 0 ? sampled.map((m) => m.parameters) : [model.initialGuess];
@@ -134,19 +144,41 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     parameters,
     derived,
     diagnostics,
-    warnings: fitWarnings({ model, summary, lightCurve, parameters, diagnostics, modes, redshift: options.redshift }),
+    warnings: [
+      ...fitWarnings({ model, summary, lightCurve, parameters, diagnostics, modes, redshift: options.redshift }),
+      ...(robust ? robustWarnings(robust) : []),
+    ],
     options: {
       ...(options.background ? { background: options.background } : {}),
       ...(options.redshift !== undefined ? { redshift: options.redshift } : {}),
       ...(model.fitsJitter ? { jitter: true } : {}),
+      ...(robust ? { robust: true } : {}),
     },
+    ...(robust
+      ? {
+          robust: {
+            noise: `Student-t, ${robust.degreesOfFreedom} degrees of freedom (scale mixture of Gaussians, EM weights)`,
+            degreesOfFreedom: robust.degreesOfFreedom,
+            likelyOutliers: robust.outlierProbability.filter((p) => p > 0.5).length,
+            weights: Array.from(robust.weights),
+            outlierProbability: Array.from(robust.outlierProbability),
+          },
+        }
+      : {}),
     priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, ...p.prior.settings }])),
     maximumPosterior: runs[0].maximum,
     ...(modes.length > 0 ? { periodModes: modes.map((m) => ({ period: m.period, probability: m.probability })) } : {}),
     ...(periodGuess !== undefined ? { periodogramPeriod: periodGuess } : {}),
     posteriorSample: thinnedSample(draws, options.keptDraws ?? 400),
   };
-  return { result, model, summary, draws, runs, modes };
+  return { result, model, summary, draws, runs, modes, conditioning, ...(robust ? { robust } : {}) };
+}
+
+function robustWarnings(robust: RobustNoise): string[] {
+  const likely = robust.outlierProbability.filter((p) => p > 0.5).length;
+  return likely > 0
+    ? [`${likely} points are likely outliers (probability > 0.5 that their scatter exceeds twice their error bar); the Student-t noise down-weights them.`]
+    : [];
 }
 
 function renormalised(weights: number[]): number[] {

@@ -12,6 +12,8 @@ export interface FitOptions {
   readonly jitter?: boolean;
   /** Source redshift: adds the rest-frame timescale tau / (1 + z) to damped-random-walk results. */
   readonly redshift?: number;
+  /** Student-t noise with per-point outlier probabilities instead of Gaussian noise (needs an error column). */
+  readonly robust?: boolean;
   /** "nuts" (default) or "ensemble". */
   readonly sampler?: SamplerKind;
   /** Budget in log-likelihood evaluations (gradients weighted by their cost); default 2e6. */

@@ -1,6 +1,7 @@
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { summarizeLightCurve } from "./data-summary.js";
 import type { FitResult } from "./fit-result.js";
+import { withNoiseWeights } from "./robust-noise.js";
 import { buildModel, MODEL_NAMES, type LightCurveModel, type ModelName } from "./light-curve-model.js";
 
 /**
@@ -15,4 +16,14 @@ export function modelFromResult(result: FitResult, lightCurve: LightCurve): Ligh
     ...(options.background ? { background: options.background } : {}),
     ...(options.jitter ? { jitter: true } : {}),
   });
+}
+
+/**
+ * The light curve a result's posterior was conditioned on: with robust noise, the errors inflated by the
+ * stored weights (error / sqrt(weight)); otherwise the light curve itself.
+ */
+export function conditioningLightCurve(result: FitResult, lightCurve: LightCurve): LightCurve {
+  const robust = result.robust as { weights?: number[] } | undefined;
+  if (!robust?.weights) return lightCurve;
+  return withNoiseWeights(lightCurve, robust.weights);
 }

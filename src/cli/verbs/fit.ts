@@ -1,5 +1,6 @@
 import { resolve } from "node:path";
 import type { LightCurve } from "../../lightcurve/light-curve.js";
+import { InputError } from "../../lightcurve/input-error.js";
 import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
 import type { FitOptions } from "../../models/fit-options.js";
 import type { FitResult } from "../../models/fit-result.js";
@@ -27,6 +28,8 @@ Options:
   --report DIR            also write an HTML report with figures to DIR
   --redshift Z            report the rest-frame timescale tau / (1 + Z) (drw)
   --jitter                fit a white-noise term even when there is an error column
+  --robust                Student-t noise: down-weights outliers and reports each point's outlier
+                          probability (needs an error column)
   --sampler nuts|ensemble the sampler (default nuts)
   --max-evaluations N     budget in log-likelihood evaluations (default 2e6)
   --quiet                 no progress bar, no summary on stderr
@@ -45,6 +48,7 @@ const OPTIONS = {
   report: { type: "string" },
   redshift: { type: "string" },
   jitter: { type: "boolean" },
+  robust: { type: "boolean" },
   sampler: { type: "string" },
   "max-evaluations": { type: "string" },
   quiet: { type: "boolean" },
@@ -70,6 +74,7 @@ export function fitOptionsFrom(values: VerbArguments["values"], required = true)
     seed: seedOption(values),
     ...(background ? { background: "drw" as const } : {}),
     ...(values.jitter ? { jitter: true } : {}),
+    ...(values.robust ? { robust: true } : {}),
     ...(redshift !== undefined ? { redshift } : {}),
     ...(sampler ? { sampler: sampler as "nuts" | "ensemble" } : {}),
     ...(maxEvaluations !== undefined ? { maxEvaluations } : {}),
@@ -112,11 +117,15 @@ export const verb: CliVerb = {
     const options = fitOptionsFrom(values) as FitOptions;
     const quiet = values.quiet === true;
     const lightCurves = await readInput(file, values, io, quiet);
+    if (options.robust) {
+      const without = lightCurves.find((lc) => !lc.error);
+      if (without) throw new InputError("--robust needs an error column (the Student-t noise scales each point's error)", { file });
+    }
     const reportDir = textOption(values, "report");
     const results = await fitAll(lightCurves, options, io, quiet, async (lightCurve, fit) => {
       if (!reportDir) return;
       const dir = resolve(io.cwd, reportDir, lightCurves.length > 1 ? `band-${lightCurve.band}` : ".");
-      const written = await writeReport(reportInputFromFit(lightCurve, fit.result, fit.model), dir);
+      const written = await writeReport(reportInputFromFit(fit.conditioning, fit.result, fit.model), dir);
       if (!quiet) io.stderr(`report: ${written.html}\n`);
     });
     const json = JSON.stringify(results.length === 1 ? results[0] : results, null, 2) + "\n";

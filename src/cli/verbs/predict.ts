@@ -2,7 +2,7 @@ import type { LightCurve } from "../../lightcurve/light-curve.js";
 import { InputError } from "../../lightcurve/input-error.js";
 import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
 import type { FitOptions } from "../../models/fit-options.js";
-import { modelFromResult } from "../../models/model-from-result.js";
+import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
 import { posteriorPredictive } from "../../models/posterior-predictive.js";
 import { storedPosteriorSample } from "../../models/posterior-sample.js";
 import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
@@ -29,7 +29,7 @@ Options:
   --grid START:STOP:STEP  requested times on a regular grid
   --draws N               posterior draws in the mixture (default 200)
   --out FILE              write the CSV here (default: standard output)
-  --background drw, --seed N, --sampler, --max-evaluations, --redshift, --jitter   as for fit
+  --background drw, --seed N, --sampler, --max-evaluations, --jitter, --robust   as for fit
   --quiet                 no progress bar, no summary on stderr
 ${COLUMN_HELP}
 
@@ -51,6 +51,7 @@ const OPTIONS = {
   "max-evaluations": { type: "string" },
   redshift: { type: "string" },
   jitter: { type: "boolean" },
+  robust: { type: "boolean" },
   quiet: { type: "boolean" },
 } as const;
 
@@ -81,7 +82,7 @@ export const verb: CliVerb = {
     const lightCurves = await readInput(file, values, io, quiet);
     if (lightCurves.length > 1)
       throw new InputError(`the file has ${lightCurves.length} bands (${lightCurves.map((l) => l.band).join(", ")}); choose one with --band`, { file });
-    const lightCurve: LightCurve = lightCurves[0];
+    let lightCurve: LightCurve = lightCurves[0];
     const from = textOption(values, "from");
     let model;
     let rows: readonly (readonly number[])[];
@@ -92,6 +93,7 @@ export const verb: CliVerb = {
         throw new UsageError(`--model ${requested} does not match the model of ${from} (${result.model})`);
       try {
         model = modelFromResult(result, lightCurve);
+        lightCurve = conditioningLightCurve(result, lightCurve);
         rows = storedPosteriorSample(result, model.space.names).rows;
       } catch (error) {
         if (error instanceof RangeError) throw new InputError(error.message, { file: from });
@@ -99,6 +101,8 @@ export const verb: CliVerb = {
       }
     } else {
       const options = fitOptionsFrom(values) as FitOptions;
+      if (options.robust && !lightCurve.error)
+        throw new InputError("--robust needs an error column (the Student-t noise scales each point's error)", { file });
       const bar = samplerProgressBar(io, quiet, "fitting");
       let fit;
       try {
@@ -108,6 +112,7 @@ export const verb: CliVerb = {
       }
       if (!quiet) io.stderr(fitSummaryText(fit.result));
       model = fit.model;
+      lightCurve = fit.conditioning;
       rows = (fit.result.posteriorSample as { rows: number[][] }).rows;
     }
     const used = Array.from({ length: Math.min(drawCount, rows.length) }, (_, k) => rows[Math.floor((k * rows.length) / Math.min(drawCount, rows.length))]);

@@ -1,6 +1,6 @@
 import { InputError } from "../../lightcurve/input-error.js";
 import { readLightCurves } from "../../lightcurve/read-light-curves.js";
-import { modelFromResult } from "../../models/model-from-result.js";
+import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { writeReport } from "../../report/write-report.js";
 import { resolve } from "node:path";
@@ -59,7 +59,7 @@ export const verb: CliVerb = {
       throw new InputError(`the light curve has ${lightCurve.time.length} points, the result was fitted to ${result.data.n}: not the same data`, { file: dataPath });
     let input;
     try {
-      input = reportInputFromFit(lightCurve, result, modelFromResult(result, lightCurve));
+      input = reportInputFromFit(conditioningLightCurve(result, lightCurve), result, modelFromResult(result, lightCurve));
     } catch (error) {
       if (error instanceof RangeError) throw new InputError(error.message, { file: resultPath });
       throw error;
