@@ -59,7 +59,7 @@ export function notebookPage(input: NotebookPageInput): string {
   const body = input.cells
     .map((cell) => {
       if (cell.kind === "markdown") return `<section class="prose">${renderMarkdown(cell.text)}</section>`;
-      const outputs = input.outputs.get(cell.index) ?? [];
+      const outputs = mergeText(input.outputs.get(cell.index) ?? []);
       const seconds = input.cellSeconds.get(cell.index);
       const timing = seconds === undefined ? "" : `<span class="time">${seconds < 0.1 ? "&lt;0.1" : seconds.toFixed(1)} s</span>`;
       return (
@@ -88,6 +88,17 @@ ${body}
 </body>
 </html>
 `;
+}
+
+/** Consecutive printed lines of a cell share one box. */
+function mergeText(outputs: readonly CellOutput[]): CellOutput[] {
+  const merged: CellOutput[] = [];
+  for (const output of outputs) {
+    const last = merged[merged.length - 1];
+    if (output.kind === "text" && last?.kind === "text") merged[merged.length - 1] = { kind: "text", text: `${last.text}\n${output.text}` };
+    else merged.push(output);
+  }
+  return merged;
 }
 
 function tableHtml(rows: readonly Readonly<Record<string, string | number | boolean>>[], caption: string): string {

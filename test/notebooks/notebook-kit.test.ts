@@ -75,4 +75,16 @@ describe("notebook page", () => {
     expect(html.indexOf("console.log(a);")).toBeLessThan(html.indexOf("1 &lt;b&gt;"));
     expect(html).toContain("Content-Security-Policy");
   });
+
+  it("joins consecutive printed lines of a cell into one box", () => {
+    const html = notebookPage({
+      name: "a",
+      cells: notebookCells(SOURCE),
+      outputs: new Map([[0, [{ kind: "text", text: "one" }, { kind: "text", text: "two" }]]]),
+      cellSeconds: new Map(),
+      figures: new Map(),
+      seconds: 1,
+    });
+    expect(html).toContain('<pre class="out">one\ntwo</pre>');
+  });
 });
