@@ -108,10 +108,32 @@ export function runIdentity(options: BatchRunOptions): RunIdentity {
  * reason, and the run goes on.
  */
 export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> {
-  const journalPath = journalPathFor(options.out);
   if (options.mode === "new" && existsSync(options.out)) {
     throw new UsageError(`${options.out} exists: pass --resume to continue its run, or --overwrite to replace it`);
   }
+  // Count the work first: a catalogue that cannot be read then fails before any file is written.
+  let inShard: number | undefined;
+  if (options.listIds) {
+    inShard = 0;
+    for await (const id of options.listIds()) if (isInShard(id, options.shard)) inShard += 1;
+  }
+  // Load the fit module in every worker before touching the results, so that a fit module that
+  // cannot be used leaves nothing behind either.
+  const pool = await FitPool.start({
+    workers: options.workers,
+    fitModule: options.fitModule,
+    timeoutSeconds: options.timeoutSeconds,
+    memoryLimitMb: options.memoryLimitMb,
+  });
+  try {
+    return await fitWithPool(options, pool, inShard);
+  } finally {
+    await pool.close();
+  }
+}
+
+async function fitWithPool(options: BatchRunOptions, pool: FitPool, inShard: number | undefined): Promise<BatchSummary> {
+  const journalPath = journalPathFor(options.out);
   const lock = acquireRunLock(options.out, options.env);
   try {
     const { journal, contents } = await ResultsJournal.open(journalPath, runIdentity(options), options.mode);
@@ -127,11 +149,7 @@ export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> 
       }
 
       const done = contents.ids;
-      let toDo: number | undefined;
-      if (options.listIds) {
-        toDo = 0;
-        for await (const id of options.listIds()) if (isInShard(id, options.shard) && !done.has(id)) toDo += 1;
-      }
+      const toDo = inShard === undefined ? undefined : Math.max(0, inShard - done.size);
 
       const seen = new Set<string>();
       const failureExamples: { id: string; reason: string }[] = [];
@@ -168,12 +186,6 @@ export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> 
       };
 
       options.onProgress?.(progress());
-      const pool = await FitPool.start({
-        workers: options.workers,
-        fitModule: options.fitModule,
-        timeoutSeconds: options.timeoutSeconds,
-        memoryLimitMb: options.memoryLimitMb,
-      });
       try {
         const inFlight = new Set<Promise<void>>();
         let fatal: Error | undefined;

@@ -1,5 +1,5 @@
 import { execFileSync, spawnSync } from "node:child_process";
-import { mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
@@ -70,12 +70,17 @@ describe("horologium batch", () => {
       [["batch", "lanternfield/lf-000.csv", "--model", "drw", "--out", "x.csv"], /is a file: name its object-id column with --id-col/],
       [["batch", "lanternfield", ...fitArgs.slice(0, 4), "--fit-module", "missing.mjs", "--out", "x.csv"], /cannot load the fit module/],
     ];
+    writeFileSync(join(folder, "tiny-table.csv"), "objid,mjd,mag,mag_err\nlf-1,1,19,0.1\n");
+    cases.push([["batch", "tiny-table.csv", "--id-col", "nope", "--model", "drw", "--out", "x.csv"], /tiny-table\.csv: no object-id column "nope"/]);
     for (const [args, message] of cases) {
       const { code, stderr } = await cli(args);
       expect(code, args.join(" ")).toBe(2);
-      expect(stderr).toMatch(message);
+      expect(stderr, stderr).toMatch(message);
       expect(stderr.trim().split("\n")).toHaveLength(1);
     }
+    // Nothing was written by the refused runs.
+    expect(existsSync(join(folder, "x.csv"))).toBe(false);
+    expect(existsSync(join(folder, "x.csv.journal.jsonl"))).toBe(false);
   });
 
   it("fits a folder, recording unreadable and failing objects with their reasons", async () => {
