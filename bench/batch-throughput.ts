@@ -9,7 +9,10 @@
  * Each configuration runs in a fresh child process, so that its peak memory is its own.
  *
  *   npm run build && node dist/bench/batch-throughput.js [--objects 1000] [--workers 1,2]
- *                    [--fit-module FILE] [--skip-flatness]
+ *                    [--max-evaluations N] [--fit-module FILE] [--skip-flatness]
+ *
+ * --max-evaluations caps each fit's sampling budget (fits that run out are counted as not converged):
+ * a way to measure the batch machinery's scaling in minutes when converged fits take minutes each.
  *
  * Prints figures; it is not a test. On a shared machine the rates vary with the other load.
  */
@@ -40,7 +43,13 @@ const SELF = fileURLToPath(import.meta.url);
 const STAND_IN_FIT = fileURLToPath(new URL("../../test/batch/fixtures/summary-fit.mjs", import.meta.url));
 
 /** Child mode: one batch run, then its measurement as JSON on stdout. */
-async function measure(catalogue: string, out: string, workers: number, fitModule: string | undefined): Promise<Measurement> {
+async function measure(
+  catalogue: string,
+  out: string,
+  workers: number,
+  fitModule: string | undefined,
+  maxEvaluations: number | undefined,
+): Promise<Measurement> {
   const input = await openCatalogue(catalogue, { idColumn: "object_id" });
   const started = performance.now();
   const summary = await runBatch({
@@ -50,6 +59,7 @@ async function measure(catalogue: string, out: string, workers: number, fitModul
     format: "csv",
     model: "drw",
     seed: 1,
+    fitOptions: maxEvaluations === undefined ? {} : { maxEvaluations },
     shard: { index: 0, count: 1 },
     workers,
     fitModule: fitModule === undefined ? undefined : pathToFileURL(fitModule).href,
@@ -76,9 +86,16 @@ async function measure(catalogue: string, out: string, workers: number, fitModul
   };
 }
 
-function runChild(catalogue: string, out: string, workers: number, fitModule: string | undefined): Measurement {
+function runChild(
+  catalogue: string,
+  out: string,
+  workers: number,
+  fitModule: string | undefined,
+  maxEvaluations?: number,
+): Measurement {
   const args = [SELF, "--child", "--catalogue", catalogue, "--out", out, "--workers", String(workers)];
   if (fitModule) args.push("--fit-module", fitModule);
+  if (maxEvaluations !== undefined) args.push("--max-evaluations", String(maxEvaluations));
   const result = spawnSync(process.execPath, args, { encoding: "utf8", stdio: ["ignore", "pipe", "inherit"], maxBuffer: 1 << 20 });
   if (result.status !== 0) throw new Error(`the ${workers}-worker run failed (exit ${result.status})`);
   return JSON.parse(result.stdout.trim().split("\n").at(-1)!) as Measurement;
@@ -104,11 +121,13 @@ async function main(): Promise<void> {
       objects: { type: "string", default: "1000" },
       workers: { type: "string", default: "1,2" },
       "fit-module": { type: "string" },
+      "max-evaluations": { type: "string" },
       "skip-flatness": { type: "boolean" },
     },
   });
+  const maxEvaluations = values["max-evaluations"] === undefined ? undefined : Number(values["max-evaluations"]);
   if (values.child) {
-    const m = await measure(values.catalogue!, values.out!, Number(values.workers), values["fit-module"]);
+    const m = await measure(values.catalogue!, values.out!, Number(values.workers), values["fit-module"], maxEvaluations);
     process.stdout.write(JSON.stringify(m) + "\n");
     return;
   }
@@ -118,12 +137,13 @@ async function main(): Promise<void> {
   try {
     const catalogue = join(folder, "lanternfield-quasars.csv");
     const rows = await writeQuasarCatalogue(catalogue, { objects, seed: 1000 });
-    const fit = values["fit-module"] ? `fit module ${values["fit-module"]}` : "Horologium's DRW fit";
+    const budget = maxEvaluations === undefined ? "default budget, to convergence" : `budget ${maxEvaluations} evaluations`;
+    const fit = values["fit-module"] ? `fit module ${values["fit-module"]}` : `Horologium's DRW fit (${budget})`;
     console.log(`batch throughput: ${objects} simulated quasars (${(rows / objects).toFixed(0)} points on average), ${fit}`);
     console.log(HEADER);
     const measured: Measurement[] = [];
     for (const workers of workerCounts) {
-      const m = runChild(catalogue, join(folder, `results-${workers}.csv`), workers, values["fit-module"]);
+      const m = runChild(catalogue, join(folder, `results-${workers}.csv`), workers, values["fit-module"], maxEvaluations);
       measured.push(m);
       console.log(describe(m));
     }
