@@ -101,8 +101,9 @@ export function runIdentity(options: BatchRunOptions): RunIdentity {
  * few light curves whatever the size of the catalogue (plus the set of ids, for resuming and for
  * duplicate checks). Each result row is appended to the journal as soon as it arrives (and flushed to
  * storage in the background); a CSV table is appended to alongside, a Parquet table is written from
- * the journal at the end (both atomically rebuilt from the journal whenever needed). With mode "resume" the objects already
- * recorded are skipped, so a run killed at any moment is finished by running it again with `--resume`.
+ * the journal at the end (both atomically rebuilt from the journal whenever needed). With mode
+ * "resume" the objects already recorded are skipped, so a run killed at any moment is finished by
+ * running it again with `--resume`.
  * Each object is fitted with its own seed, {@link objectSeed}, so results do not depend on order,
  * shard or worker count. An object that cannot be read or fitted is recorded as "failed" with the
  * reason, and the run goes on.
