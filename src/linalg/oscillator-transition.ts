@@ -111,13 +111,15 @@ export function dampedHyperbolicPair(c: number, lambda: number, w0: number, dt: 
     let cTerm = 1;
     let sTerm = 1;
     let dsTerm = 1 / 6;
+    // |x| < 1: the terms fall at least factorially; stop once they no longer change the sums.
     for (let k = 1; k < 12; k++) {
       cTerm *= x / ((2 * k - 1) * (2 * k));
       sTerm *= x / ((2 * k) * (2 * k + 1));
       dsTerm *= x / ((2 * k + 2) * (2 * k + 3));
       cSum += cTerm;
       sSum += sTerm;
-      dsSum += ((k + 1) * dsTerm);
+      dsSum += (k + 1) * dsTerm;
+      if (Math.abs(cTerm) < 1e-17 && Math.abs(dsTerm) < 1e-18) break;
     }
     const e = Math.exp(-c * dt);
     const s = dt * sSum;
