@@ -164,7 +164,7 @@ figure({
     height: 340,
     layer: [
       { data: { values: drawRows }, mark: { type: "circle", size: 9, opacity: 0.35, color: COLORS.model }, encoding: {
-        x: { field: "tau", type: "quantitative", title: "Damping timescale τ, observed frame [d]", scale: { type: "log" } },
+        x: { field: "tau", type: "quantitative", title: "Damping timescale τ, observed frame [d]", scale: { type: "log", domain: [Math.min(truth.tau, quantile(tauDraws, 0)) / 1.3, Math.max(truth.tau, quantile(tauDraws, 1)) * 1.3], nice: false } },
         y: { field: "sigma", type: "quantitative", title: "Amplitude σ [mag]", scale: { zero: false } },
       } },
       { data: { values: [{ tau: baseline / 10 }] }, mark: { type: "rule", strokeDash: [5, 4], color: COLORS.marker }, encoding: { x: { field: "tau", type: "quantitative" } } },

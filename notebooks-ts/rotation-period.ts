@@ -1,9 +1,9 @@
 /* md
 # A rotation period: the periodogram against the Gaussian-process posterior
 
-Starspots rotate in and out of view, so a spotted star brightens and fades with its rotation period. But
-spots are born, drift and decay within weeks, so the signal is only *quasi*-periodic: its phase and
-amplitude wander. And a star with spot groups on opposite hemispheres dims twice per rotation, so half
+Dark spots on a star's surface rotate in and out of view, so a spotted star brightens and fades with its
+rotation period. But spots are born, drift and decay within weeks, so the signal is only *quasi*-periodic:
+its phase and amplitude wander. And a star with spot groups on opposite hemispheres dims twice per rotation, so half
 the period is as visible as the period itself. This notebook measures the rotation period of an invented
 K dwarf of the Lanternfield Deep Survey, **LDS V-1187**, in two ways:
 
