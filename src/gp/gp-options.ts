@@ -40,14 +40,14 @@ export interface ConditionedInputs {
 export function conditionInputs(time: ArrayLike<number>, options: GaussianProcessOptions): ConditionedInputs {
   const n = time.length;
   if (n < 1) throw new RangeError("GaussianProcess: at least one time is required");
-  const t = Float64Array.from(time);
+  const t = copyToFloat64(time);
   for (let i = 0; i < n; i++) {
     if (!Number.isFinite(t[i])) throw new RangeError(`GaussianProcess: time[${i}] is not finite (${t[i]})`);
     if (i > 0 && t[i] < t[i - 1])
       throw new RangeError(`GaussianProcess: times must be sorted ascending (time[${i}] = ${t[i]} < time[${i - 1}] = ${t[i - 1]})`);
   }
   const yerrInput = options.yerr ?? 0;
-  const yerr = typeof yerrInput === "number" ? new Float64Array(n).fill(yerrInput) : Float64Array.from(yerrInput);
+  const yerr = typeof yerrInput === "number" ? new Float64Array(n).fill(yerrInput) : copyToFloat64(yerrInput);
   if (yerr.length !== n) throw new RangeError(`GaussianProcess: yerr has ${yerr.length} values for ${n} times`);
   for (let i = 0; i < n; i++)
     if (!Number.isFinite(yerr[i]) || yerr[i] < 0)
@@ -81,4 +81,9 @@ export function sortTargets(targets: ArrayLike<number>): { sorted: Float64Array;
   order.sort((a, b) => targets[a] - targets[b]);
   const sorted = Float64Array.from(order, (i) => targets[i]);
   return { sorted, order };
+}
+
+/** A Float64Array copy; typed arrays are copied in bulk rather than through the iterator protocol. */
+function copyToFloat64(values: ArrayLike<number>): Float64Array {
+  return values instanceof Float64Array ? values.slice() : Float64Array.from(values);
 }

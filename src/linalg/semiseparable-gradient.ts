@@ -41,6 +41,8 @@ export function semiseparableLogLikelihoodGradient(
 
   // ---- forward pass, keeping the states ----
   const states = new Float64Array(n * rr); // S_n
+  const phiLength = layout.phi.length;
+  const transitions = new Float64Array(n * phiLength); // Phi_n, kept for the backward pass
   const means = new Float64Array(n * r); // f_n
   const gains = new Float64Array(n * r); // u_n = q - S_n p
   const pivots = new Float64Array(n); // D_n
@@ -59,6 +61,7 @@ export function semiseparableLogLikelihoodGradient(
         f[i] += ui * zPrev;
       }
       layout.computeTransitions(time[k] - time[k - 1]);
+      transitions.set(layout.phi, k * phiLength);
       layout.applyCongruence(s, 0);
       layout.applyToVector(f, 0);
     }
@@ -150,7 +153,7 @@ export function semiseparableLogLikelihoodGradient(
       g[i] = means[prevU + i] + ui * prevZ;
     }
     const dt = time[k] - time[k - 1];
-    layout.computeTransitions(dt);
+    layout.phi.set(transitions.subarray(k * phiLength, (k + 1) * phiLength));
     // phiA = Phi A (left product, column by column).
     phiA.set(a);
     for (let j = 0; j < r; j++) applyColumn(layout, phiA, j, r);
