@@ -16,6 +16,13 @@ export interface NutsSamplerOptions {
   readonly maxTreeDepth?: number;
   /** Step size to start from; by default found by the heuristic of Hoffman & Gelman 2014, algorithm 4. */
   readonly initialStepSize?: number;
+  /**
+   * Diagonal of the inverse mass matrix before the first adaptation window (default all ones), for
+   * example the squared scales of a Laplace approximation at the mode. Parameters whose scales differ
+   * by orders of magnitude otherwise force tiny steps and 2^maxTreeDepth-step trajectories until the
+   * first window ends.
+   */
+  readonly initialInverseMass?: Float64Array;
 }
 
 interface ChainState {
@@ -99,7 +106,10 @@ export function createNutsSampler(
     if (!Number.isFinite(logDensity)) throw new RangeError(`NUTS: log density of chain ${c} at its start is ${logDensity}`);
     const rng = createRng(childSeed(seed, c));
     const point: PhasePoint = { q, p: new Float64Array(d), gradient, logDensity };
-    const inverseMass = new Float64Array(d).fill(1);
+    const inverseMass = options.initialInverseMass ? Float64Array.from(options.initialInverseMass) : new Float64Array(d).fill(1);
+    if (inverseMass.length !== d || !inverseMass.every((v) => v > 0 && Number.isFinite(v))) {
+      throw new RangeError(`NUTS: the initial inverse mass needs ${d} positive finite entries`);
+    }
     const stepSize = options.initialStepSize ?? initialStepSize(target, point, inverseMass, rng);
     return {
       rng,
@@ -142,7 +152,7 @@ export function createNutsSampler(
           if (window >= 0) {
             chain.variance.add(chain.point.q);
             if (iterations === plan.windowEnds[window]! - 1) {
-              chain.inverseMass = chain.variance.regularizedVariance();
+              chain.inverseMass = chain.variance.regularizedVariance(chain.inverseMass);
               chain.variance.reset();
               chain.stepSize = initialStepSize(target, chain.point, chain.inverseMass, chain.rng, chain.stepSize);
               chain.adaptation.restart(chain.stepSize);

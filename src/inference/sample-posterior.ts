@@ -96,7 +96,7 @@ function cloudAround(
  * Samples the posterior of a model: finds the maximum a posteriori from several starts (L-BFGS with the
  * likelihood's gradient, or Nelder-Mead without), moves from it to the mode of the unconstrained density
  * the samplers see, starts NUTS chains (spread by the curvature at that mode) or ensemble walkers (a
- * tight ball, a tenth of that) around it, and runs the sampler until the
+ * tight ball, a tenth of that) around it, NUTS with those scales squared as its first inverse mass matrix, and runs the sampler until the
  * convergence criteria hold or the budget is spent ({@link runSampler}). Returns summaries in
  * physical units and the run.
  *
@@ -139,6 +139,7 @@ export function samplePosterior(
       ...(options.warmup !== undefined ? { warmup: options.warmup } : {}),
       ...(options.targetAcceptance !== undefined ? { targetAcceptance: options.targetAcceptance } : {}),
       ...(options.maxTreeDepth !== undefined ? { maxTreeDepth: options.maxTreeDepth } : {}),
+      initialInverseMass: Float64Array.from(scales, (s) => s * s),
     });
   } else {
     const initial = cloudAround(target, mode, scales, 0.1, options.walkers ?? defaultWalkerCount(space.dimension), startRng);

@@ -70,12 +70,14 @@ export class RunningVariance {
   }
 
   /**
-   * Sample variances (divisor n - 1) shrunk towards 1e-3: (n / (n + 5)) var + 1e-3 (5 / (n + 5)),
-   * which keeps a short window from producing a near-singular mass matrix (common practice).
+   * Sample variances (divisor n - 1) shrunk towards `target`: (n / (n + 5)) var + (5 / (n + 5)) target,
+   * which keeps a short window from producing a near-singular mass matrix. Common practice shrinks
+   * towards the constant 1e-3, which presumes parameters of order one; shrinking towards the previous
+   * mass matrix (or a Laplace approximation) keeps the regularisation on each parameter's own scale.
    */
-  regularizedVariance(): Float64Array {
+  regularizedVariance(target: Float64Array): Float64Array {
     const n = this.n;
-    return Float64Array.from(this.m2, (m2) => (n / (n + 5)) * (m2 / (n - 1)) + 1e-3 * (5 / (n + 5)));
+    return Float64Array.from(this.m2, (m2, i) => (n / (n + 5)) * (m2 / (n - 1)) + (5 / (n + 5)) * target[i]!);
   }
 
   /** Forgets every vector added, for the next adaptation window. */

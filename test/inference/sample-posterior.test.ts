@@ -1,10 +1,10 @@
-import { describe, expect, it } from "vitest";
+import { beforeAll, describe, expect, it } from "vitest";
 import normalQuantile from "@stdlib/stats/base/dists/normal/quantile";
 import { createRng } from "../../src/random/rng.js";
 import { createParameterSpace } from "../../src/inference/parameter-space.js";
 import { posteriorDraws, posteriorDrawsToCsv } from "../../src/inference/posterior-draws.js";
 import { logUniformPrior, normalPrior } from "../../src/inference/priors.js";
-import { samplePosterior } from "../../src/inference/sample-posterior.js";
+import { samplePosterior, type PosteriorSample } from "../../src/inference/sample-posterior.js";
 import type { PhysicalLikelihood } from "../../src/inference/posterior-density.js";
 
 // Normal data with known sigma and a normal prior on the mean: the posterior of the mean is
@@ -37,7 +37,10 @@ const likelihood: PhysicalLikelihood = {
 };
 
 describe.each(["nuts", "ensemble"] as const)("samplePosterior with %s", (sampler) => {
-  const fit = samplePosterior(space, likelihood, { seed: 9, sampler, maxEvaluations: 2e6 });
+  let fit: PosteriorSample;
+  beforeAll(() => {
+    fit = samplePosterior(space, likelihood, { seed: 9, sampler, maxEvaluations: 2e6 });
+  });
 
   it("converges and says so", () => {
     expect(fit.stopReason).toBe("converged");

@@ -58,13 +58,13 @@ export function correlatedGaussian(): KnownTarget {
 }
 
 /**
- * A banana: x1 ~ N(0, 3^2), x2 | x1 ~ N(b (x1^2 - 9), 1) with b = 0.25, the twisted Gaussian of Haario,
+ * A banana: x1 ~ N(0, 3^2), x2 | x1 ~ N(b (x1^2 - 9), 1) with b = 0.15 by default, the twisted Gaussian of Haario,
  * Saksman & Tamminen 1999 (Comput. Stat. 14, 375) with variance 9 in x1. The x1 marginal is normal; the
  * x2 marginal is F(q) = integral N(x1; 0, 3) Phi(q - b (x1^2 - 9)) dx1, by Simpson's rule with stdlib's
  * normal pdf and cdf.
  */
-export function banana(): KnownTarget {
-  const b = 0.25;
+export function banana(b = 0.15): KnownTarget {
+
   const shift = (x1: number): number => b * (x1 * x1 - 9);
   const logDensityAndGradient = (x: Float64Array, g: Float64Array): number => {
     const r = x[1]! - shift(x[0]!);
