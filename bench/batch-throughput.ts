@@ -105,7 +105,7 @@ function describe(m: Measurement): string {
   const rate = m.objects / m.seconds;
   return (
     `  ${String(m.workers).padStart(7)}  ${String(m.objects).padStart(7)}  ${m.seconds.toFixed(1).padStart(8)}` +
-    `  ${rate.toFixed(2).padStart(8)}  ${`${m.converged}/${m.ok}`.padStart(9)}  ${String(m.failed).padStart(6)}` +
+    `  ${rate.toPrecision(3).padStart(8)}  ${`${m.converged}/${m.ok}`.padStart(9)}  ${String(m.failed).padStart(6)}` +
     `  ${m.peakRssMb.toFixed(0).padStart(8)}`
   );
 }
