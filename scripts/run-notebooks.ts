@@ -7,15 +7,15 @@
  *   --jobs   notebooks run at once, each in its own process (default: 2, or 1 on a single core)
  *   --out    output folder (default out/notebooks)
  *
- * Each notebook runs in a fresh Node process (with the tsx loader) from an instrumented copy written
- * beside it (notebooks-ts/.run-NAME.ts, removed afterwards), so relative imports resolve as in the
- * source. The exit status is non-zero when any notebook fails; its error output is printed.
+ * Each notebook runs in a fresh Node process (with the tsx loader) from an instrumented copy written to
+ * OUT/.build/NAME.mts (removed afterwards), its relative imports rewritten to absolute file URLs; error
+ * output names the notebook's own file. The exit status is non-zero when any notebook fails.
  */
 import { spawn } from "node:child_process";
 import { readdir, readFile, rm, writeFile, mkdir } from "node:fs/promises";
 import { availableParallelism } from "node:os";
 import { dirname, join, resolve } from "node:path";
-import { fileURLToPath } from "node:url";
+import { fileURLToPath, pathToFileURL } from "node:url";
 import { instrumentNotebook, notebookCells } from "../notebooks-ts/kit/notebook-cells.js";
 import { escapeHtml, renderInline } from "../notebooks-ts/kit/markdown.js";
 import { notebookTitle } from "../notebooks-ts/kit/notebook-page.js";
@@ -75,8 +75,12 @@ async function runOne(name: string, out: string): Promise<Outcome> {
   const sourcePath = join(notebookDir, `${name}.ts`);
   const source = await readFile(sourcePath, "utf8");
   const title = notebookTitle(notebookCells(source), name);
-  const runPath = join(notebookDir, `.run-${name}.ts`);
-  await writeFile(runPath, instrumentNotebook(source, "./kit/notebook-output.js", sourcePath, out), "utf8");
+  const buildDir = join(out, ".build");
+  await mkdir(buildDir, { recursive: true });
+  // .mts: an ES module wherever --out points, even outside this package (whose package.json says "module").
+  const runPath = join(buildDir, `${name}.mts`);
+  const fromNotebook = (specifier: string) => pathToFileURL(resolve(notebookDir, specifier)).href;
+  await writeFile(runPath, instrumentNotebook(source, fromNotebook("./kit/notebook-output.js"), sourcePath, out, fromNotebook), "utf8");
   const started = performance.now();
   process.stderr.write(`${name}: running\n`);
   try {

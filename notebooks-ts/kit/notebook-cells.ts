@@ -69,20 +69,35 @@ export function notebookCells(source: string): NotebookCell[] {
 /**
  * The executable form of a notebook: its source with a `beginCell(k)` call placed on the line before
  * each code cell and a final `finishNotebook(...)` call, so that outputs land under the right cell.
- * Line numbers are preserved apart from one import line at the top, so stack traces stay readable.
+ * Relative module specifiers (`"./..."`, `"../..."`) are passed through `resolveSpecifier`, so that the
+ * executable copy can live outside the notebooks folder (the runner writes it under `out/`).
+ * Every line keeps its number, so stack traces point into the source.
  */
-export function instrumentNotebook(source: string, kitModule: string, sourcePath: string, outDir: string): string {
+export function instrumentNotebook(
+  source: string,
+  kitModule: string,
+  sourcePath: string,
+  outDir: string,
+  resolveSpecifier: (specifier: string) => string = (specifier) => specifier,
+): string {
   const lines = source.replace(/\r\n?/g, "\n").split("\n");
   const cells = notebookCells(source);
   const inserted = new Map<number, string>();
   for (const cell of cells) if (cell.kind === "code") inserted.set(cell.firstLine, `__beginCell(${cell.index}); `);
-  const body = lines.map((line, i) => (inserted.get(i) ?? "") + line);
-  return [
-    `import { beginCell as __beginCell, finishNotebook as __finishNotebook } from ${JSON.stringify(kitModule)};`,
-    ...body,
-    `await __finishNotebook(${JSON.stringify(sourcePath)}, ${JSON.stringify(outDir)});`,
-    "",
-  ].join("\n");
+  const prose = new Set<number>();
+  for (let i = 0, inProse = false; i < lines.length; i++) {
+    if (!inProse && PROSE_OPEN.test(lines[i]!)) inProse = true;
+    if (inProse) prose.add(i);
+    if (inProse && i > 0 && PROSE_CLOSE.test(lines[i]!)) inProse = false;
+  }
+  const relative = /(\bfrom\s*|\bimport\s*\(?\s*)(["'])(\.{1,2}\/[^"']+)\2/g;
+  const body = lines.map((line, i) => {
+    const code = prose.has(i) ? line : line.replace(relative, (_, head: string, quote: string, specifier: string) => `${head}${quote}${resolveSpecifier(specifier)}${quote}`);
+    return (inserted.get(i) ?? "") + code;
+  });
+  // The kit's import shares the first line, so every line keeps its number and stack traces point into the source.
+  body[0] = `import { beginCell as __beginCell, finishNotebook as __finishNotebook } from ${JSON.stringify(kitModule)}; ${body[0]}`;
+  return [...body, `await __finishNotebook(${JSON.stringify(sourcePath)}, ${JSON.stringify(outDir)});`, ""].join("\n");
 }
 
 function dedent(lines: string[]): string[] {

@@ -33,13 +33,23 @@ describe("notebook cells", () => {
     expect(() => notebookCells("/* md\n# open")).toThrow(SyntaxError);
   });
 
-  it("instruments each code cell on its own first line, keeping the other lines in place", () => {
+  it("instruments each code cell on its own first line, keeping every line in place", () => {
     const lines = instrumentNotebook(SOURCE, "./kit/notebook-output.js", "/nb/a.ts", "/out").split("\n");
-    // One import line is added at the top, so source line k is output line k + 1.
-    expect(lines[0]).toContain("beginCell as __beginCell");
-    expect(lines[6]).toBe('__beginCell(0); import { x } from "./x.js";');
-    expect(lines[10]).toBe("__beginCell(1); console.log(a);");
-    expect(lines[SOURCE.split("\n").length + 1]).toBe('await __finishNotebook("/nb/a.ts", "/out");');
+    expect(lines[0]).toMatch(/^import \{ beginCell as __beginCell, .*\} from "\.\/kit\/notebook-output\.js"; \/\* md$/);
+    expect(lines[5]).toBe('__beginCell(0); import { x } from "./x.js";');
+    expect(lines[9]).toBe("__beginCell(1); console.log(a);");
+    expect(lines[SOURCE.split("\n").length]).toBe('await __finishNotebook("/nb/a.ts", "/out");');
+  });
+});
+
+describe("instrumented imports", () => {
+  it("rewrites relative module specifiers in code, never in prose", () => {
+    const source = ['/* md', 'See "./x.js" from "../y.js".', '*/', 'import { a } from "./kit/a.js";', "import {", "  b,", '} from "../src/b.js";', 'const c = await import("./c.js");'].join("\n");
+    const out = instrumentNotebook(source, "file:///kit.js", "/nb/n.ts", "/out", (s) => `file:///abs/${s.replace(/^\.{1,2}\//, "")}`).split("\n");
+    expect(out[1]).toBe('See "./x.js" from "../y.js".');
+    expect(out[3]).toBe('__beginCell(0); import { a } from "file:///abs/kit/a.js";');
+    expect(out[6]).toBe('} from "file:///abs/src/b.js";');
+    expect(out[7]).toBe('const c = await import("file:///abs/c.js");');
   });
 });
 
