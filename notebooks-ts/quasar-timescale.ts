@@ -213,7 +213,7 @@ figure({
     },
     encoding: { x: { field: "t", type: "quantitative", title: `Time [MJD − ${MJD0}, d]`, scale: { zero: false, nice: false } } },
     layer: [
-      { data: { name: "band" }, mark: { type: "area" }, encoding: { y: { field: "lo95", type: "quantitative", ...magnitudeAxis }, y2: { field: "hi95" }, color: { datum: bandSeries[0], scale: forecastColors, legend: { title: null, orient: "top", direction: "horizontal" } } } },
+      { data: { name: "band" }, mark: { type: "area" }, encoding: { y: { field: "lo95", type: "quantitative", ...magnitudeAxis }, y2: { field: "hi95" }, color: { datum: bandSeries[0], scale: forecastColors, legend: { title: null, orient: "top", direction: "horizontal", columns: 3, labelLimit: 0 } } } },
       { data: { name: "band" }, mark: { type: "area" }, encoding: { y: { field: "lo68", type: "quantitative" }, y2: { field: "hi68" }, color: { datum: bandSeries[1] } } },
       { data: { name: "band" }, mark: { type: "line", strokeWidth: 1.5 }, encoding: { y: { field: "m", type: "quantitative" }, color: { datum: bandSeries[2] } } },
       { data: { name: "truth" }, mark: { type: "line", strokeWidth: 1.2 }, encoding: { y: { field: "y", type: "quantitative" }, color: { field: "set", title: null } } },
