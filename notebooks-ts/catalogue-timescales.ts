@@ -74,7 +74,7 @@ console.log(`true observed-frame tau: ${Math.min(...quasars.map((q) => q.tau)).t
 
 Each light curve is fitted with `fitLightCurve` and the damped-random-walk model, with the redshift so
 that the result also carries τ_rest. A careful catalogue fit uses the default budget (2 × 10⁶
-log-likelihood evaluations, no-U-turn sampler) through `horologium batch`, which spreads the objects over
+log-likelihood evaluations) through `horologium batch`, which spreads the objects over
 worker threads on all cores and resumes after interruption. Here, so that the notebook runs in a couple of minutes
 on a two-core machine, each fit gets the ensemble sampler and **a budget of 3 × 10⁴ evaluations**, 1.5%
 of the default. That is a demonstration budget: posterior medians settle sooner than the tails of a

@@ -92,9 +92,9 @@ say the variability is real. They do not say which peak is the rotation.
 up to half the reciprocal of the smallest spacing) only as a first guess. It then maximises the posterior
 from that period, half of it and twice it (the classic confusions of rotation periods), weighs the modes
 it finds by their Laplace-approximated evidence, and samples every mode carrying more than 1% of the
-probability. We use the ensemble sampler with a budget of 10⁵ log-likelihood evaluations (the default is
-the no-U-turn sampler and 2 × 10⁶) to keep the notebook short; any shortfall in convergence appears in
-the warnings printed below.
+probability. We use the (default) ensemble sampler with a budget of 10⁵ log-likelihood evaluations instead
+of the default 2 × 10⁶, to keep the notebook short; any shortfall in convergence appears in the warnings
+printed below.
 */
 const fit = fitLightCurveDetailed(star, { model: "quasi-periodic", seed: 1187, sampler: "ensemble", maxEvaluations: 1e5 });
 const { result } = fit;
