@@ -14,7 +14,7 @@ export interface FitOptions {
   readonly redshift?: number;
   /** Student-t noise with per-point outlier probabilities instead of Gaussian noise (needs an error column). */
   readonly robust?: boolean;
-  /** "nuts" (default) or "ensemble". */
+  /** "nuts" or "ensemble" (default: DEFAULT_SAMPLER of the inference layer). */
   readonly sampler?: SamplerKind;
   /** Budget in log-likelihood evaluations (gradients weighted by their cost); default 2e6. */
   readonly maxEvaluations?: number;

@@ -29,10 +29,17 @@ const fmt = (x: number) => (Math.abs(x) >= 1e4 || Math.abs(x) < 1e-2 ? x.toExpon
 export function fitWarnings(inputs: WarningInputs): string[] {
   const { model, summary, lightCurve, parameters, diagnostics, modes } = inputs;
   const warnings: string[] = [];
-  if (!diagnostics.converged) {
+  if (!Number.isFinite(diagnostics.rhatMax) || !Number.isFinite(diagnostics.essMin)) {
     warnings.push(
-      `The sampler stopped (${diagnostics.stopReason ?? "budget"}) before convergence: largest R-hat ${fmt(diagnostics.rhatMax)}, ` +
-        `smallest ESS ${fmt(diagnostics.essMin)} (targets: R-hat < 1.01, ESS >= 400); treat the intervals as rough or raise the budget.`,
+      `The budget ran out before any posterior draws were kept (${diagnostics.stopReason ?? "budget"} during warm-up): ` +
+        "the summaries are undefined; raise the budget (--max-evaluations).",
+    );
+  } else if (!diagnostics.converged) {
+    warnings.push(
+      `The sampler stopped (${diagnostics.stopReason ?? "budget"}) before convergence: largest R-hat ${diagnostics.rhatMax.toFixed(4)}, ` +
+        `smallest ESS ${Math.round(diagnostics.essMin)}, autocorrelation time ${fmt(diagnostics.autocorrTime)} ` +
+        `(targets: R-hat < 1.01, bulk and tail ESS >= 400, chains at least 50 autocorrelation times long); ` +
+        "treat the intervals as rough or raise the budget.",
     );
   }
   if (model.name === "drw" && parameters.tau) {
@@ -54,9 +61,9 @@ export function fitWarnings(inputs: WarningInputs): string[] {
     if (!s || p.prior.family !== "log-uniform") continue;
     const logRange = Math.log(p.prior.upper / p.prior.lower);
     if (Math.log(p.prior.upper / s["q97.5"]) < 0.02 * logRange && Math.log(s["q2.5"] / p.prior.lower) > 0.1 * logRange) {
-      warnings.push(`${p.name} runs into the upper end of its prior (${fmt(p.prior.upper)}): the data give only a lower limit (${fmt(s["q2.5"])} at 97.5%).`);
+      warnings.push(`${p.name} runs into the upper end of its prior (${fmt(p.prior.upper)}): the data give only a lower limit (${p.name} > ${fmt(s["q2.5"])} with 97.5% probability).`);
     } else if (Math.log(s["q2.5"] / p.prior.lower) < 0.02 * logRange && Math.log(p.prior.upper / s["q97.5"]) > 0.1 * logRange) {
-      warnings.push(`${p.name} runs into the lower end of its prior (${fmt(p.prior.lower)}): the data give only an upper limit (${fmt(s["q97.5"])} at 97.5%).`);
+      warnings.push(`${p.name} runs into the lower end of its prior (${fmt(p.prior.lower)}): the data give only an upper limit (${p.name} < ${fmt(s["q97.5"])} with 97.5% probability).`);
     }
   }
   const significant = modes.filter((m) => m.probability >= 0.01);

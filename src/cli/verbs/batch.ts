@@ -51,7 +51,7 @@ Options:
                           default from SLURM_ARRAY_TASK_ID and SLURM_ARRAY_TASK_COUNT when set
   --resume                continue an interrupted run (starts afresh if there is none)
   --overwrite             discard earlier results at --out and start again
-  --sampler nuts|ensemble the posterior sampler (default nuts)
+  --sampler nuts|ensemble the posterior sampler (default ensemble, as measured in bench/samplers-compare.ts)
   --max-evaluations N     sampling budget per object, in log-likelihood evaluations (default 2e6);
                           a fit that runs out is reported with diagnostics.converged false
   --jitter                fit a white-noise jitter even where light curves have errors

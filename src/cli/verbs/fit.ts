@@ -1,6 +1,7 @@
 import { resolve } from "node:path";
 import type { LightCurve } from "../../lightcurve/light-curve.js";
 import { InputError } from "../../lightcurve/input-error.js";
+import { DEFAULT_SAMPLER } from "../../inference/index.js";
 import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
 import type { FitOptions } from "../../models/fit-options.js";
 import type { FitResult } from "../../models/fit-result.js";
@@ -30,7 +31,7 @@ Options:
   --jitter                fit a white-noise term even when there is an error column
   --robust                Student-t noise: down-weights outliers and reports each point's outlier
                           probability (needs an error column)
-  --sampler nuts|ensemble the sampler (default nuts)
+  --sampler nuts|ensemble the sampler (default ${DEFAULT_SAMPLER}, the one bench/samplers-compare.ts measured cheaper)
   --max-evaluations N     budget in log-likelihood evaluations (default 2e6)
   --quiet                 no progress bar, no summary on stderr
 ${COLUMN_HELP}
