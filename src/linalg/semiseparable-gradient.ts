@@ -1,5 +1,6 @@
 import { FactorizationError } from "./factorization-error.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
+import { absorbPoint, projectState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
 
 const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
@@ -49,17 +50,11 @@ export function semiseparableLogLikelihoodGradient(
   const innovations = new Float64Array(n); // z_n
   const s = new Float64Array(rr);
   const f = new Float64Array(r);
+  const projection = new Float64Array(2);
   let value = 0;
   for (let k = 0; k < n; k++) {
     if (k > 0) {
-      const inverse = 1 / pivots[k - 1];
-      const zPrev = innovations[k - 1];
-      const uPrev = (k - 1) * r;
-      for (let i = 0; i < r; i++) {
-        const ui = gains[uPrev + i] * inverse;
-        for (let j = 0; j < r; j++) s[i * r + j] += ui * gains[uPrev + j];
-        f[i] += ui * zPrev;
-      }
+      absorbPoint(s, f, gains, (k - 1) * r, 1 / pivots[k - 1], innovations[k - 1], r);
       layout.computeTransitions(time[k] - time[k - 1]);
       transitions.set(layout.phi, k * phiLength);
       layout.applyCongruence(s, 0);
@@ -67,15 +62,9 @@ export function semiseparableLogLikelihoodGradient(
     }
     states.set(s, k * rr);
     means.set(f, k * r);
-    let pSp = 0;
-    let pf = 0;
-    for (let i = 0; i < r; i++) {
-      let sp = 0;
-      for (let j = 0; j < r; j++) sp += s[i * r + j] * p[j];
-      gains[k * r + i] = q[i] - sp;
-      pSp += p[i] * sp;
-      pf += p[i] * f[i];
-    }
+    projectState(s, f, p, q, gains, k * r, r, projection);
+    const pSp = projection[0];
+    const pf = projection[1];
     const pivot = noiseVariance[k] + variance - pSp;
     if (!(pivot > 0) || !Number.isFinite(pivot)) throw new FactorizationError(k, pivot);
     pivots[k] = pivot;

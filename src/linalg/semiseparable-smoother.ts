@@ -1,5 +1,6 @@
 import { FactorizationError } from "./factorization-error.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
+import { absorbPoint, projectState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
 
 /** Posterior mean and variance of the latent process at requested times. */
@@ -65,32 +66,18 @@ export function semiseparablePredict(
   const innovations = new Float64Array(total);
   const s = new Float64Array(r * r);
   const f = new Float64Array(r);
+  const projection = new Float64Array(2);
   let previousObserved = false;
   for (let k = 0; k < total; k++) {
     if (k > 0) {
-      if (previousObserved) {
-        const inverse = 1 / pivots[k - 1];
-        const z = innovations[k - 1];
-        const prev = (k - 1) * r;
-        for (let i = 0; i < r; i++) {
-          const ui = gains[prev + i] * inverse;
-          for (let j = 0; j < r; j++) s[i * r + j] += ui * gains[prev + j];
-          f[i] += ui * z;
-        }
-      }
+      if (previousObserved) absorbPoint(s, f, gains, (k - 1) * r, 1 / pivots[k - 1], innovations[k - 1], r);
       layout.computeTransitions(merged[k] - merged[k - 1]);
       layout.applyCongruence(s, 0);
       layout.applyToVector(f, 0);
     }
-    let pSp = 0;
-    let pf = 0;
-    for (let i = 0; i < r; i++) {
-      let sp = 0;
-      for (let j = 0; j < r; j++) sp += s[i * r + j] * p[j];
-      gains[k * r + i] = q[i] - sp;
-      pSp += p[i] * sp;
-      pf += p[i] * f[i];
-    }
+    projectState(s, f, p, q, gains, k * r, r, projection);
+    const pSp = projection[0];
+    const pf = projection[1];
     priorMean[k] = pf;
     priorVariance[k] = variance - pSp;
     const index = kinds[k];

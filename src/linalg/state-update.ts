@@ -1,0 +1,51 @@
+/**
+ * The two per-point steps that every pass of the semiseparable recursion shares (the fused likelihood in
+ * `semiseparable-likelihood.ts` inlines its own copies for speed).
+ */
+
+/**
+ * Adds a conditioned point's information to the explained covariance and the predicted state:
+ * S <- S + u u^T / D and f <- f + u z / D, with u = gains[offset ... offset + R), `inversePivot` = 1 / D.
+ */
+export function absorbPoint(
+  s: Float64Array,
+  f: Float64Array,
+  gains: Float64Array,
+  offset: number,
+  inversePivot: number,
+  innovation: number,
+  r: number,
+): void {
+  for (let i = 0; i < r; i++) {
+    const ui = gains[offset + i] * inversePivot;
+    for (let j = 0; j < r; j++) s[i * r + j] += ui * gains[offset + j];
+    f[i] += ui * innovation;
+  }
+}
+
+/**
+ * Projects the state onto the observation: writes u = q - S p into gains[offset ...] and returns
+ * [p^T S p, p^T f] in `out`.
+ */
+export function projectState(
+  s: Float64Array,
+  f: Float64Array,
+  p: Float64Array,
+  q: Float64Array,
+  gains: Float64Array,
+  offset: number,
+  r: number,
+  out: Float64Array,
+): void {
+  let pSp = 0;
+  let pf = 0;
+  for (let i = 0; i < r; i++) {
+    let sp = 0;
+    for (let j = 0; j < r; j++) sp += s[i * r + j] * p[j];
+    gains[offset + i] = q[i] - sp;
+    pSp += p[i] * sp;
+    pf += p[i] * f[i];
+  }
+  out[0] = pSp;
+  out[1] = pf;
+}
