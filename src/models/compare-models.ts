@@ -95,15 +95,20 @@ export function compareModels(
   };
 }
 
+/** An oscillator with Q <= 1/2 at its maximum is overdamped: it has no oscillation, so no period. */
+function oscillates(standing: ModelStanding): boolean {
+  return standing.model === "quasi-periodic" || (standing.model === "oscillator" && standing.maximum.quality > 0.5);
+}
+
 function verdictOf(ranking: readonly ModelStanding[]): string {
   const best = ranking[0];
-  const aperiodic = ranking.find((s) => s.model === "drw");
-  const periodic = ranking.find((s) => s.model !== "drw");
+  const aperiodic = ranking.find((s) => !oscillates(s));
+  const periodic = ranking.find(oscillates);
   const strength = (twoLnB: number) =>
     twoLnB > 10 ? "very strong" : twoLnB > 6 ? "strong" : twoLnB > 2 ? "positive" : "not worth more than a bare mention";
   if (!aperiodic || !periodic) return `${best.model} is preferred.`;
   const twoLnB = 2 * Math.abs(periodic.logEvidence - aperiodic.logEvidence);
-  if (best.model === "drw") return `No period: the aperiodic damped random walk is preferred (2 ln B = ${twoLnB.toFixed(1)}, ${strength(twoLnB)} evidence).`;
+  if (!oscillates(best)) return `No period: an aperiodic model (${best.model}) is preferred (2 ln B = ${twoLnB.toFixed(1)}, ${strength(twoLnB)} evidence).`;
   const period = best.maximum.period;
   return `A period is supported: ${best.model} (period ${period.toPrecision(4)}) over the damped random walk, 2 ln B = ${twoLnB.toFixed(1)} (${strength(twoLnB)} evidence).`;
 }
