@@ -18,14 +18,13 @@ export type SamplerKind = "nuts" | "ensemble";
 
 /**
  * The sampler used when none is asked for: the walker ensemble. bench/samplers-compare.ts runs both to
- * convergence from the same mode, counting a gradient as DEFAULT_GRADIENT_COST log-likelihood
- * evaluations. Measured (seed 1000, a busy 2-core machine):
- * - damped random walk, 250 points: ensemble 114k evaluations, ESS 1742 (65 per effective sample);
- *   NUTS 388k, ESS 447 (869 per effective sample);
- * - quasi-periodic, 1000 points: ensemble 144k evaluations, ESS 3060 (47 per effective sample), 473 s;
- *   NUTS 169k, ESS 412 (411 per effective sample), 676 s.
- * The ensemble needs fewer evaluations per effective sample by a factor of about ten and fewer per
- * converged fit; NUTS stays selectable (`sampler: "nuts"`). Without a gradient only the ensemble runs.
+ * convergence from the same mode, counting a gradient as DEFAULT_GRADIENT_COST (4) log-likelihood
+ * evaluations. Measured on a shared 2-core machine:
+ * - damped random walk, 250 points (seeds 1000-1002): ensemble 72 evaluations per effective sample,
+ *   91k evaluations and 8 s per converged fit; NUTS 1100 per effective sample, 465k and 50 s per fit;
+ * - quasi-periodic, 1000 points (seed 1000): ensemble 47 per effective sample, 144k evaluations and
+ *   171 s per fit; NUTS 411 per effective sample, 169k and 268 s per fit.
+ * NUTS stays selectable (`sampler: "nuts"`). Without a gradient only the ensemble runs.
  */
 export const DEFAULT_SAMPLER: SamplerKind = "ensemble";
 
