@@ -58,7 +58,9 @@ export const verb: CliVerb = {
       const last = lightCurve.time[lightCurve.time.length - 1];
       const grid = Float64Array.from({ length: 121 }, (_, i) => last + 3 * i);
       const rows = (fit.result.posteriorSample as { rows: number[][] }).rows;
-      const forecast = posteriorPredictive(fit.model, lightCurve, rows.slice(0, 200), grid);
+      // 200 draws spread over every chain (the stored sample is ordered chain by chain).
+      const used = Array.from({ length: Math.min(200, rows.length) }, (_, k) => rows[Math.floor((k * rows.length) / Math.min(200, rows.length))]);
+      const forecast = posteriorPredictive(fit.model, lightCurve, used, grid);
       writeOutput(predictionCsv(forecast), join(out, "quasar-forecast.csv"), io);
       const mid = 60;
       say(
