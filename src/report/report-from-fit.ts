@@ -2,7 +2,7 @@ import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { FitResult } from "../models/fit-result.js";
 import type { LightCurveModel } from "../models/light-curve-model.js";
 import { posteriorPredictive } from "../models/posterior-predictive.js";
-import { storedPosteriorSample } from "../models/posterior-sample.js";
+import { evenlySpacedItems, storedPosteriorSample } from "../models/posterior-sample.js";
 import { computePeriodogram } from "../periodogram/periodogram.js";
 import type { ReportInput } from "./report-input.js";
 
@@ -33,7 +33,7 @@ export function reportInputFromFit(
   const baseline = last - first;
   const points = sizes.gridPoints ?? 600;
   const grid = Float64Array.from({ length: points }, (_, i) => first - 0.05 * baseline + (1.15 * baseline * i) / (points - 1));
-  const used = evenly(sample.rows, sizes.draws ?? 120);
+  const used = evenlySpacedItems(sample.rows, sizes.draws ?? 120);
   const prediction = posteriorPredictive(model, lightCurve, used, grid);
 
   const chains = [...new Set(sample.chain)].sort((a, b) => a - b);
@@ -66,11 +66,6 @@ export function reportInputFromFit(
     periodogram: { frequency: periodogram.frequency, power: periodogram.power, label: "Lomb-Scargle power" },
     psdBand: { frequency: frequencies, median: band(0.5), lower: band(0.16), upper: band(0.84), mass: 0.68 },
   };
-}
-
-function evenly<T>(items: readonly T[], count: number): T[] {
-  const n = Math.min(items.length, count);
-  return Array.from({ length: n }, (_, k) => items[Math.floor((k * items.length) / n)]);
 }
 
 function quantile(values: number[], q: number): number {

@@ -3,6 +3,7 @@ import { fileURLToPath } from "node:url";
 import { dirname, join, resolve } from "node:path";
 import { readLightCurves } from "../../lightcurve/read-light-curves.js";
 import { posteriorPredictive } from "../../models/posterior-predictive.js";
+import { evenlySpacedItems } from "../../models/posterior-sample.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { writeReport } from "../../report/write-report.js";
 import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
@@ -59,8 +60,7 @@ export const verb: CliVerb = {
       const grid = Float64Array.from({ length: 121 }, (_, i) => last + 3 * i);
       const rows = (fit.result.posteriorSample as { rows: number[][] }).rows;
       // 200 draws spread over every chain (the stored sample is ordered chain by chain).
-      const used = Array.from({ length: Math.min(200, rows.length) }, (_, k) => rows[Math.floor((k * rows.length) / Math.min(200, rows.length))]);
-      const forecast = posteriorPredictive(fit.model, lightCurve, used, grid);
+      const forecast = posteriorPredictive(fit.model, lightCurve, evenlySpacedItems(rows, 200), grid);
       writeOutput(predictionCsv(forecast), join(out, "quasar-forecast.csv"), io);
       const mid = 60;
       say(

@@ -4,7 +4,7 @@ import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
 import type { FitOptions } from "../../models/fit-options.js";
 import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
 import { posteriorPredictive } from "../../models/posterior-predictive.js";
-import { storedPosteriorSample } from "../../models/posterior-sample.js";
+import { evenlySpacedItems, storedPosteriorSample } from "../../models/posterior-sample.js";
 import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
 import { fitSummaryText } from "../fit-summary-text.js";
 import { samplerProgressBar } from "../progress-bar.js";
@@ -115,8 +115,7 @@ export const verb: CliVerb = {
       lightCurve = fit.conditioning;
       rows = (fit.result.posteriorSample as { rows: number[][] }).rows;
     }
-    const used = Array.from({ length: Math.min(drawCount, rows.length) }, (_, k) => rows[Math.floor((k * rows.length) / Math.min(drawCount, rows.length))]);
-    const curve = posteriorPredictive(model, lightCurve, used, times);
+    const curve = posteriorPredictive(model, lightCurve, evenlySpacedItems(rows, drawCount), times);
     writeOutput(predictionCsv(curve), textOption(values, "out"), io);
     return 0;
   },
