@@ -4,6 +4,14 @@
  * p-values of uniformity; exits non-zero when a p-value is below 0.01 / (number of parameters).
  *
  * Run: npx tsx bench/samplers-sbc.ts [replicates=200] [nuts|ensemble] [seed=31]
+ *
+ * Figures of the runs made when the inference layer was written (3 seasons, about 127 points each):
+ * - ensemble, 300 replicates, seed 32: all fits converged; p = 0.58 (tau), 0.65 (sigma), 0.77 (mean);
+ *   1915 s.
+ * - ensemble, 100 replicates, seed 31: all converged; p = 0.25, 0.09, 0.99; 1019 s.
+ * - NUTS, 100 replicates, seed 31 (the same simulated light curves): all converged; p = 0.10, 0.06,
+ *   0.90; 1199 s. Both samplers show the same excess in the top bins of tau and sigma on these 100
+ *   light curves, which the 300 replicates of seed 32 do not show: a property of those data sets.
  */
 import { DEFAULT_SAMPLER, type SamplerKind } from "../src/inference/sample-posterior.js";
 import { runCalibration } from "./samplers-calibration.js";
