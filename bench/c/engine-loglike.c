@@ -170,16 +170,25 @@ static void parse_term(const char *text, term_t *term) {
 /* ---------- transitions (mirrors the transition files in src/linalg) ---------- */
 
 /* [exp(-c dt) C, exp(-c dt) S] with C = cosh(sqrt(lambda) dt), S = sinh(sqrt(lambda) dt) / sqrt(lambda). */
+/* 1 / (2k)! and 1 / (2k + 1)!, k = 0 .. 10 (filled by init_series): the series of C and S / dt. */
+static double cosh_series[11], sinh_series[11];
+
+static void init_series(void) {
+  double factorial = 1;
+  for (int m = 0; m <= 21; m++) {
+    if (m > 0) factorial *= m;
+    if (m % 2 == 0) cosh_series[m / 2] = 1 / factorial;
+    else sinh_series[m / 2] = 1 / factorial;
+  }
+}
+
+/* [E C, E S] as dampedHyperbolicValues in src/linalg/oscillator-transition.ts (Horner's rule for |x| < 1). */
 static inline void damped_hyperbolic_pair(double c, double lambda, double w0, double dt, double *ec, double *es) {
   double x = lambda * dt * dt;
-  if (fabs(x) < 1) {
-    double c_sum = 1, s_sum = 1, c_term = 1, s_term = 1;
-    for (int k = 1; k < 12; k++) {
-      c_term *= x / ((2 * k - 1) * (2 * k));
-      s_term *= x / ((2 * k) * (2 * k + 1));
-      c_sum += c_term;
-      s_sum += s_term;
-    }
+  if (x > -1 && x < 1) {
+    const double *a = cosh_series, *b = sinh_series;
+    double c_sum = a[0] + x * (a[1] + x * (a[2] + x * (a[3] + x * (a[4] + x * (a[5] + x * (a[6] + x * (a[7] + x * (a[8] + x * (a[9] + x * a[10])))))))));
+    double s_sum = b[0] + x * (b[1] + x * (b[2] + x * (b[3] + x * (b[4] + x * (b[5] + x * (b[6] + x * (b[7] + x * (b[8] + x * (b[9] + x * b[10])))))))));
     double e = exp(-c * dt);
     *ec = e * c_sum;
     *es = e * (dt * s_sum);
@@ -537,6 +546,7 @@ int main(int argc, char **argv) {
     fprintf(stderr, "usage: engine-loglike [--serve | --repeat K --rounds M] DATAFILE TERM [TERM ...]\n");
     return 2;
   }
+  init_series();
   data_t data;
   read_data(argv[arg++], &data);
   int term_count = argc - arg;

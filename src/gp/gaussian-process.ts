@@ -9,6 +9,7 @@ import {
   conditionInputs,
   residualOf,
   sortTargets,
+  withMeanAndJitter,
   type ConditionedInputs,
   type GaussianProcessOptions,
   type GradientResult,
@@ -37,7 +38,15 @@ export class GaussianProcess {
   private readonly form: SemiseparableForm;
   private factorization?: SemiseparableFactorization;
 
-  constructor(kernel: Kernel, time: ArrayLike<number>, options: GaussianProcessOptions = {}) {
+  /**
+   * @param kernel any kernel with a semiseparable form
+   * @param time sorted observation times
+   * @param options per-point errors, constant mean, jitter
+   * @param conditioned inputs already validated by another GaussianProcess (see {@link withKernel});
+   *   when given, `time` and `options` are not read
+   * @internal the last parameter
+   */
+  constructor(kernel: Kernel, time: ArrayLike<number>, options: GaussianProcessOptions = {}, conditioned?: ConditionedInputs) {
     const form = kernel.semiseparableForm();
     if (!form) {
       throw new RangeError(
@@ -46,7 +55,20 @@ export class GaussianProcess {
     }
     this.kernel = kernel;
     this.form = form;
-    this.inputs = conditionInputs(time, options);
+    this.inputs = conditioned ?? conditionInputs(time, options);
+  }
+
+  /**
+   * The same observation times and errors with another kernel, mean and jitter. The times and errors are
+   * not checked and copied again, which is what a sampler wants at every step: for a damped random walk
+   * that work costs about as much as the log-likelihood itself.
+   *
+   * @example
+   * const base = new GaussianProcess(kernel, t, { yerr });
+   * const logL = base.withKernel(kernel.withParameters(values), { mean: 19.2 }).logLikelihood(y);
+   */
+  withKernel(kernel: Kernel, options: Pick<GaussianProcessOptions, "mean" | "jitter"> = {}): GaussianProcess {
+    return new GaussianProcess(kernel, this.inputs.time, {}, withMeanAndJitter(this.inputs, options));
   }
 
   /** The observation times. */

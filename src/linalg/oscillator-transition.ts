@@ -1,3 +1,4 @@
+import { cosineAndSine, exponential } from "./elementary-functions.js";
 import type { ParameterDependence, TransitionBlock } from "./transition-block.js";
 
 /**
@@ -22,8 +23,10 @@ export class OscillatorTransition implements TransitionBlock {
   readonly size = 2;
   readonly generator: Float64Array;
   readonly parameterIndex: Int32Array;
-  private readonly halfWidth: number; // c = w0 / (2Q)
-  private readonly lambda: number; // c^2 - w0^2
+  /** c = w0 / (2Q), the damping rate of the envelope. */
+  readonly halfWidth: number;
+  /** lambda = c^2 - w0^2: negative for Q > 1/2 (oscillating), positive for Q < 1/2. */
+  readonly lambda: number;
   private readonly scratch = new Float64Array(4);
 
   /**
@@ -44,7 +47,7 @@ export class OscillatorTransition implements TransitionBlock {
 
   transition(dt: number, out: Float64Array, offset: number): void {
     const f = this.scratch;
-    dampedHyperbolicPair(this.halfWidth, this.lambda, this.w0, dt, f);
+    dampedHyperbolicValues(this.halfWidth, this.lambda, this.w0, dt, f);
     const ec = f[0];
     const es = f[1];
     const c = this.halfWidth;
@@ -96,6 +99,52 @@ export class OscillatorTransition implements TransitionBlock {
   }
 }
 
+/** 1 / (2k)! and 1 / (2k + 1)! for k = 0 .. 10: the series of C and S / dt in x = lambda dt^2. */
+const COSH_SERIES = Float64Array.from({ length: 11 }, (_, k) => 1 / factorial(2 * k));
+const SINH_SERIES = Float64Array.from({ length: 11 }, (_, k) => 1 / factorial(2 * k + 1));
+/** (k + 1) / (2k + 3)! for k = 0 .. 10: the series of dS/dlambda / dt^3. */
+const SINH_DERIVATIVE_SERIES = Float64Array.from({ length: 11 }, (_, k) => (k + 1) / factorial(2 * k + 3));
+
+function factorial(n: number): number {
+  let value = 1;
+  for (let i = 2; i <= n; i++) value *= i;
+  return value;
+}
+
+/**
+ * Writes [E C, E S] for E = exp(-c dt), C = cosh(sqrt(lambda) dt), S = sinh(sqrt(lambda) dt) / sqrt(lambda),
+ * lambda = c^2 - w0^2 (any sign), into out[0..1]: the values of {@link dampedHyperbolicPair} without the
+ * derivatives, for the per-point loops. Near lambda dt^2 = 0 (|x| < 1, x = lambda dt^2) C and S are the
+ * series sum_k x^k / (2k)! and dt sum_k x^k / (2k + 1)!, summed to k = 10 by Horner's rule (the first
+ * omitted term is below 1 / 22! < 1e-21); otherwise cos / sin (Q > 1/2) or the two real rates (Q < 1/2).
+ */
+export function dampedHyperbolicValues(c: number, lambda: number, w0: number, dt: number, out: Float64Array): void {
+  const x = lambda * dt * dt;
+  if (x > -1 && x < 1) {
+    const e = exponential(-c * dt);
+    const a = COSH_SERIES;
+    const b = SINH_SERIES;
+    const cosh = a[0] + x * (a[1] + x * (a[2] + x * (a[3] + x * (a[4] + x * (a[5] + x * (a[6] + x * (a[7] + x * (a[8] + x * (a[9] + x * a[10])))))))));
+    const sinh = b[0] + x * (b[1] + x * (b[2] + x * (b[3] + x * (b[4] + x * (b[5] + x * (b[6] + x * (b[7] + x * (b[8] + x * (b[9] + x * b[10])))))))));
+    out[0] = e * cosh;
+    out[1] = e * (dt * sinh);
+  } else if (lambda < 0) {
+    const omega = Math.sqrt(-lambda);
+    const e = exponential(-c * dt);
+    cosineAndSine(omega * dt, out, 0);
+    out[0] = e * out[0];
+    out[1] = e * (out[1] / omega);
+  } else {
+    const root = Math.sqrt(lambda);
+    const fastRate = c + root;
+    const slowRate = (w0 * w0) / fastRate; // c - root without cancellation
+    const slow = exponential(-slowRate * dt);
+    const fast = exponential(-fastRate * dt);
+    out[0] = 0.5 * (slow + fast);
+    out[1] = (slow - fast) / (2 * root);
+  }
+}
+
 /**
  * Writes [E C, E S, E dC/dlambda, E dS/dlambda] for E = exp(-c dt), C = cosh(sqrt(lambda) dt),
  * S = sinh(sqrt(lambda) dt) / sqrt(lambda), with lambda = c^2 - w0^2 (any sign), into out[0..3].
@@ -103,48 +152,15 @@ export class OscillatorTransition implements TransitionBlock {
  */
 export function dampedHyperbolicPair(c: number, lambda: number, w0: number, dt: number, out: Float64Array): void {
   const x = lambda * dt * dt;
-  if (Math.abs(x) < 1) {
-    // C = sum x^k / (2k)!, S = dt sum x^k / (2k+1)!, dS/dlambda = dt^3 sum (k+1) x^k / (2k+3)!
-    let cSum = 1;
-    let sSum = 1;
-    let dsSum = 1 / 6;
-    let cTerm = 1;
-    let sTerm = 1;
-    let dsTerm = 1 / 6;
-    // |x| < 1: the terms fall at least factorially; stop once they no longer change the sums.
-    for (let k = 1; k < 12; k++) {
-      cTerm *= x / ((2 * k - 1) * (2 * k));
-      sTerm *= x / ((2 * k) * (2 * k + 1));
-      dsTerm *= x / ((2 * k + 2) * (2 * k + 3));
-      cSum += cTerm;
-      sSum += sTerm;
-      dsSum += (k + 1) * dsTerm;
-      if (Math.abs(cTerm) < 1e-17 && Math.abs(dsTerm) < 1e-18) break;
-    }
-    const e = Math.exp(-c * dt);
-    const s = dt * sSum;
-    out[0] = e * cSum;
-    out[1] = e * s;
-    out[2] = 0.5 * dt * out[1];
-    out[3] = e * dt * dt * dt * dsSum;
+  dampedHyperbolicValues(c, lambda, w0, dt, out);
+  out[2] = 0.5 * dt * out[1];
+  if (x > -1 && x < 1) {
+    // dS/dlambda = dt^3 sum_k (k + 1) x^k / (2k + 3)!, by Horner's rule like C and S.
+    const d = SINH_DERIVATIVE_SERIES;
+    let sum = d[d.length - 1];
+    for (let k = d.length - 2; k >= 0; k--) sum = d[k] + x * sum;
+    out[3] = exponential(-c * dt) * dt * dt * dt * sum;
     return;
   }
-  if (lambda < 0) {
-    const omega = Math.sqrt(-lambda);
-    const e = Math.exp(-c * dt);
-    const cosine = Math.cos(omega * dt);
-    const sine = Math.sin(omega * dt) / omega;
-    out[0] = e * cosine;
-    out[1] = e * sine;
-  } else {
-    const root = Math.sqrt(lambda);
-    const fastRate = c + root;
-    const slowRate = (w0 * w0) / fastRate; // c - root without cancellation
-    const slow = Math.exp(-slowRate * dt);
-    const fast = Math.exp(-fastRate * dt);
-    out[0] = 0.5 * (slow + fast);
-    out[1] = (slow - fast) / (2 * root);
-  }
-  out[2] = 0.5 * dt * out[1];
   out[3] = (dt * out[0] - out[1]) / (2 * lambda);
 }

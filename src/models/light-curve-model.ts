@@ -148,10 +148,19 @@ export function modelLikelihood(model: LightCurveModel, lightCurve: LightCurve):
   const meanIndex = names.indexOf("mean");
   const jitterIndex = names.indexOf("jitter");
   const y = lightCurve.value;
+  // The light curve's times and errors are checked once; every evaluation reuses them.
+  let base: GaussianProcess | undefined;
+  const processAt = (physical: ArrayLike<number>): GaussianProcess => {
+    if (!base) return (base = model.processAt(physical, lightCurve));
+    return base.withKernel(model.kernelAt(physical), {
+      mean: physical[meanIndex],
+      jitter: jitterIndex >= 0 ? physical[jitterIndex] : 0,
+    });
+  };
   return {
     logLikelihood(physical) {
       try {
-        return model.processAt(physical, lightCurve).logLikelihood(y);
+        return processAt(physical).logLikelihood(y);
       } catch (error) {
         if (error instanceof FactorizationError) return -Infinity;
         throw error;
@@ -159,7 +168,7 @@ export function modelLikelihood(model: LightCurveModel, lightCurve: LightCurve):
     },
     logLikelihoodAndGradient(physical, gradientOut) {
       try {
-        const g = model.processAt(physical, lightCurve).logLikelihoodGradient(y);
+        const g = processAt(physical).logLikelihoodGradient(y);
         for (let i = 0; i < kernelIndex.length; i++) gradientOut[kernelIndex[i]] = g.kernel[i];
         gradientOut[meanIndex] = g.mean;
         if (jitterIndex >= 0) gradientOut[jitterIndex] = g.jitter;

@@ -1,0 +1,147 @@
+/**
+ * exp, cos and sin written out in TypeScript for the per-point loops of the engine. V8 implements
+ * `Math.exp`, `Math.cos` and `Math.sin` as calls into C that it cannot inline, about 40 ns each on the
+ * benchmark machine (bench/README.md); written here as straight-line arithmetic they are inlined into the
+ * recursions, take about half as long, and, being off the recursion's critical path, overlap with it.
+ *
+ * Accuracy: within 1 ulp of the correctly rounded result for exp (2 ulp before the final scaling when
+ * results are subnormal is avoided by handing those to `Math.exp`); cos and sin within 2^-53 absolute
+ * (they are used for bounded transition matrices, where absolute error is what counts). Checked against
+ * `Math.exp`, `Math.cos`, `Math.sin` on millions of arguments in test/linalg/elementary-functions.test.ts.
+ */
+
+/** ln 2 / 64 in two parts: the high part has its 21 low bits zero, so k * HIGH is exact for |k| < 2^21. */
+const LN2_BY_64_HIGH = 6.93147180369123816490e-1 / 64;
+const LN2_BY_64_LOW = 1.90821492927058770002e-10 / 64;
+const INVERSE_LN2_BY_64 = 64 / Math.LN2;
+/** Adding and subtracting 1.5 * 2^52 rounds a double of magnitude below 2^51 to the nearest integer. */
+const ROUNDING_SHIFT = 6755399441055744;
+
+/** 2^(j / 64), j = 0 .. 63, as a double and the rounding error of that double (Tang 1989, table of S_lead, S_trail). */
+const TWO_TO_J_BY_64 = new Float64Array(64);
+const TWO_TO_J_BY_64_TAIL = new Float64Array(64);
+/** 2^m for m = -1022 .. 1023 at index m + 1022. */
+const TWO_TO_M = new Float64Array(2046);
+for (let m = -1022; m <= 1023; m++) TWO_TO_M[m + 1022] = 2 ** m;
+for (let j = 0; j < 64; j++) {
+  const value = 2 ** (j / 64);
+  TWO_TO_J_BY_64[j] = value;
+  TWO_TO_J_BY_64_TAIL[j] = twoToFractionTail(j, value);
+}
+
+/**
+ * The rounding error 2^(j/64) - value, from one Newton step on value^64 = 2^j carried out in
+ * double-double arithmetic (Dekker 1971 products): error = (2^j - value^64) / (64 value^63).
+ */
+function twoToFractionTail(j: number, value: number): number {
+  // value^64 by six exact squarings in double-double.
+  let hi = value;
+  let lo = 0;
+  for (let i = 0; i < 6; i++) {
+    const p = hi * hi;
+    const e = exactProductError(hi, hi, p) + 2 * hi * lo;
+    hi = p + e;
+    lo = e - (hi - p);
+  }
+  const residual = 2 ** j - hi - lo;
+  return residual / (64 * value ** 63);
+}
+
+/** a * b - p exactly, for p = fl(a * b) (Veltkamp splitting, Dekker 1971). */
+function exactProductError(a: number, b: number, p: number): number {
+  const split = 134217729; // 2^27 + 1
+  const ca = split * a;
+  const ah = ca - (ca - a);
+  const al = a - ah;
+  const cb = split * b;
+  const bh = cb - (cb - b);
+  const bl = b - bh;
+  return ah * bh - p + ah * bl + al * bh + al * bl;
+}
+
+/** Coefficients of exp(r) - 1 - r on |r| <= ln 2 / 128: Taylor's 1/k! to k = 6 (truncation below 2^-66). */
+const E2 = 1 / 2;
+const E3 = 1 / 6;
+const E4 = 1 / 24;
+const E5 = 1 / 120;
+const E6 = 1 / 720;
+
+/**
+ * e^x by the table-driven method of Tang (1989, ACM TOMS 15, 144): x = (64 m + j) ln2/64 + r with
+ * |r| <= ln2/128, e^x = 2^m 2^(j/64) e^r, e^r - 1 from a degree-5 polynomial. Arguments whose result would
+ * overflow or be subnormal (|x| > 708) go to `Math.exp`.
+ */
+export function exponential(x: number): number {
+  if (!(x > -708 && x < 708)) return Math.exp(x);
+  const kf = x * INVERSE_LN2_BY_64 + ROUNDING_SHIFT - ROUNDING_SHIFT;
+  const r1 = x - kf * LN2_BY_64_HIGH;
+  const r2 = kf * LN2_BY_64_LOW;
+  const r = r1 - r2;
+  const k = kf | 0;
+  const j = k & 63;
+  const m = (k - j) >> 6;
+  const q = r * r * (E2 + r * (E3 + r * (E4 + r * (E5 + r * E6))));
+  const p = r1 + (q - r2);
+  const s = TWO_TO_J_BY_64[j];
+  const t = TWO_TO_J_BY_64_TAIL[j];
+  return TWO_TO_M[m + 1022] * (s + (t + s * p + t * p));
+}
+
+/** pi/2 in three parts of 33, 33 and 53 bits (Cody & Waite 1980 reduction; the values of fdlibm's k_rem_pio2). */
+const PIO2_1 = 1.57079632673412561417e0;
+const PIO2_2 = 6.07710050630396597660e-11;
+const PIO2_3 = 2.02226624871116645580e-21;
+const TWO_BY_PI = 0.636619772367581343076;
+/** Above this |x| the three-part reduction loses accuracy; `Math.cos`/`Math.sin` take over. */
+const REDUCTION_LIMIT = 1e5;
+
+/** Minimax coefficients of sin and cos on [-pi/4, pi/4] (Sun Microsystems fdlibm, k_sin.c and k_cos.c). */
+const S1 = -1.66666666666666324348e-1;
+const S2 = 8.33333333332248946124e-3;
+const S3 = -1.98412698298579493134e-4;
+const S4 = 2.75573137070700676789e-6;
+const S5 = -2.50507602534068634195e-8;
+const S6 = 1.58969099521155010221e-10;
+const C1 = 4.16666666666666019037e-2;
+const C2 = -1.38888888888741095749e-3;
+const C3 = 2.48015872894767294178e-5;
+const C4 = -2.75573143513906633035e-7;
+const C5 = 2.08757232129817482790e-9;
+const C6 = -1.13596475577881948265e-11;
+
+/**
+ * cos x and sin x together, written to out[offset] and out[offset + 1]: one Cody-Waite reduction
+ * x = n pi/2 + y, |y| <= pi/4, then fdlibm's polynomials for sin y and cos y and the quadrant n mod 4.
+ * Absolute error below 2^-53 for |x| <= 1e5; larger |x| use `Math.cos` and `Math.sin`.
+ */
+export function cosineAndSine(x: number, out: Float64Array, offset: number): void {
+  if (!(x > -REDUCTION_LIMIT && x < REDUCTION_LIMIT)) {
+    out[offset] = Math.cos(x);
+    out[offset + 1] = Math.sin(x);
+    return;
+  }
+  const nf = x * TWO_BY_PI + ROUNDING_SHIFT - ROUNDING_SHIFT;
+  const y = x - nf * PIO2_1 - nf * PIO2_2 - nf * PIO2_3;
+  const z = y * y;
+  const sine = y + y * z * (S1 + z * (S2 + z * (S3 + z * (S4 + z * (S5 + z * S6)))));
+  const hz = 0.5 * z;
+  const w = 1 - hz;
+  const cosine = w + (1 - w - hz + z * z * (C1 + z * (C2 + z * (C3 + z * (C4 + z * (C5 + z * C6))))));
+  switch ((nf | 0) & 3) {
+    case 0:
+      out[offset] = cosine;
+      out[offset + 1] = sine;
+      break;
+    case 1:
+      out[offset] = -sine;
+      out[offset + 1] = cosine;
+      break;
+    case 2:
+      out[offset] = -cosine;
+      out[offset + 1] = -sine;
+      break;
+    default:
+      out[offset] = sine;
+      out[offset + 1] = -cosine;
+  }
+}

@@ -1,0 +1,200 @@
+import { exponential } from "./elementary-functions.js";
+import { ExponentialTransition } from "./exponential-transition.js";
+import { FactorizationError } from "./factorization-error.js";
+import { dampedHyperbolicValues, OscillatorTransition } from "./oscillator-transition.js";
+import { PIVOT_HIGH, PIVOT_LOW, PRODUCT_HIGH, PRODUCT_LOW } from "./pivot-product.js";
+import type { TransitionBlock } from "./transition-block.js";
+
+/**
+ * The likelihood recursion of `semiseparableLogLikelihood` written out for one layout of blocks, with every
+ * element of S, f and u in a local variable. V8 keeps locals in registers but loads, bounds-checks and
+ * stores every typed-array element, and the general loop's short inner loops over R do not unroll; for
+ * R = 4 (the quasi-periodic kernel) the written-out form is about three times faster (bench/README.md).
+ *
+ * The source is generated once per layout (the sizes of the blocks, 1 or 2) and compiled with `Function`;
+ * where the host forbids that (a browser page with a Content-Security-Policy without 'unsafe-eval'),
+ * {@link unrolledRecursion} returns undefined and the general loop runs instead. The generated code
+ * performs the same floating-point operations in the same order as the general loop
+ * (`advance` in semiseparable-likelihood.ts with `TransitionLayout`'s block-pair congruence), so the two
+ * give bit-identical results; test/linalg/unrolled-recursion.test.ts checks that on every layout.
+ */
+export type UnrolledAdvance = (
+  blocks: readonly TransitionBlock[],
+  p: Float64Array,
+  q: Float64Array,
+  state: Float64Array,
+  scalars: Float64Array,
+  time: ArrayLike<number>,
+  noiseVariance: ArrayLike<number>,
+  residual: ArrayLike<number>,
+  begin: number,
+  end: number,
+) => void;
+
+/** Largest state dimension written out (the code grows as R^2). */
+export const MAX_UNROLLED_DIMENSION = 10;
+
+/** Slots of `scalars` shared with semiseparable-likelihood.ts. */
+const SCALAR_NAMES = ["previousInverse", "previousZ", "quadratic", "logDeterminant", "product"] as const;
+
+/**
+ * How a block enters the written-out code: exponential and oscillator blocks have their transitions
+ * inlined (the same formulas as their `transition` methods); any other block of size 1 or 2 is called
+ * through `transition`.
+ */
+type BlockKind = "exponential" | "oscillator" | "generic1" | "generic2";
+
+function blockKind(block: TransitionBlock): BlockKind | undefined {
+  if (block instanceof ExponentialTransition) return "exponential";
+  if (block instanceof OscillatorTransition) return "oscillator";
+  if (block.size === 1) return "generic1";
+  if (block.size === 2) return "generic2";
+  return undefined;
+}
+
+const SIZE: Record<BlockKind, number> = { exponential: 1, oscillator: 2, generic1: 1, generic2: 2 };
+
+/**
+ * A compiled recursion for these blocks, or undefined when the layout is not supported (a block larger
+ * than 2 x 2, R above {@link MAX_UNROLLED_DIMENSION}) or code cannot be compiled here.
+ * `state` holds S (R x R, row-major), then f, then u (R each) between calls; `scalars` the five running
+ * scalars in the order previousInverse, previousZ, quadratic, logDeterminant, product.
+ */
+export function unrolledRecursion(blocks: readonly TransitionBlock[]): UnrolledAdvance | undefined {
+  const kinds = blocks.map(blockKind);
+  if (kinds.some((k) => k === undefined)) return undefined;
+  const key = kinds.join(",");
+  if (compiled.has(key)) return compiled.get(key);
+  let advance: UnrolledAdvance | undefined;
+  if (blocks.reduce((r, b) => r + b.size, 0) <= MAX_UNROLLED_DIMENSION) {
+    try {
+      const factory = new Function(
+        "FactorizationError, exponential, dampedHyperbolicValues",
+        `return function advance(${PARAMETERS}) {\n${recursionSource(kinds as BlockKind[])}\n};`,
+      );
+      advance = factory(FactorizationError, exponential, dampedHyperbolicValues) as UnrolledAdvance;
+    } catch {
+      advance = undefined; // no run-time compilation on this host
+    }
+  }
+  compiled.set(key, advance);
+  return advance;
+}
+
+/** Compiled recursions by layout (a cache of pure functions of the layout: same input, same code). */
+const compiled = new Map<string, UnrolledAdvance | undefined>();
+
+const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, begin, end";
+
+/** The body of the generated function (see {@link unrolledRecursion}). */
+export function recursionSource(kinds: readonly BlockKind[]): string {
+  const blockSizes = kinds.map((kind) => SIZE[kind]);
+  const starts: number[] = [];
+  let r = 0;
+  for (const m of blockSizes) {
+    starts.push(r);
+    r += m;
+  }
+  const range = (n: number): number[] => Array.from({ length: n }, (_, i) => i);
+  const s = (i: number, j: number): string => `s${i}_${j}`;
+  const lines: string[] = [];
+  const emit = (line: string): void => {
+    lines.push(line);
+  };
+
+  // Constants and state.
+  emit(`"use strict";`);
+  kinds.forEach((kind, b) => {
+    emit(`const block${b} = blocks[${b}];`);
+    if (kind === "exponential") emit(`const rate${b} = block${b}.rate;`);
+    if (kind === "oscillator") emit(`const c${b} = block${b}.halfWidth; const lambda${b} = block${b}.lambda; const w${b} = block${b}.w0;`);
+  });
+  emit(`const phi = new Float64Array(${blockSizes.reduce((a, m) => a + m * m, 0)});`);
+  for (const i of range(r)) emit(`const p${i} = p[${i}]; const q${i} = q[${i}];`);
+  emit(`let variance = 0; ${range(r).map((i) => `variance += p${i} * q${i};`).join(" ")}`);
+  for (const i of range(r)) for (const j of range(r)) emit(`let ${s(i, j)} = state[${i * r + j}];`);
+  for (const i of range(r)) emit(`let f${i} = state[${r * r + i}]; let u${i} = state[${r * r + r + i}];`);
+  SCALAR_NAMES.forEach((name, k) => emit(`let ${name} = scalars[${k}];`));
+
+  emit(`for (let k = begin; k < end; k++) {`);
+  emit(`if (k > 0) {`);
+  // S <- S + u u^T / D ; f <- f + u z / D (row by row, as the general loop)
+  for (const i of range(r)) {
+    emit(`{ const ui = u${i} * previousInverse;`);
+    for (const j of range(r)) emit(`${s(i, j)} += ui * u${j};`);
+    emit(`f${i} += ui * previousZ; }`);
+  }
+  emit(`const dt = time[k] - time[k - 1];`);
+  let phiOffset = 0;
+  const phiNames: string[][] = [];
+  kinds.forEach((kind, b) => {
+    const m = blockSizes[b]!;
+    const names = range(m * m).map((e) => `a${b}_${e}`);
+    if (kind === "exponential") {
+      // ExponentialTransition.transition
+      emit(`const ${names[0]} = exponential(-rate${b} * dt);`);
+    } else if (kind === "oscillator") {
+      // OscillatorTransition.transition
+      emit(`dampedHyperbolicValues(c${b}, lambda${b}, w${b}, dt, phi);`);
+      emit(`const ec${b} = phi[0]; const es${b} = phi[1];`);
+      emit(`const ${names[0]} = ec${b} + es${b} * c${b}; const ${names[1]} = es${b} * w${b};`);
+      emit(`const ${names[2]} = -es${b} * w${b}; const ${names[3]} = ec${b} - es${b} * c${b};`);
+    } else {
+      emit(`block${b}.transition(dt, phi, ${phiOffset});`);
+      names.forEach((name, e) => emit(`const ${name} = phi[${phiOffset + e}];`));
+    }
+    phiNames.push(names);
+    phiOffset += m * m;
+  });
+  // S <- Phi S Phi^T block pair by block pair (TransitionLayout.smallBlockCongruence, not transposed).
+  blockSizes.forEach((ma, a) => {
+    const ia = starts[a]!;
+    const A = phiNames[a]!;
+    blockSizes.forEach((mb, b) => {
+      const jb = starts[b]!;
+      const B = phiNames[b]!;
+      if (ma === 1 && mb === 1) {
+        emit(`${s(ia, jb)} = ${B[0]} * (${A[0]} * ${s(ia, jb)});`);
+      } else if (ma === 1) {
+        emit(`{ const y0 = ${A[0]} * ${s(ia, jb)}; const y1 = ${A[0]} * ${s(ia, jb + 1)};`);
+        emit(`${s(ia, jb)} = ${B[0]} * y0 + ${B[1]} * y1; ${s(ia, jb + 1)} = ${B[2]} * y0 + ${B[3]} * y1; }`);
+      } else if (mb === 1) {
+        emit(`{ const x0 = ${s(ia, jb)}; const x1 = ${s(ia + 1, jb)};`);
+        emit(`${s(ia, jb)} = ${B[0]} * (${A[0]} * x0 + ${A[1]} * x1); ${s(ia + 1, jb)} = ${B[0]} * (${A[2]} * x0 + ${A[3]} * x1); }`);
+      } else {
+        emit(`{ const x00 = ${s(ia, jb)}; const x01 = ${s(ia, jb + 1)}; const x10 = ${s(ia + 1, jb)}; const x11 = ${s(ia + 1, jb + 1)};`);
+        emit(`const y00 = ${A[0]} * x00 + ${A[1]} * x10; const y01 = ${A[0]} * x01 + ${A[1]} * x11;`);
+        emit(`const y10 = ${A[2]} * x00 + ${A[3]} * x10; const y11 = ${A[2]} * x01 + ${A[3]} * x11;`);
+        emit(`${s(ia, jb)} = ${B[0]} * y00 + ${B[1]} * y01; ${s(ia, jb + 1)} = ${B[2]} * y00 + ${B[3]} * y01;`);
+        emit(`${s(ia + 1, jb)} = ${B[0]} * y10 + ${B[1]} * y11; ${s(ia + 1, jb + 1)} = ${B[2]} * y10 + ${B[3]} * y11; }`);
+      }
+    });
+  });
+  // f <- Phi f (TransitionLayout.applyToVector).
+  blockSizes.forEach((m, b) => {
+    const i = starts[b]!;
+    const A = phiNames[b]!;
+    if (m === 1) emit(`f${i} *= ${A[0]};`);
+    else emit(`{ const x0 = f${i}; const x1 = f${i + 1}; f${i} = ${A[0]} * x0 + ${A[1]} * x1; f${i + 1} = ${A[2]} * x0 + ${A[3]} * x1; }`);
+  });
+  emit(`}`);
+  // u = q - S p, D = d + variance - p^T S p, z = r - p^T f.
+  emit(`let pSp = 0; let pf = 0;`);
+  for (const i of range(r)) {
+    emit(`{ let sp = 0; ${range(r).map((j) => `sp += ${s(i, j)} * p${j};`).join(" ")}`);
+    emit(`u${i} = q${i} - sp; pSp += p${i} * sp; pf += p${i} * f${i}; }`);
+  }
+  emit(`const pivot = noiseVariance[k] + variance - pSp;`);
+  emit(`if (!(pivot > 0 && pivot < Infinity)) throw new FactorizationError(k, pivot);`);
+  emit(`const z = residual[k] - pf;`);
+  emit(`previousInverse = 1 / pivot; previousZ = z; quadratic += z * z * previousInverse;`);
+  emit(`if (pivot > ${PIVOT_LOW} && pivot < ${PIVOT_HIGH}) {`);
+  emit(`product *= pivot; if (!(product > ${PRODUCT_LOW} && product < ${PRODUCT_HIGH})) { logDeterminant += Math.log(product); product = 1; }`);
+  emit(`} else { logDeterminant += Math.log(pivot); }`);
+  emit(`}`);
+
+  for (const i of range(r)) for (const j of range(r)) emit(`state[${i * r + j}] = ${s(i, j)};`);
+  for (const i of range(r)) emit(`state[${r * r + i}] = f${i}; state[${r * r + r + i}] = u${i};`);
+  SCALAR_NAMES.forEach((name, k) => emit(`scalars[${k}] = ${name};`));
+  return lines.join("\n");
+}
