@@ -20,22 +20,13 @@ export function fftInPlace(re: Float64Array, im: Float64Array, inverse = false):
     }
   }
   const sign = inverse ? 1 : -1;
-  // One table of exp(-2 pi i k / n), k < n/2, serves every stage (stage `size` uses every (n/size)-th entry),
-  // so the trigonometric functions are called n/2 times, not n/2 log2 n.
-  const half0 = n >> 1;
-  const cosTable = new Float64Array(half0);
-  const sinTable = new Float64Array(half0);
-  for (let k = 0; k < half0; k++) {
-    const angle = (2 * Math.PI * k) / n;
-    cosTable[k] = Math.cos(angle);
-    sinTable[k] = sign * Math.sin(angle);
-  }
+  const { cosTable, sinTable } = twiddleTable(n);
   for (let size = 2; size <= n; size <<= 1) {
     const half = size >> 1;
     const stride = n / size;
     for (let k = 0; k < half; k++) {
       const wr = cosTable[k * stride]!;
-      const wi = sinTable[k * stride]!;
+      const wi = sign * sinTable[k * stride]!;
       for (let start = 0; start < n; start += size) {
         const a = start + k;
         const b = a + half;
@@ -56,3 +47,26 @@ export function nextPowerOfTwo(n: number): number {
   while (m < n) m <<= 1;
   return m;
 }
+
+/**
+ * cos and sin of 2 pi k / n for k < n/2: one table serves every stage of a transform of length n (stage
+ * `size` uses every (n/size)-th entry). Kept per length, since the convergence checks transform chains
+ * of the same few lengths many times (a memo of a pure function of n).
+ */
+function twiddleTable(n: number): { cosTable: Float64Array; sinTable: Float64Array } {
+  let table = twiddles.get(n);
+  if (!table) {
+    const half = n >> 1;
+    table = { cosTable: new Float64Array(half), sinTable: new Float64Array(half) };
+    for (let k = 0; k < half; k++) {
+      const angle = (2 * Math.PI * k) / n;
+      table.cosTable[k] = Math.cos(angle);
+      table.sinTable[k] = Math.sin(angle);
+    }
+    if (twiddles.size >= 24) twiddles.clear();
+    twiddles.set(n, table);
+  }
+  return table;
+}
+
+const twiddles = new Map<number, { cosTable: Float64Array; sinTable: Float64Array }>();

@@ -30,36 +30,33 @@ export function splitChains(chains: readonly ArrayLike<number>[]): Float64Array[
 export function rankNormalize(chains: readonly ArrayLike<number>[]): Float64Array[] {
   const sorted = sortedCopy(pooled(chains));
   const total = sorted.length;
-  // Average rank of x among the pooled draws: ((number below x) + 1 + (number at or below x)) / 2.
-  const below = (x: number): number => {
-    let lo = 0;
-    let hi = total;
-    while (lo < hi) {
-      const mid = (lo + hi) >>> 1;
-      if (sorted[mid]! < x) lo = mid + 1;
-      else hi = mid;
-    }
-    return lo;
-  };
-  const atOrBelow = (x: number): number => {
-    let lo = 0;
-    let hi = total;
-    while (lo < hi) {
-      const mid = (lo + hi) >>> 1;
-      if (sorted[mid]! <= x) lo = mid + 1;
-      else hi = mid;
-    }
-    return lo;
-  };
+  // The normal score of each run of equal sorted values [a, b): average rank (a + 1 + b) / 2, computed
+  // once per run (ensemble draws repeat whenever a move is rejected).
+  const score = new Float64Array(total);
+  for (let a = 0; a < total; ) {
+    let b = a + 1;
+    while (b < total && sorted[b] === sorted[a]) b++;
+    const z = normalQuantile(((a + 1 + b) / 2 - 0.375) / (total + 0.25), 0, 1);
+    score.fill(z, a, b);
+    a = b;
+  }
   return chains.map((chain) => {
     const z = new Float64Array(chain.length);
-    for (let i = 0; i < chain.length; i++) {
-      const x = chain[i]!;
-      const rank = (below(x) + 1 + atOrBelow(x)) / 2;
-      z[i] = normalQuantile((rank - 0.375) / (total + 0.25), 0, 1);
-    }
+    for (let i = 0; i < chain.length; i++) z[i] = score[firstAtOrAbove(sorted, chain[i]!)]!;
     return z;
   });
+}
+
+/** The first index of an ascending array whose value is >= x (binary search). */
+function firstAtOrAbove(sorted: Float64Array, x: number): number {
+  let lo = 0;
+  let hi = sorted.length;
+  while (lo < hi) {
+    const mid = (lo + hi) >>> 1;
+    if (sorted[mid]! < x) lo = mid + 1;
+    else hi = mid;
+  }
+  return lo;
 }
 
 /**

@@ -1,4 +1,5 @@
 import type { FitDiagnostics } from "../models/fit-result.js";
+import { checkGrowthAfter } from "./check-schedule.js";
 import { assessConvergence, DEFAULT_CONVERGENCE_CRITERIA, type ConvergenceCriteria, type ConvergenceReport } from "./convergence-check.js";
 import { evaluationCost, type EvaluationCounts } from "./evaluation-counter.js";
 import { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
@@ -74,7 +75,8 @@ export interface SamplerRun {
 /**
  * Runs a sampler until its draws pass the convergence criteria ({@link assessConvergence}), the budget
  * is spent, or the signal is aborted, and says which. Convergence is checked after `minIterations`
- * kept iterations and then whenever the kept draws have grown by `checkGrowth`, so checks cost a small
+ * kept iterations and then whenever the kept draws have grown by at least `checkGrowth`, further when
+ * the last check says the criteria are far off ({@link checkGrowthAfter}), so checks cost a small
  * fraction of the run. The schedule depends on iteration counts only, never on the clock, so a seed
  * fixes where the run stops. `counts` must be the tally of the target the sampler evaluates.
  */
@@ -139,7 +141,7 @@ export function runSampler(
     const kept = sampler.draws.length;
     if (kept >= nextCheck) {
       report = assess(true);
-      nextCheck = Math.ceil(kept * checkGrowth);
+      nextCheck = Math.ceil(kept * checkGrowthAfter(report, criteria, checkGrowth));
       if (report.converged) {
         stopReason = "converged";
         fraction = 1;
