@@ -99,9 +99,6 @@ export class OscillatorTransition implements TransitionBlock {
   }
 }
 
-/** 1 / (2k)! and 1 / (2k + 1)! for k = 0 .. 10: the series of C and S / dt in x = lambda dt^2. */
-const COSH_SERIES = Float64Array.from({ length: 11 }, (_, k) => 1 / factorial(2 * k));
-const SINH_SERIES = Float64Array.from({ length: 11 }, (_, k) => 1 / factorial(2 * k + 1));
 /** (k + 1) / (2k + 3)! for k = 0 .. 10: the series of dS/dlambda / dt^3. */
 const SINH_DERIVATIVE_SERIES = Float64Array.from({ length: 11 }, (_, k) => (k + 1) / factorial(2 * k + 3));
 
@@ -122,10 +119,14 @@ export function dampedHyperbolicValues(c: number, lambda: number, w0: number, dt
   const x = lambda * dt * dt;
   if (x > -1 && x < 1) {
     const e = exponential(-c * dt);
-    const a = COSH_SERIES;
-    const b = SINH_SERIES;
-    const cosh = a[0] + x * (a[1] + x * (a[2] + x * (a[3] + x * (a[4] + x * (a[5] + x * (a[6] + x * (a[7] + x * (a[8] + x * (a[9] + x * a[10])))))))));
-    const sinh = b[0] + x * (b[1] + x * (b[2] + x * (b[3] + x * (b[4] + x * (b[5] + x * (b[6] + x * (b[7] + x * (b[8] + x * (b[9] + x * b[10])))))))));
+    // Coefficients 1 / (2k)! and 1 / (2k + 1)! as literals (exact integers up to 21!, so each quotient is
+    // the correctly rounded reciprocal): V8 folds them into the code.
+    const cosh =
+      1 + x * (1 / 2 + x * (1 / 24 + x * (1 / 720 + x * (1 / 40320 + x * (1 / 3628800 + x * (1 / 479001600 +
+      x * (1 / 87178291200 + x * (1 / 20922789888000 + x * (1 / 6402373705728000 + x * (1 / 2432902008176640000))))))))));
+    const sinh =
+      1 + x * (1 / 6 + x * (1 / 120 + x * (1 / 5040 + x * (1 / 362880 + x * (1 / 39916800 + x * (1 / 6227020800 +
+      x * (1 / 1307674368000 + x * (1 / 355687428096000 + x * (1 / 121645100408832000 + x * (1 / 51090942171709440000))))))))));
     out[0] = e * cosh;
     out[1] = e * (dt * sinh);
   } else if (lambda < 0) {

@@ -116,6 +116,7 @@ export function recursionSource(kinds: readonly BlockKind[]): string {
   for (const i of range(r)) emit(`let f${i} = state[${r * r + i}]; let u${i} = state[${r * r + r + i}];`);
   SCALAR_NAMES.forEach((name, k) => emit(`let ${name} = scalars[${k}];`));
 
+  emit(`let failedAt = -1; let failedPivot = 0;`);
   emit(`for (let k = begin; k < end; k++) {`);
   emit(`if (k > 0) {`);
   // S <- S + u u^T / D ; f <- f + u z / D (row by row, as the general loop)
@@ -185,7 +186,7 @@ export function recursionSource(kinds: readonly BlockKind[]): string {
     emit(`u${i} = q${i} - sp; pSp += p${i} * sp; pf += p${i} * f${i}; }`);
   }
   emit(`const pivot = noiseVariance[k] + variance - pSp;`);
-  emit(`if (!(pivot > 0 && pivot < Infinity)) throw new FactorizationError(k, pivot);`);
+  emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
   emit(`const z = residual[k] - pf;`);
   emit(`previousInverse = 1 / pivot; previousZ = z; quadratic += z * z * previousInverse;`);
   emit(`if (pivot > ${PIVOT_LOW} && pivot < ${PIVOT_HIGH}) {`);
@@ -196,5 +197,6 @@ export function recursionSource(kinds: readonly BlockKind[]): string {
   for (const i of range(r)) for (const j of range(r)) emit(`state[${i * r + j}] = ${s(i, j)};`);
   for (const i of range(r)) emit(`state[${r * r + i}] = f${i}; state[${r * r + r + i}] = u${i};`);
   SCALAR_NAMES.forEach((name, k) => emit(`scalars[${k}] = ${name};`));
+  emit(`if (failedAt >= 0) throw new FactorizationError(failedAt, failedPivot);`);
   return lines.join("\n");
 }
