@@ -11,11 +11,15 @@
  *   - S <- Phi (S + u u^T / D) Phi^T one block pair at a time, exactly as TransitionLayout.applyCongruence
  *     does for blocks of size 1 and 2;
  *   - sum log D as the log of a running product of pivots, folded in when it leaves [1e-150, 1e150];
- *   - for one-block kernels (R = 1 and 2) the state in local variables, as the TS engine does.
+ *   - for one-block kernels (R = 1 and 2) the state in local variables; for more blocks a general loop over
+ *     small arrays. (The TS engine writes the recursion out with the state in locals for every layout of
+ *     1x1 and 2x2 blocks, src/linalg/unrolled-recursion.ts: V8 keeps locals in registers but bounds-checks
+ *     every typed-array access, while gcc keeps these small arrays in L1 and vectorises the short loops.)
  *
  * One evaluation = "build the kernel from its physical parameters + evaluate", like the TypeScript
  * benchmark's `new GaussianProcess(kernel, t, { yerr, mean }).logLikelihood(y)`: the inputs are checked
- * (finite, sorted), the noise variances yerr^2 and the residuals y - mean are formed, then the recursion runs.
+ * (finite, sorted), the times copied and the noise variances yerr^2 formed, the values checked, then the
+ * recursion runs, subtracting the mean on the fly.
  *
  * Usage:
  *   engine-loglike [--repeat K] [--rounds M] DATAFILE TERM [TERM ...]
@@ -300,7 +304,7 @@ static const double PIVOT_LOW = 1e-100, PIVOT_HIGH = 1e100;
 static const double PRODUCT_LOW = 1e-150, PRODUCT_HIGH = 1e150;
 
 static double general_recursion(const form_t *form, size_t n, const double *time, const double *noise,
-                                const double *residual) {
+                                const double *residual, double mean) {
   const int r = form->dimension;
   const double *p = form->p;
   const double *q = form->q;
@@ -338,7 +342,7 @@ static double general_recursion(const form_t *form, size_t n, const double *time
       fprintf(stderr, "engine-loglike: not positive definite at point %zu (pivot %g)\n", k, pivot);
       return NAN;
     }
-    double z = residual[k] - p_f;
+    double z = (residual[k] - mean) - p_f;
     previous_inverse = 1 / pivot;
     previous_z = z;
     quadratic += z * z * previous_inverse;
@@ -380,7 +384,7 @@ static double not_positive_definite(size_t k, double pivot) {
  * the same operations in the same order as the general loop.
  */
 static double one_block_recursion(const form_t *form, size_t n, const double *time, const double *noise,
-                                  const double *residual) {
+                                  const double *residual, double mean) {
   const double p0 = form->p[0], q0 = form->q[0];
   const double variance = 0 + p0 * q0;
   double s = 0, f = 0, u = 0, phi[4];
@@ -399,7 +403,7 @@ static double one_block_recursion(const form_t *form, size_t n, const double *ti
     u = q0 - sp;
     double pivot = noise[k] + variance - p0 * sp;
     if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
-    double z = residual[k] - p0 * f;
+    double z = (residual[k] - mean) - p0 * f;
     previous_inverse = 1 / pivot;
     previous_z = z;
     quadratic += z * z * previous_inverse;
@@ -411,7 +415,7 @@ static double one_block_recursion(const form_t *form, size_t n, const double *ti
 
 /* One 2 x 2 block (R = 2) with the state in local variables, as advanceTwo. */
 static double two_block_recursion(const form_t *form, size_t n, const double *time, const double *noise,
-                                  const double *residual) {
+                                  const double *residual, double mean) {
   const double p0 = form->p[0], p1 = form->p[1], q0 = form->q[0], q1 = form->q[1];
   const double variance = 0 + p0 * q0 + p1 * q1;
   double s00 = 0, s01 = 0, s10 = 0, s11 = 0, f0 = 0, f1 = 0, u0 = 0, u1 = 0, phi[4];
@@ -444,7 +448,7 @@ static double two_block_recursion(const form_t *form, size_t n, const double *ti
     double p_f = 0 + p0 * f0 + p1 * f1;
     double pivot = noise[k] + variance - p_s_p;
     if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
-    double z = residual[k] - p_f;
+    double z = (residual[k] - mean) - p_f;
     previous_inverse = 1 / pivot;
     previous_z = z;
     quadratic += z * z * previous_inverse;
@@ -454,11 +458,16 @@ static double two_block_recursion(const form_t *form, size_t n, const double *ti
   return -0.5 * (quadratic + log_determinant) - (double)n * HALF_LOG_TWO_PI;
 }
 
-/* The log-likelihood: the one-block recursions for R = 1 and 2, the general loop otherwise (as the TS engine). */
-static double recursion(const form_t *form, size_t n, const double *time, const double *noise, const double *residual) {
-  if (form->block_count == 1 && form->block_size[0] == 1) return one_block_recursion(form, n, time, noise, residual);
-  if (form->block_count == 1 && form->block_size[0] == 2) return two_block_recursion(form, n, time, noise, residual);
-  return general_recursion(form, n, time, noise, residual);
+/*
+ * The log-likelihood: the one-block recursions with the state in locals for R = 1 and 2, the general loop
+ * otherwise. residual[k] - mean enters the recursion: "core" passes prepared residuals and mean 0, "full"
+ * the values and their mean, as the TypeScript GaussianProcess does (no array of residuals is formed).
+ */
+static double recursion(const form_t *form, size_t n, const double *time, const double *noise, const double *residual,
+                        double mean) {
+  if (form->block_count == 1 && form->block_size[0] == 1) return one_block_recursion(form, n, time, noise, residual, mean);
+  if (form->block_count == 1 && form->block_size[0] == 2) return two_block_recursion(form, n, time, noise, residual, mean);
+  return general_recursion(form, n, time, noise, residual, mean);
 }
 
 /* ---------- data and one evaluation ---------- */
@@ -486,32 +495,31 @@ static void read_data(const char *path, data_t *data) {
   fclose(file);
 }
 
-/* Build the kernel from its parameters, check and prepare the inputs, run the recursion. */
+/*
+ * Build the kernel from its parameters, check and prepare the inputs, run the recursion: the work of
+ * `new GaussianProcess(kernel, t, { yerr, mean }).logLikelihood(y)` in TypeScript, which copies the times
+ * and forms yerr^2 in one checking pass, checks the values, and lets the recursion subtract the mean.
+ */
 static double evaluate(const term_t *terms, int term_count, const data_t *data) {
   form_t form;
   build_form(&form, terms, term_count);
   size_t n = data->n;
-  const double *t = data->time;
-  for (size_t i = 0; i < n; i++) {
-    if (!isfinite(t[i])) die("time is not finite", NULL);
-    if (i > 0 && t[i] < t[i - 1]) die("times must be sorted", NULL);
-  }
+  double *time = malloc(sizeof(double) * n);
   double *noise = malloc(sizeof(double) * n);
-  double *residual = malloc(sizeof(double) * n);
-  if (!noise || !residual) die("out of memory", NULL);
+  if (!time || !noise) die("out of memory", NULL);
   for (size_t i = 0; i < n; i++) {
-    double e = data->yerr[i];
+    double t = data->time[i], e = data->yerr[i];
+    if (!isfinite(t)) die("time is not finite", NULL);
+    if (i > 0 && t < time[i - 1]) die("times must be sorted", NULL);
     if (!isfinite(e) || e < 0) die("error must be finite and >= 0", NULL);
+    time[i] = t;
     noise[i] = e * e;
   }
-  for (size_t i = 0; i < n; i++) {
-    double y = data->value[i];
-    if (!isfinite(y)) die("value is not finite", NULL);
-    residual[i] = y - data->mean;
-  }
-  double result = recursion(&form, n, t, noise, residual);
+  for (size_t i = 0; i < n; i++)
+    if (!isfinite(data->value[i])) die("value is not finite", NULL);
+  double result = recursion(&form, n, time, noise, data->value, data->mean);
+  free(time);
   free(noise);
-  free(residual);
   return result;
 }
 
@@ -575,7 +583,7 @@ int main(int argc, char **argv) {
       double start = now_seconds();
       double cpu_start = cpu_seconds();
       if (core)
-        for (long i = 0; i < k; i++) value = recursion(&form, data.n, data.time, noise, residual);
+        for (long i = 0; i < k; i++) value = recursion(&form, data.n, data.time, noise, residual, 0);
       else
         for (long i = 0; i < k; i++) value = evaluate(terms, term_count, &data);
       double cpu = cpu_seconds() - cpu_start;

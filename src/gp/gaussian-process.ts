@@ -6,6 +6,7 @@ import { semiseparableLogLikelihood } from "../linalg/semiseparable-likelihood.j
 import { semiseparablePredict } from "../linalg/semiseparable-smoother.js";
 import type { Rng } from "../random/rng.js";
 import {
+  checkValues,
   conditionInputs,
   residualOf,
   sortTargets,
@@ -88,7 +89,8 @@ export class GaussianProcess {
 
   /** log N(y | mean, K + diag(yerr^2 + jitter^2)), in one O(N R^2) pass with O(R^2) memory. */
   logLikelihood(y: ArrayLike<number>): number {
-    return semiseparableLogLikelihood(this.form, this.inputs.time, this.inputs.noiseVariance, residualOf(y, this.inputs));
+    checkValues(y, this.inputs);
+    return semiseparableLogLikelihood(this.form, this.inputs.time, this.inputs.noiseVariance, y, { mean: this.inputs.mean });
   }
 
   /**

@@ -107,6 +107,23 @@ export function withMeanAndJitter(inputs: ConditionedInputs, options: Pick<Gauss
   return { time: inputs.time, errorVariance: inputs.errorVariance, mean, jitter, noiseVariance };
 }
 
+/** Checks that y has one finite value per time (without copying it). */
+export function checkValues(y: ArrayLike<number>, inputs: ConditionedInputs): void {
+  const n = inputs.time.length;
+  if (y.length !== n) throw new RangeError(`GaussianProcess: y has ${y.length} values for ${n} times`);
+  const bad = firstNonFinite(y);
+  if (bad < n) throw new RangeError(`GaussianProcess: y[${bad}] is not finite (${y[bad]})`);
+}
+
+/** The index of the first value that is not finite, or the length. */
+function firstNonFinite(y: ArrayLike<number>): number {
+  for (let i = 0; i < y.length; i++) {
+    const yi = y[i];
+    if (!(yi - yi === 0)) return i;
+  }
+  return y.length;
+}
+
 /** Checks that y has one finite value per time and returns y - mean. */
 export function residualOf(y: ArrayLike<number>, inputs: ConditionedInputs): Float64Array {
   const n = inputs.time.length;

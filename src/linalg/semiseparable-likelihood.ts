@@ -39,17 +39,19 @@ const SCALAR_SLOTS = 5;
  * @param form the kernel's semiseparable form
  * @param time sorted times (the time origin does not matter: only differences enter)
  * @param noiseVariance per-point white-noise variance added to the diagonal (errors^2 + jitter^2)
- * @param residual data minus mean
- * @param options `unrolled: false` runs the general loop even where a written-out recursion exists (for
- *   tests; both give bit-identical results)
+ * @param residual data minus mean, or the data themselves with `options.mean`
+ * @param options `mean`: a constant subtracted from every value of `residual` on the fly (default 0),
+ *   which spares the caller an N-sized array of residuals; `unrolled: false` runs the general loop even
+ *   where a written-out recursion exists (for tests; both give bit-identical results)
  */
 export function semiseparableLogLikelihood(
   form: SemiseparableForm,
   time: ArrayLike<number>,
   noiseVariance: ArrayLike<number>,
   residual: ArrayLike<number>,
-  options: { readonly unrolled?: boolean } = {},
+  options: { readonly unrolled?: boolean; readonly mean?: number } = {},
 ): number {
+  const mean = options.mean ?? 0;
   const scalars = new Float64Array(SCALAR_SLOTS);
   scalars[PRODUCT] = 1;
   const n = time.length;
@@ -63,7 +65,7 @@ export function semiseparableLogLikelihood(
     const r = p.length;
     const state = new Float64Array(r * r + 2 * r);
     for (let begin = 0; begin < n; begin += CHUNK) {
-      unrolled(blocks, p, q, state, scalars, time, noiseVariance, residual, begin, Math.min(n, begin + CHUNK));
+      unrolled(blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, Math.min(n, begin + CHUNK));
     }
   } else {
     const layout = new TransitionLayout(form);
@@ -72,7 +74,7 @@ export function semiseparableLogLikelihood(
     const f = new Float64Array(r);
     const u = new Float64Array(r);
     for (let begin = 0; begin < n; begin += CHUNK) {
-      advance(layout, p, q, s, f, u, scalars, time, noiseVariance, residual, begin, Math.min(n, begin + CHUNK));
+      advance(layout, p, q, s, f, u, scalars, time, noiseVariance, residual, mean, begin, Math.min(n, begin + CHUNK));
     }
   }
   const logDeterminant = scalars[LOG_DETERMINANT] + Math.log(scalars[PRODUCT]);
@@ -93,6 +95,7 @@ function advance(
   time: ArrayLike<number>,
   noiseVariance: ArrayLike<number>,
   residual: ArrayLike<number>,
+  mean: number,
   begin: number,
   end: number,
 ): void {
@@ -129,7 +132,7 @@ function advance(
     }
     const pivot = noiseVariance[k] + variance - pSp;
     if (!(pivot > 0 && pivot < Infinity)) throw new FactorizationError(k, pivot);
-    const z = residual[k] - pf;
+    const z = residual[k] - mean - pf;
     previousInverse = 1 / pivot;
     previousZ = z;
     quadratic += z * z * previousInverse;

@@ -27,6 +27,7 @@ export type UnrolledAdvance = (
   time: ArrayLike<number>,
   noiseVariance: ArrayLike<number>,
   residual: ArrayLike<number>,
+  mean: number,
   begin: number,
   end: number,
 ) => void;
@@ -84,7 +85,7 @@ export function unrolledRecursion(blocks: readonly TransitionBlock[]): UnrolledA
 /** Compiled recursions by layout (a cache of pure functions of the layout: same input, same code). */
 const compiled = new Map<string, UnrolledAdvance | undefined>();
 
-const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, begin, end";
+const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, end";
 
 /** The body of the generated function (see {@link unrolledRecursion}). */
 export function recursionSource(kinds: readonly BlockKind[]): string {
@@ -187,7 +188,7 @@ export function recursionSource(kinds: readonly BlockKind[]): string {
   }
   emit(`const pivot = noiseVariance[k] + variance - pSp;`);
   emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
-  emit(`const z = residual[k] - pf;`);
+  emit(`const z = (residual[k] - mean) - pf;`);
   emit(`previousInverse = 1 / pivot; previousZ = z; quadratic += z * z * previousInverse;`);
   emit(`if (pivot > ${PIVOT_LOW} && pivot < ${PIVOT_HIGH}) {`);
   emit(`product *= pivot; if (!(product > ${PRODUCT_LOW} && product < ${PRODUCT_HIGH})) { logDeterminant += Math.log(product); product = 1; }`);
