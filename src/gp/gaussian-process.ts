@@ -1,4 +1,5 @@
 import type { Kernel } from "../kernels/kernel.js";
+import { semiseparableMeanMarginal, type MeanMarginal, type MeanPrior } from "../linalg/mean-marginal-likelihood.js";
 import { formVariance, type SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { SemiseparableFactorization } from "../linalg/semiseparable-factorization.js";
 import { semiseparableLogLikelihoodGradient } from "../linalg/semiseparable-gradient.js";
@@ -91,6 +92,16 @@ export class GaussianProcess {
   logLikelihood(y: ArrayLike<number>): number {
     checkValues(y, this.inputs);
     return semiseparableLogLikelihood(this.form, this.inputs.time, this.inputs.noiseVariance, y, { mean: this.inputs.mean });
+  }
+
+  /**
+   * log p(y | kernel) with the constant mean integrated out under a normal prior, and the mean's
+   * Gaussian posterior given the kernel ({@link semiseparableMeanMarginal}, Rybicki & Press 1992). The
+   * process's own `mean` option plays no part. One O(N R^2) pass.
+   */
+  meanMarginal(y: ArrayLike<number>, prior: MeanPrior): MeanMarginal {
+    checkValues(y, this.inputs);
+    return semiseparableMeanMarginal(this.form, this.inputs.time, this.inputs.noiseVariance, y, prior);
   }
 
   /**

@@ -35,8 +35,9 @@ export type UnrolledAdvance = (
 /** Largest state dimension written out (the code grows as R^2). */
 export const MAX_UNROLLED_DIMENSION = 10;
 
-/** Slots of `scalars` shared with semiseparable-likelihood.ts. */
+/** Slots of `scalars` shared with semiseparable-likelihood.ts (the last three only with a constant column). */
 const SCALAR_NAMES = ["previousInverse", "previousZ", "quadratic", "logDeterminant", "product"] as const;
+const COLUMN_SCALAR_NAMES = ["previousW", "columnQuadratic", "crossQuadratic"] as const;
 
 /**
  * How a block enters the written-out code: exponential and oscillator blocks have their transitions
@@ -60,18 +61,26 @@ const SIZE: Record<BlockKind, number> = { exponential: 1, oscillator: 2, generic
  * than 2 x 2, R above {@link MAX_UNROLLED_DIMENSION}) or code cannot be compiled here.
  * `state` holds S (R x R, row-major), then f, then u (R each) between calls; `scalars` the five running
  * scalars in the order previousInverse, previousZ, quadratic, logDeterminant, product.
+ *
+ * With `constantColumn`, the forward substitution also runs on a column of ones (state g after u in
+ * `state`, R more values), and three more scalars follow: the previous w, sum w^2 / D = 1^T K^-1 1 and
+ * sum z w / D = 1^T K^-1 r, which integrate a constant mean out (see semiseparableMeanMarginal).
  */
-export function unrolledRecursion(blocks: readonly TransitionBlock[]): UnrolledAdvance | undefined {
+export function unrolledRecursion(
+  blocks: readonly TransitionBlock[],
+  options: { readonly constantColumn?: boolean } = {},
+): UnrolledAdvance | undefined {
   const kinds = blocks.map(blockKind);
   if (kinds.some((k) => k === undefined)) return undefined;
-  const key = kinds.join(",");
+  const withColumn = options.constantColumn === true;
+  const key = kinds.join(",") + (withColumn ? "+ones" : "");
   if (compiled.has(key)) return compiled.get(key);
   let advance: UnrolledAdvance | undefined;
   if (blocks.reduce((r, b) => r + b.size, 0) <= MAX_UNROLLED_DIMENSION) {
     try {
       const factory = new Function(
         "FactorizationError, exponential, dampedHyperbolicValues",
-        `return function advance(${PARAMETERS}) {\n${recursionSource(kinds as BlockKind[])}\n};`,
+        `return function advance(${PARAMETERS}) {\n${recursionSource(kinds as BlockKind[], withColumn)}\n};`,
       );
       advance = factory(FactorizationError, exponential, dampedHyperbolicValues) as UnrolledAdvance;
     } catch {
@@ -88,7 +97,7 @@ const compiled = new Map<string, UnrolledAdvance | undefined>();
 const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, end";
 
 /** The body of the generated function (see {@link unrolledRecursion}). */
-export function recursionSource(kinds: readonly BlockKind[]): string {
+export function recursionSource(kinds: readonly BlockKind[], withColumn = false): string {
   const blockSizes = kinds.map((kind) => SIZE[kind]);
   const starts: number[] = [];
   let r = 0;
@@ -116,6 +125,10 @@ export function recursionSource(kinds: readonly BlockKind[]): string {
   for (const i of range(r)) for (const j of range(r)) emit(`let ${s(i, j)} = state[${i * r + j}];`);
   for (const i of range(r)) emit(`let f${i} = state[${r * r + i}]; let u${i} = state[${r * r + r + i}];`);
   SCALAR_NAMES.forEach((name, k) => emit(`let ${name} = scalars[${k}];`));
+  if (withColumn) {
+    for (const i of range(r)) emit(`let g${i} = state[${r * r + 2 * r + i}];`);
+    COLUMN_SCALAR_NAMES.forEach((name, k) => emit(`let ${name} = scalars[${SCALAR_NAMES.length + k}];`));
+  }
 
   emit(`let failedAt = -1; let failedPivot = 0;`);
   emit(`for (let k = begin; k < end; k++) {`);
@@ -124,7 +137,7 @@ export function recursionSource(kinds: readonly BlockKind[]): string {
   for (const i of range(r)) {
     emit(`{ const ui = u${i} * previousInverse;`);
     for (const j of range(r)) emit(`${s(i, j)} += ui * u${j};`);
-    emit(`f${i} += ui * previousZ; }`);
+    emit(`f${i} += ui * previousZ;${withColumn ? ` g${i} += ui * previousW;` : ""} }`);
   }
   emit(`const dt = time[k] - time[k - 1];`);
   let phiOffset = 0;
@@ -176,20 +189,25 @@ export function recursionSource(kinds: readonly BlockKind[]): string {
   blockSizes.forEach((m, b) => {
     const i = starts[b]!;
     const A = phiNames[b]!;
-    if (m === 1) emit(`f${i} *= ${A[0]};`);
-    else emit(`{ const x0 = f${i}; const x1 = f${i + 1}; f${i} = ${A[0]} * x0 + ${A[1]} * x1; f${i + 1} = ${A[2]} * x0 + ${A[3]} * x1; }`);
+    for (const v of withColumn ? ["f", "g"] : ["f"]) {
+      if (m === 1) emit(`${v}${i} *= ${A[0]};`);
+      else emit(`{ const x0 = ${v}${i}; const x1 = ${v}${i + 1}; ${v}${i} = ${A[0]} * x0 + ${A[1]} * x1; ${v}${i + 1} = ${A[2]} * x0 + ${A[3]} * x1; }`);
+    }
   });
   emit(`}`);
   // u = q - S p, D = d + variance - p^T S p, z = r - p^T f.
-  emit(`let pSp = 0; let pf = 0;`);
+  emit(`let pSp = 0; let pf = 0;${withColumn ? " let pg = 0;" : ""}`);
   for (const i of range(r)) {
     emit(`{ let sp = 0; ${range(r).map((j) => `sp += ${s(i, j)} * p${j};`).join(" ")}`);
-    emit(`u${i} = q${i} - sp; pSp += p${i} * sp; pf += p${i} * f${i}; }`);
+    emit(`u${i} = q${i} - sp; pSp += p${i} * sp; pf += p${i} * f${i};${withColumn ? ` pg += p${i} * g${i};` : ""} }`);
   }
   emit(`const pivot = noiseVariance[k] + variance - pSp;`);
   emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
   emit(`const z = (residual[k] - mean) - pf;`);
   emit(`previousInverse = 1 / pivot; previousZ = z; quadratic += z * z * previousInverse;`);
+  if (withColumn) {
+    emit(`const w = 1 - pg; columnQuadratic += w * w * previousInverse; crossQuadratic += z * w * previousInverse; previousW = w;`);
+  }
   emit(`if (pivot > ${PIVOT_LOW} && pivot < ${PIVOT_HIGH}) {`);
   emit(`product *= pivot; if (!(product > ${PRODUCT_LOW} && product < ${PRODUCT_HIGH})) { logDeterminant += Math.log(product); product = 1; }`);
   emit(`} else { logDeterminant += Math.log(pivot); }`);
@@ -198,6 +216,10 @@ export function recursionSource(kinds: readonly BlockKind[]): string {
   for (const i of range(r)) for (const j of range(r)) emit(`state[${i * r + j}] = ${s(i, j)};`);
   for (const i of range(r)) emit(`state[${r * r + i}] = f${i}; state[${r * r + r + i}] = u${i};`);
   SCALAR_NAMES.forEach((name, k) => emit(`scalars[${k}] = ${name};`));
+  if (withColumn) {
+    for (const i of range(r)) emit(`state[${r * r + 2 * r + i}] = g${i};`);
+    COLUMN_SCALAR_NAMES.forEach((name, k) => emit(`scalars[${SCALAR_NAMES.length + k}] = ${name};`));
+  }
   emit(`if (failedAt >= 0) throw new FactorizationError(failedAt, failedPivot);`);
   return lines.join("\n");
 }

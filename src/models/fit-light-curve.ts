@@ -1,4 +1,5 @@
 import {
+  DEFAULT_SAMPLER,
   posteriorDraws,
   samplePosterior,
   summarizeDraws,
@@ -8,7 +9,7 @@ import {
 } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { computePeriodogram } from "../periodogram/periodogram.js";
-import { childSeed } from "../random/rng.js";
+import { childSeed, createRng } from "../random/rng.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
 import { summarizeLightCurve, type DataSummary } from "./data-summary.js";
 import { derivedQuantities } from "./derived-quantities.js";
@@ -16,6 +17,7 @@ import { fitWarnings } from "./fit-warnings.js";
 import type { FitOptions } from "./fit-options.js";
 import type { FitResult, ParameterSummary } from "./fit-result.js";
 import { buildModel, modelLikelihood, type LightCurveModel } from "./light-curve-model.js";
+import { collapseMean, restoreMean } from "./mean-marginal.js";
 import { findPeriodModes, type PeriodMode } from "./period-modes.js";
 import { robustNoiseWeights, withNoiseWeights, type RobustNoise } from "./robust-noise.js";
 
@@ -52,7 +54,9 @@ export function fitLightCurve(lightCurve: LightCurve, options: FitOptions): FitR
  *    first guess of the period, and the modes at P, P/2 and 2P are located and weighted by their Laplace
  *    evidence; every mode with more than 1% of the probability is sampled, and the draws are pooled in
  *    proportion to the modes' probabilities, so a multimodal posterior is reported as such;
- * 3. the posterior is sampled until converged or out of budget (`samplePosterior`);
+ * 3. the posterior is sampled until converged or out of budget (`samplePosterior`); with the ensemble
+ *    sampler the constant mean is integrated out analytically and drawn afterwards from its conditional
+ *    posterior (`collapseMean`), which removes the funnel between timescale and mean;
  * 4. summaries, derived quantities (SF_inf, rest-frame tau, coherence time), diagnostics and warnings.
  */
 export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOptions): DetailedFit {
@@ -84,10 +88,16 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   const sampled = modes.filter((m) => m.probability >= MODE_THRESHOLD);
   const starts = sampled.length > 0 ? sampled.map((m) => m.parameters) : [model.initialGuess];
   const budget = options.maxEvaluations ?? 2e6;
+  // The ensemble samples the other parameters with the mean integrated out (mean-marginal.ts); NUTS,
+  // which needs a gradient, samples the mean with them.
+  const collapsed = (options.sampler ?? DEFAULT_SAMPLER) === "ensemble" ? collapseMean(model, conditioning) : undefined;
+  const sampledSpace = collapsed?.space ?? model.space;
+  const withoutMean = (record: Readonly<Record<string, number>>): Record<string, number> =>
+    Object.fromEntries(Object.entries(record).filter(([name]) => sampledSpace.names.includes(name)));
   const runs = starts.map((initial, k) =>
-    samplePosterior(model.space, likelihood, {
+    samplePosterior(sampledSpace, collapsed?.likelihood ?? likelihood, {
       seed: starts.length === 1 ? options.seed : childSeed(options.seed, 100 + k),
-      initial,
+      initial: withoutMean(initial),
       starts: sampled.length > 0 ? 1 : 6,
       maxEvaluations: budget / starts.length,
       ...(options.sampler ? { sampler: options.sampler } : {}),
@@ -97,7 +107,16 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     }),
   );
   const weights = sampled.length > 0 ? renormalised(sampled.map((m) => m.probability)) : [1];
-  const draws = pooledDraws(runs.map((run) => posteriorDraws(run.space, run.run)), weights);
+  const runDraws = runs.map((run, k) => {
+    const sampledDraws = posteriorDraws(run.space, run.run);
+    return collapsed ? restoreMean(model, collapsed, sampledDraws, createRng(childSeed(options.seed, 200 + k))) : sampledDraws;
+  });
+  const draws = pooledDraws(runDraws, weights);
+  let maximumPosterior = runs[0].maximum;
+  if (collapsed) {
+    const meanAtMaximum = collapsed.meanPosterior(collapsed.space.physicalFromRecord(maximumPosterior)).mean;
+    maximumPosterior = Object.fromEntries(model.space.names.map((name) => [name, name === "mean" ? meanAtMaximum : maximumPosterior[name]!]));
+  }
   const parameters: Record<string, ParameterSummary> = {};
   for (const name of model.space.names) parameters[name] = compactSummary(summarizeDraws(draws.columns[name]));
   const derived: Record<string, ParameterSummary & { description: string }> = {};
@@ -166,7 +185,7 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
         }
       : {}),
     priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, ...p.prior.settings }])),
-    maximumPosterior: runs[0].maximum,
+    maximumPosterior,
     ...(modes.length > 0 ? { periodModes: modes.map((m) => ({ period: m.period, probability: m.probability })) } : {}),
     ...(periodGuess !== undefined ? { periodogramPeriod: periodGuess } : {}),
     posteriorSample: thinnedSample(draws, options.keptDraws ?? 400),

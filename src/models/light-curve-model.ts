@@ -148,15 +148,7 @@ export function modelLikelihood(model: LightCurveModel, lightCurve: LightCurve):
   const meanIndex = names.indexOf("mean");
   const jitterIndex = names.indexOf("jitter");
   const y = lightCurve.value;
-  // The light curve's times and errors are checked once; every evaluation reuses them.
-  let base: GaussianProcess | undefined;
-  const processAt = (physical: ArrayLike<number>): GaussianProcess => {
-    if (!base) return (base = model.processAt(physical, lightCurve));
-    return base.withKernel(model.kernelAt(physical), {
-      mean: physical[meanIndex],
-      jitter: jitterIndex >= 0 ? physical[jitterIndex] : 0,
-    });
-  };
+  const processAt = processFactory(model, lightCurve);
   return {
     logLikelihood(physical) {
       try {
@@ -181,5 +173,22 @@ export function modelLikelihood(model: LightCurveModel, lightCurve: LightCurve):
         throw error;
       }
     },
+  };
+}
+
+/**
+ * `model.processAt` for one light curve, checking and copying its times and errors once: every later
+ * call reuses them through `GaussianProcess.withKernel`, which is what a sampler needs at every step.
+ */
+export function processFactory(model: LightCurveModel, lightCurve: LightCurve): (physical: ArrayLike<number>) => GaussianProcess {
+  const meanIndex = model.space.names.indexOf("mean");
+  const jitterIndex = model.space.names.indexOf("jitter");
+  let base: GaussianProcess | undefined;
+  return (physical) => {
+    if (!base) return (base = model.processAt(physical, lightCurve));
+    return base.withKernel(model.kernelAt(physical), {
+      mean: physical[meanIndex],
+      jitter: jitterIndex >= 0 ? physical[jitterIndex] : 0,
+    });
   };
 }
