@@ -2,7 +2,7 @@ import { createReadStream } from "node:fs";
 import { createInterface } from "node:readline";
 import type { Readable } from "node:stream";
 import { createGunzip } from "node:zlib";
-import { assembleLightCurves } from "./assemble-light-curves.js";
+import { finishObject, newObjectRows, notContiguous, type CatalogueEntry, type ObjectRows } from "./catalogue-object-rows.js";
 import { chooseColumns, findColumn, type ColumnChoice } from "./column-choice.js";
 import { isSkippableLine } from "./delimited-text.js";
 import {
@@ -15,8 +15,8 @@ import {
   type DelimitedReadOptions,
 } from "./delimited-light-curve.js";
 import { InputError } from "./input-error.js";
-import type { LightCurve } from "./light-curve.js";
 import { formatFromName } from "./light-curve-format.js";
+import { streamParquetCatalogue } from "./parquet-catalogue-stream.js";
 
 /** Options of {@link streamCatalogue}: the light-curve reader's options plus the object-id column. */
 export interface CatalogueStreamOptions extends DelimitedReadOptions {
@@ -24,22 +24,11 @@ export interface CatalogueStreamOptions extends DelimitedReadOptions {
   readonly idColumn: string;
 }
 
-/** One object of a catalogue table. */
-export interface CatalogueEntry {
-  readonly id: string;
-  /** The object's light curves: one per band, or one; empty when `problem` is set. */
-  readonly lightCurves: LightCurve[];
-  /** The light curve when there is exactly one (a single band, or `band` chosen). */
-  readonly lightCurve?: LightCurve;
-  /** Dropped rows, sorting, assumed units. */
-  readonly warnings: string[];
-  /** Why this object has no light curve: a one-line message naming file, line and column. */
-  readonly problem?: string;
-}
+export type { CatalogueEntry } from "./catalogue-object-rows.js";
 
 /**
  * Streams a delimited-text catalogue (CSV, TSV, whitespace; optionally .gz) holding many objects, one
- * row per observation and an object-id column, yielding one object at a time so memory stays flat
+ * row per observation and an object-id column (a Parquet table goes to {@link streamParquetCatalogue}), yielding one object at a time so memory stays flat
  * whatever the file size. Requirement: the rows of each object must be contiguous (the file grouped
  * or sorted by id, as `sort` or a database export gives); an id that reappears after another object
  * ends the stream with an InputError naming the line. Within an object, rows may be in any time order.
@@ -52,8 +41,12 @@ export interface CatalogueEntry {
  */
 export async function* streamCatalogue(path: string, options: CatalogueStreamOptions): AsyncGenerator<CatalogueEntry> {
   const guess = formatFromName(path);
+  if (guess.format === "parquet" && !guess.gzip) {
+    yield* streamParquetCatalogue(path, options);
+    return;
+  }
   if (guess.format !== undefined && guess.format !== "text") {
-    throw new InputError(`catalogue tables are read as delimited text (CSV, TSV); ${guess.extension} is not supported here`, { file: path });
+    throw new InputError(`catalogue tables are read as delimited text (CSV, TSV) or Parquet; ${guess.extension} is not supported here`, { file: path });
   }
   let input: Readable = createReadStream(path);
   if (guess.gzip) input = input.pipe(createGunzip());
@@ -102,15 +95,10 @@ export async function* streamCatalogue(path: string, options: CatalogueStreamOpt
       if (id === "") throw new InputError("no object id", { file: path, line: lineNumber, column: names[idIndex] });
       let completed: CatalogueEntry | undefined;
       if (!group || group.id !== id) {
-        if (finished.has(id)) {
-          throw new InputError(
-            `rows of object "${id}" are not contiguous (it appeared before another object); sort or group the catalogue by the id column`,
-            { file: path, line: lineNumber, column: names[idIndex] },
-          );
-        }
+        if (finished.has(id)) throw notContiguous(id, { file: path, line: lineNumber, column: names[idIndex] });
         if (group) {
           finished.add(group.id);
-          completed = finishObject(group, path, chosen, options);
+          completed = finishObject(group, path, "line", chosen, options);
         }
         group = newObjectRows(id, chosen);
       }
@@ -139,43 +127,9 @@ export async function* streamCatalogue(path: string, options: CatalogueStreamOpt
       const entry = handle(step.value);
       if (entry) yield entry;
     }
-    if (group) yield finishObject(group, path, chosen, options);
+    if (group) yield finishObject(group, path, "line", chosen, options);
   } finally {
     lines.close();
     input.destroy();
-  }
-}
-
-/** The rows of one object gathered so far. */
-interface ObjectRows {
-  readonly id: string;
-  readonly positions: number[];
-  readonly time: number[];
-  readonly value: number[];
-  readonly error: number[] | null;
-  readonly band: (string | null)[] | null;
-  problem?: string;
-}
-
-function newObjectRows(id: string, choice: ColumnChoice): ObjectRows {
-  return { id, positions: [], time: [], value: [], error: choice.error ? [] : null, band: choice.band ? [] : null };
-}
-
-function finishObject(rows: ObjectRows, path: string, choice: ColumnChoice, options: DelimitedReadOptions): CatalogueEntry {
-  if (rows.problem !== undefined) return { id: rows.id, lightCurves: [], warnings: [], problem: `object "${rows.id}": ${rows.problem}` };
-  try {
-    const set = assembleLightCurves(
-      { source: path, positionKind: "line", positions: rows.positions, time: rows.time, value: rows.value, error: rows.error, band: rows.band, choice },
-      options,
-    );
-    return {
-      id: rows.id,
-      lightCurves: set.lightCurves,
-      ...(set.lightCurves.length === 1 ? { lightCurve: set.lightCurves[0] } : {}),
-      warnings: set.warnings.map((w) => `object "${rows.id}": ${w}`),
-    };
-  } catch (problem) {
-    if (!(problem instanceof InputError)) throw problem;
-    return { id: rows.id, lightCurves: [], warnings: [], problem: `object "${rows.id}": ${problem.message}` };
   }
 }

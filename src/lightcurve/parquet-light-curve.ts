@@ -77,7 +77,7 @@ export async function parseParquetLightCurves(
 }
 
 /** One Parquet cell as a number: NaN when missing, an InputError with the row for anything else. */
-function numericParquetCell(cell: unknown, source: string, row: number, column: string): number {
+export function numericParquetCell(cell: unknown, source: string, row: number, column: string): number {
   if (cell === null || cell === undefined) return Number.NaN;
   if (typeof cell === "number") {
     if (Number.isNaN(cell)) return Number.NaN;

@@ -2,6 +2,7 @@ import { execFileSync, spawnSync } from "node:child_process";
 import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
+import { parquetWriteBuffer } from "hyparquet-writer";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { readResultsTable } from "../../src/batch/results-table-reader.js";
 import type { ResultRow } from "../../src/batch/result-row.js";
@@ -112,6 +113,28 @@ describe("horologium batch", () => {
         continue;
       }
       expect(fromTable.get(id)).toEqual(fromFolder.get(id));
+    }
+  });
+
+  it("fits a Parquet table grouped by an object-id column, with the same results as the folder", async () => {
+    // The same rows as the table above, written by hyparquet-writer with row groups of 50 rows (objects
+    // straddle row groups); the magnitudes as strings so that lf-009's bad cell survives.
+    const rows = readFileSync(join(folder, "lanternfield-table.csv"), "utf8").trim().split("\n").slice(1).map((line) => line.split(","));
+    const columnData = [
+      { name: "objid", data: rows.map((r) => r[0]), type: "STRING" },
+      { name: "mjd", data: rows.map((r) => Number(r[1])), type: "DOUBLE" },
+      { name: "mag", data: rows.map((r) => r[2]), type: "STRING" },
+      { name: "mag_err", data: rows.map((r) => Number(r[3])), type: "DOUBLE" },
+    ];
+    writeFileSync(join(folder, "lanternfield-table.parquet"), new Uint8Array(parquetWriteBuffer({ columnData: columnData as never, rowGroupSize: 50 })));
+    const { code, stderr } = await cli(["batch", "lanternfield-table.parquet", "--id-col", "objid", ...fitArgs, "--out", "from-parquet.csv"]);
+    expect(code, stderr).toBe(0);
+    const fromParquet = await table(join(folder, "from-parquet.csv"));
+    const fromFolder = await table(join(folder, "all.csv"));
+    expect([...fromParquet.keys()].sort()).toEqual(ids);
+    for (const id of ids) {
+      if (id === "lf-009") expect(fromParquet.get(id)!.reason).toMatch(/^object "lf-009": .*lanternfield-table\.parquet: row \d+: column "mag"/);
+      else expect(fromParquet.get(id)).toEqual(fromFolder.get(id));
     }
   });
 

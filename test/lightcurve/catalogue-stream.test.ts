@@ -2,6 +2,7 @@ import { mkdirSync, mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { gzipSync } from "node:zlib";
+import { parquetWriteBuffer } from "hyparquet-writer";
 import { describe, expect, it } from "vitest";
 import { streamCatalogue, type CatalogueEntry, type CatalogueStreamOptions } from "../../src/lightcurve/catalogue-stream.js";
 import { InputError } from "../../src/lightcurve/input-error.js";
@@ -100,7 +101,8 @@ describe("streaming catalogue reader", () => {
       `${path}: no object-id column "objid" (columns: "id", "mjd", "mag", "err")`,
     );
     expect((await streamError(path, { idColumn: "mjd" })).error.message).toMatch(/object-id column is also chosen/);
-    expect((await streamError(join(scratch, "x.parquet"), { idColumn: "id" })).error.message).toMatch(/\.parquet is not supported here/);
+    expect((await streamError(join(scratch, "x.parquet"), { idColumn: "id" })).error.message).toMatch(/x\.parquet: not a readable Parquet file \(no such file\)/);
+    expect((await streamError(join(scratch, "x.fits"), { idColumn: "id" })).error.message).toMatch(/\.fits is not supported here/);
     expect((await streamError(join(scratch, "missing.csv"), { idColumn: "id" })).error.message).toBe(
       `${join(scratch, "missing.csv")}: cannot read the catalogue (no such file)`,
     );
@@ -123,5 +125,64 @@ describe("listing a folder of light curves", () => {
       ["Z.TSV", "a.fits", "b.csv", "c.parquet.gz", "deep/d.dat"].map((n) => join(folder, n)),
     );
     await expect(listLightCurveFiles(join(folder, "nope"))).rejects.toThrow(/no such folder/);
+  });
+});
+
+describe("streaming Parquet catalogue reader", () => {
+  // Reference: the same catalogue as CSV through the text reader; Parquet bytes written by hyparquet-writer
+  // (an independent implementation) with row groups of 7 rows, so that objects straddle row groups.
+  const ids: string[] = [];
+  const mjd: number[] = [];
+  const mag: number[] = [];
+  const err: number[] = [];
+  let csv = "objid,mjd,mag,mag_err\n";
+  ["LDS-2001", "LDS-2002", "LDS-2003", "LDS-2004"].forEach((id, k) => {
+    for (let i = 0; i < 6 + 3 * k; i++) {
+      const row = [id, 60000 + 1.5 * i + 0.1 * k, 19 + 0.01 * ((i * 7 + k) % 11), 0.02 + 0.001 * k];
+      ids.push(row[0] as string);
+      mjd.push(row[1] as number);
+      mag.push(row[2] as number);
+      err.push(row[3] as number);
+      csv += row.join(",") + "\n";
+    }
+  });
+  const write = (name: string, idData: unknown[], magData: unknown[] = mag): string => {
+    const path = join(scratch, name);
+    const columnData = [
+      { name: "objid", data: idData, type: "STRING" },
+      { name: "mjd", data: mjd, type: "DOUBLE" },
+      { name: "mag", data: magData, type: magData.some((v) => typeof v === "string") ? "STRING" : "DOUBLE" },
+      { name: "mag_err", data: err, type: "DOUBLE" },
+    ];
+    writeFileSync(path, new Uint8Array(parquetWriteBuffer({ columnData: columnData as never, rowGroupSize: 7 })));
+    return path;
+  };
+
+  it("yields the same objects as the CSV of the same table, one at a time across row groups", async () => {
+    const csvPath = join(scratch, "parquet-twin.csv");
+    writeFileSync(csvPath, csv);
+    const fromCsv = await collect(csvPath, { idColumn: "objid" });
+    const fromParquet = await collect(write("catalogue.parquet", ids), { idColumn: "objid" });
+    expect(fromParquet.map((e) => e.id)).toEqual(["LDS-2001", "LDS-2002", "LDS-2003", "LDS-2004"]);
+    fromParquet.forEach((entry, k) => {
+      expect(Array.from(entry.lightCurve!.time)).toEqual(Array.from(fromCsv[k].lightCurve!.time));
+      expect(Array.from(entry.lightCurve!.value)).toEqual(Array.from(fromCsv[k].lightCurve!.value));
+      expect(Array.from(entry.lightCurve!.error!)).toEqual(Array.from(fromCsv[k].lightCurve!.error!));
+    });
+  });
+
+  it("names the row of an id that is not contiguous, and keeps going past a bad cell", async () => {
+    const shuffled = [...ids];
+    shuffled[shuffled.length - 1] = "LDS-2001";
+    const { error, before } = await streamError(write("scattered.parquet", shuffled), { idColumn: "objid" });
+    expect(error.message).toMatch(/not contiguous/);
+    expect(error.message).toContain(`row ${ids.length}`);
+    expect(before).toEqual(["LDS-2001", "LDS-2002", "LDS-2003"]);
+    const garbled: unknown[] = mag.map(String);
+    garbled[8] = "bright";
+    const entries = await collect(write("garbled.parquet", ids, garbled), { idColumn: "objid" });
+    expect(entries.map((e) => e.problem === undefined)).toEqual([true, false, true, true]);
+    expect(entries[1].problem).toMatch(/"bright" is not a number/);
+    expect(entries[1].problem).toContain("row 9");
   });
 });

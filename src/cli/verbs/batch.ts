@@ -25,7 +25,8 @@ summary of the fit (columns <parameter>.<statistic>, e.g. tau.median, tau.q2.5),
 "failed" with the reason. A failing object never stops the run.
 
 INPUT is a folder of light-curve files (one object per file; the id is the file name without
-extension), or one table of many objects with --id-col naming the object-id column.
+extension), or one table of many objects (CSV, TSV or Parquet, rows grouped by object) with --id-col
+naming the object-id column.
 
 Results are durable as they come: each row is appended to RESULTS.journal.jsonl and flushed to
 disk before it counts. A run killed at any moment (even kill -9) is finished by running the same
