@@ -109,6 +109,22 @@ function factorial(n: number): number {
 }
 
 /**
+ * cosh(sqrt(x)) = sum_k x^k / (2k)! for |x| < 1, to k = 10 by Horner's rule (the first omitted term is
+ * below 1 / 22! < 1e-21). The coefficients are literals (exact integers up to 21!, so each quotient is the
+ * correctly rounded reciprocal), which V8 folds into the code.
+ */
+export function coshSeries(x: number): number {
+  return 1 + x * (1 / 2 + x * (1 / 24 + x * (1 / 720 + x * (1 / 40320 + x * (1 / 3628800 + x * (1 / 479001600 +
+    x * (1 / 87178291200 + x * (1 / 20922789888000 + x * (1 / 6402373705728000 + x * (1 / 2432902008176640000))))))))));
+}
+
+/** sinh(sqrt(x)) / sqrt(x) = sum_k x^k / (2k + 1)! for |x| < 1, like {@link coshSeries}. */
+export function sinhSeries(x: number): number {
+  return 1 + x * (1 / 6 + x * (1 / 120 + x * (1 / 5040 + x * (1 / 362880 + x * (1 / 39916800 + x * (1 / 6227020800 +
+    x * (1 / 1307674368000 + x * (1 / 355687428096000 + x * (1 / 121645100408832000 + x * (1 / 51090942171709440000))))))))));
+}
+
+/**
  * Writes [E C, E S] for E = exp(-c dt), C = cosh(sqrt(lambda) dt), S = sinh(sqrt(lambda) dt) / sqrt(lambda),
  * lambda = c^2 - w0^2 (any sign), into out[0..1]: the values of {@link dampedHyperbolicPair} without the
  * derivatives, for the per-point loops. Near lambda dt^2 = 0 (|x| < 1, x = lambda dt^2) C and S are the
@@ -119,14 +135,8 @@ export function dampedHyperbolicValues(c: number, lambda: number, w0: number, dt
   const x = lambda * dt * dt;
   if (x > -1 && x < 1) {
     const e = exponential(-c * dt);
-    // Coefficients 1 / (2k)! and 1 / (2k + 1)! as literals (exact integers up to 21!, so each quotient is
-    // the correctly rounded reciprocal): V8 folds them into the code.
-    const cosh =
-      1 + x * (1 / 2 + x * (1 / 24 + x * (1 / 720 + x * (1 / 40320 + x * (1 / 3628800 + x * (1 / 479001600 +
-      x * (1 / 87178291200 + x * (1 / 20922789888000 + x * (1 / 6402373705728000 + x * (1 / 2432902008176640000))))))))));
-    const sinh =
-      1 + x * (1 / 6 + x * (1 / 120 + x * (1 / 5040 + x * (1 / 362880 + x * (1 / 39916800 + x * (1 / 6227020800 +
-      x * (1 / 1307674368000 + x * (1 / 355687428096000 + x * (1 / 121645100408832000 + x * (1 / 51090942171709440000))))))))));
+    const cosh = coshSeries(x);
+    const sinh = sinhSeries(x);
     out[0] = e * cosh;
     out[1] = e * (dt * sinh);
   } else if (lambda < 0) {
