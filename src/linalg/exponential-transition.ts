@@ -1,4 +1,4 @@
-import { exponential } from "./elementary-functions.js";
+import { decayFactor } from "./elementary-functions.js";
 import type { ParameterDependence, TransitionBlock } from "./transition-block.js";
 
 /**
@@ -27,11 +27,11 @@ export class ExponentialTransition implements TransitionBlock {
   }
 
   transition(dt: number, out: Float64Array, offset: number): void {
-    out[offset] = exponential(-this.rate * dt);
+    out[offset] = decayFactor(-this.rate * dt);
   }
 
   transitionDerivatives(dt: number, out: Float64Array, offset: number): void {
-    const value = exponential(-this.rate * dt);
+    const value = decayFactor(-this.rate * dt);
     for (let k = 0; k < this.rateDerivative.length; k++) out[offset + k] = -dt * value * this.rateDerivative[k];
   }
 

@@ -1,4 +1,4 @@
-import { cosineAndSine, exponential } from "./elementary-functions.js";
+import { cosineAndSine, decayFactor } from "./elementary-functions.js";
 import type { ParameterDependence, TransitionBlock } from "./transition-block.js";
 
 /**
@@ -134,14 +134,14 @@ export function sinhSeries(x: number): number {
 export function dampedHyperbolicValues(c: number, lambda: number, w0: number, dt: number, out: Float64Array): void {
   const x = lambda * dt * dt;
   if (x > -1 && x < 1) {
-    const e = exponential(-c * dt);
+    const e = decayFactor(-c * dt);
     const cosh = coshSeries(x);
     const sinh = sinhSeries(x);
     out[0] = e * cosh;
     out[1] = e * (dt * sinh);
   } else if (lambda < 0) {
     const omega = Math.sqrt(-lambda);
-    const e = exponential(-c * dt);
+    const e = decayFactor(-c * dt);
     cosineAndSine(omega * dt, out, 0);
     out[0] = e * out[0];
     out[1] = e * (out[1] / omega);
@@ -149,8 +149,8 @@ export function dampedHyperbolicValues(c: number, lambda: number, w0: number, dt
     const root = Math.sqrt(lambda);
     const fastRate = c + root;
     const slowRate = (w0 * w0) / fastRate; // c - root without cancellation
-    const slow = exponential(-slowRate * dt);
-    const fast = exponential(-fastRate * dt);
+    const slow = decayFactor(-slowRate * dt);
+    const fast = decayFactor(-fastRate * dt);
     out[0] = 0.5 * (slow + fast);
     out[1] = (slow - fast) / (2 * root);
   }
@@ -170,7 +170,7 @@ export function dampedHyperbolicPair(c: number, lambda: number, w0: number, dt: 
     const d = SINH_DERIVATIVE_SERIES;
     let sum = d[d.length - 1];
     for (let k = d.length - 2; k >= 0; k--) sum = d[k] + x * sum;
-    out[3] = exponential(-c * dt) * dt * dt * dt * sum;
+    out[3] = decayFactor(-c * dt) * dt * dt * dt * sum;
     return;
   }
   out[3] = (dt * out[0] - out[1]) / (2 * lambda);

@@ -1,4 +1,4 @@
-import { exponential } from "./elementary-functions.js";
+import { decayFactor } from "./elementary-functions.js";
 import { ExponentialTransition } from "./exponential-transition.js";
 import { FactorizationError } from "./factorization-error.js";
 import { coshSeries, dampedHyperbolicValues, OscillatorTransition, sinhSeries } from "./oscillator-transition.js";
@@ -79,10 +79,10 @@ export function unrolledRecursion(
   if (blocks.reduce((r, b) => r + b.size, 0) <= MAX_UNROLLED_DIMENSION) {
     try {
       const factory = new Function(
-        "FactorizationError, exponential, dampedHyperbolicValues, coshSeries, sinhSeries",
+        "FactorizationError, decayFactor, dampedHyperbolicValues, coshSeries, sinhSeries",
         `return function advance(${PARAMETERS}) {\n${recursionSource(kinds as BlockKind[], withColumn)}\n};`,
       );
-      advance = factory(FactorizationError, exponential, dampedHyperbolicValues, coshSeries, sinhSeries) as UnrolledAdvance;
+      advance = factory(FactorizationError, decayFactor, dampedHyperbolicValues, coshSeries, sinhSeries) as UnrolledAdvance;
     } catch {
       advance = undefined; // no run-time compilation on this host
     }
@@ -147,12 +147,12 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
     const names = range(m * m).map((e) => `a${b}_${e}`);
     if (kind === "exponential") {
       // ExponentialTransition.transition
-      emit(`const ${names[0]} = exponential(-rate${b} * dt);`);
+      emit(`const ${names[0]} = decayFactor(-rate${b} * dt);`);
     } else if (kind === "oscillator") {
       // OscillatorTransition.transition
       // dampedHyperbolicValues, with its power-series branch (most steps of a well-sampled light curve) inline.
       emit(`let ec${b}; let es${b}; const x${b} = lambda${b} * dt * dt;`);
-      emit(`if (x${b} > -1 && x${b} < 1) { const e = exponential(-c${b} * dt); ec${b} = e * coshSeries(x${b}); es${b} = e * (dt * sinhSeries(x${b})); }`);
+      emit(`if (x${b} > -1 && x${b} < 1) { const e = decayFactor(-c${b} * dt); ec${b} = e * coshSeries(x${b}); es${b} = e * (dt * sinhSeries(x${b})); }`);
       emit(`else { dampedHyperbolicValues(c${b}, lambda${b}, w${b}, dt, phi); ec${b} = phi[0]; es${b} = phi[1]; }`);
       emit(`const ${names[0]} = ec${b} + es${b} * c${b}; const ${names[1]} = es${b} * w${b};`);
       emit(`const ${names[2]} = -es${b} * w${b}; const ${names[3]} = ec${b} - es${b} * c${b};`);

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { cosineAndSine, exponential } from "../../src/linalg/elementary-functions.js";
+import { cosineAndSine, decayFactor, exponential } from "../../src/linalg/elementary-functions.js";
 import { createRng } from "../../src/random/rng.js";
 
 const EPSILON = 2 ** -52;
@@ -57,5 +57,19 @@ describe("cosineAndSine (Cody-Waite reduction, fdlibm polynomials)", () => {
     cosineAndSine(-Math.PI, out, 0);
     expect(out[0]).toBe(-1);
     expect(Math.abs(out[1])).toBeLessThan(1e-15);
+  });
+});
+
+describe("decayFactor (exp for transitions, no call-out)", () => {
+  it("equals exponential on [-708, 708] and flushes results below 2^-1021 to zero", () => {
+    const rng = createRng(11);
+    for (let i = 0; i < 100_000; i++) {
+      const x = (rng.uniform() - 0.5) * 1416;
+      expect(decayFactor(x)).toBe(exponential(x));
+    }
+    expect(decayFactor(-708.5)).toBe(0);
+    expect(decayFactor(-Infinity)).toBe(0);
+    expect(decayFactor(NaN)).toBeNaN();
+    expect(decayFactor(0)).toBe(1);
   });
 });
