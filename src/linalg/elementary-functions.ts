@@ -4,10 +4,10 @@
  * benchmark machine (bench/README.md); written here as straight-line arithmetic they are inlined into the
  * recursions, take about half as long, and, being off the recursion's critical path, overlap with it.
  *
- * Accuracy: within 1 ulp of the correctly rounded result for exp (2 ulp before the final scaling when
- * results are subnormal is avoided by handing those to `Math.exp`); cos and sin within 2^-53 absolute
- * (they are used for bounded transition matrices, where absolute error is what counts). Checked against
- * `Math.exp`, `Math.cos`, `Math.sin` on millions of arguments in test/linalg/elementary-functions.test.ts.
+ * Accuracy: exp within 1 ulp (results that would overflow or be subnormal are left to `Math.exp`, or
+ * flushed to zero by `decayFactor`); cos and sin within 2^-52 absolute (they enter bounded transition
+ * matrices, where absolute error is what counts). Checked against `Math.exp`, `Math.cos` and `Math.sin` on
+ * 10^6 arguments each in test/linalg/elementary-functions.test.ts.
  */
 
 /** ln 2 / 64 in two parts: the high part has its 21 low bits zero, so k * HIGH is exact for |k| < 2^21. */
@@ -126,7 +126,7 @@ const C6 = -1.13596475577881948265e-11;
 /**
  * cos x and sin x together, written to out[offset] and out[offset + 1]: one Cody-Waite reduction
  * x = n pi/2 + y, |y| <= pi/4, then fdlibm's polynomials for sin y and cos y and the quadrant n mod 4.
- * Absolute error below 2^-53 for |x| <= 1e5; larger |x| use `Math.cos` and `Math.sin`.
+ * Absolute error below 2^-52 for |x| <= 1e5; larger |x| use `Math.cos` and `Math.sin`.
  */
 export function cosineAndSine(x: number, out: Float64Array, offset: number): void {
   if (!(x > -REDUCTION_LIMIT && x < REDUCTION_LIMIT)) {

@@ -13,7 +13,6 @@ const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
  */
 const CHUNK = 2048;
 
-
 /** Slots of the scalar state carried from chunk to chunk (the same order in unrolled-recursion.ts). */
 const PREVIOUS_INVERSE = 0;
 const PREVIOUS_Z = 1;
