@@ -126,22 +126,10 @@ function firstNonFinite(y: ArrayLike<number>): number {
 
 /** Checks that y has one finite value per time and returns y - mean. */
 export function residualOf(y: ArrayLike<number>, inputs: ConditionedInputs): Float64Array {
-  const n = inputs.time.length;
-  if (y.length !== n) throw new RangeError(`GaussianProcess: y has ${y.length} values for ${n} times`);
-  const out = new Float64Array(n);
-  const bad = subtractChecked(y, inputs.mean, out);
-  if (bad < n) throw new RangeError(`GaussianProcess: y[${bad}] is not finite (${y[bad]})`);
+  checkValues(y, inputs);
+  const out = new Float64Array(y.length);
+  for (let i = 0; i < out.length; i++) out[i] = y[i] - inputs.mean;
   return out;
-}
-
-/** out = y - mean; returns the index of the first value that is not finite, or n. */
-function subtractChecked(y: ArrayLike<number>, mean: number, out: Float64Array): number {
-  for (let i = 0; i < out.length; i++) {
-    const yi = y[i];
-    if (!(yi - yi === 0)) return i;
-    out[i] = yi - mean;
-  }
-  return out.length;
 }
 
 /** Sorts requested times, remembering where each came from. */

@@ -1,11 +1,9 @@
 import { FactorizationError } from "./factorization-error.js";
 import { SemiseparableFactorization } from "./semiseparable-factorization.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
-import { unrolledRecursion } from "./unrolled-recursion.js";
+import { runUnrolled, unrolledRecursion } from "./unrolled-recursion.js";
 
 const LOG_TWO_PI = Math.log(2 * Math.PI);
-/** Points per call of the written-out recursion (as in semiseparable-likelihood.ts). */
-const CHUNK = 2048;
 
 /** A normal prior on the constant mean of a Gaussian process. */
 export interface MeanPrior {
@@ -65,18 +63,10 @@ function quadraticSums(
   m0: number,
 ): { a: number; b: number; c: number; logDeterminant: number } {
   const n = time.length;
-  const p = form.observation;
   const unrolled = unrolledRecursion(form.blocks, { constantColumn: true });
   if (unrolled) {
-    const r = p.length;
-    const state = new Float64Array(r * r + 3 * r);
-    // previousInverse, previousZ, quadratic, logDeterminant, product, previousW, a, b
-    const scalars = new Float64Array(8);
-    scalars[4] = 1;
-    for (let begin = 0; begin < n; begin += CHUNK) {
-      unrolled(form.blocks, p, form.projection, state, scalars, time, noiseVariance, values, m0, begin, Math.min(n, begin + CHUNK));
-    }
-    return { c: scalars[2], logDeterminant: scalars[3] + Math.log(scalars[4]), a: scalars[6], b: scalars[7] };
+    const totals = runUnrolled(unrolled, form, time, noiseVariance, values, m0, true);
+    return { a: totals.columnQuadratic, b: totals.crossQuadratic, c: totals.quadratic, logDeterminant: totals.logDeterminant };
   }
   const factorization = new SemiseparableFactorization(form, time, noiseVariance);
   const residual = Float64Array.from(values, (y) => y - m0);

@@ -1,25 +1,11 @@
 import { FactorizationError } from "./factorization-error.js";
 import { PIVOT_HIGH, PIVOT_LOW, PRODUCT_HIGH, PRODUCT_LOW } from "./pivot-product.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
+import { absorbPoint, projectState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
-import { unrolledRecursion } from "./unrolled-recursion.js";
+import { initialScalars, RECURSION_CHUNK, recursionTotals, runUnrolled, SLOT, unrolledRecursion, type RecursionTotals } from "./unrolled-recursion.js";
 
 const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
-
-/**
- * Points per call of the inner loop. Running the recursion in chunks lets V8 optimise the loop as an
- * ordinary, often-called function; one long loop per call is entered through on-stack replacement, and
- * code compiled that way can deoptimise on every call (measured in bench/README.md).
- */
-const CHUNK = 2048;
-
-/** Slots of the scalar state carried from chunk to chunk (the same order in unrolled-recursion.ts). */
-const PREVIOUS_INVERSE = 0;
-const PREVIOUS_Z = 1;
-const QUADRATIC = 2;
-const LOG_DETERMINANT = 3;
-const PRODUCT = 4;
-const SCALAR_SLOTS = 5;
 
 /**
  * The Gaussian log-likelihood log N(r | 0, K + diag(noise)) for a semiseparable kernel, in one pass and
@@ -51,35 +37,37 @@ export function semiseparableLogLikelihood(
   options: { readonly unrolled?: boolean; readonly mean?: number } = {},
 ): number {
   const mean = options.mean ?? 0;
-  const scalars = new Float64Array(SCALAR_SLOTS);
-  scalars[PRODUCT] = 1;
   const n = time.length;
-  const p = form.observation;
-  const q = form.projection;
-  const blocks = form.blocks;
-  const unrolled = options.unrolled === false ? undefined : unrolledRecursion(blocks);
-  if (unrolled) {
-    // Blocks of size 1 and 2 up to R = 10 (every kernel but products): the recursion written out for
-    // this layout, with S, f and u in local variables.
-    const r = p.length;
-    const state = new Float64Array(r * r + 2 * r);
-    for (let begin = 0; begin < n; begin += CHUNK) {
-      unrolled(blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, Math.min(n, begin + CHUNK));
-    }
-  } else {
-    const layout = new TransitionLayout(form);
-    const r = layout.dimension;
-    const s = new Float64Array(r * r);
-    const f = new Float64Array(r);
-    const u = new Float64Array(r);
-    for (let begin = 0; begin < n; begin += CHUNK) {
-      advance(layout, p, q, s, f, u, scalars, time, noiseVariance, residual, mean, begin, Math.min(n, begin + CHUNK));
-    }
-  }
-  const logDeterminant = scalars[LOG_DETERMINANT] + Math.log(scalars[PRODUCT]);
-  const logLikelihood = -0.5 * (scalars[QUADRATIC] + logDeterminant) - n * HALF_LOG_TWO_PI;
+  const unrolled = options.unrolled === false ? undefined : unrolledRecursion(form.blocks);
+  // Blocks of size 1 and 2 up to R = 10 (every kernel but products): the recursion written out for this
+  // layout, with S, f and u in local variables; otherwise the general loop.
+  const totals = unrolled
+    ? runUnrolled(unrolled, form, time, noiseVariance, residual, mean)
+    : generalLoop(form, time, noiseVariance, residual, mean);
+  const logLikelihood = -0.5 * (totals.quadratic + totals.logDeterminant) - n * HALF_LOG_TWO_PI;
   if (!(logLikelihood > -Infinity && logLikelihood < Infinity)) throw new FactorizationError(n - 1, NaN);
   return logLikelihood;
+}
+
+/** The recursion over typed arrays and `TransitionLayout`, for any blocks, chunk by chunk. */
+function generalLoop(
+  form: SemiseparableForm,
+  time: ArrayLike<number>,
+  noiseVariance: ArrayLike<number>,
+  residual: ArrayLike<number>,
+  mean: number,
+): RecursionTotals {
+  const n = time.length;
+  const layout = new TransitionLayout(form);
+  const r = layout.dimension;
+  const s = new Float64Array(r * r);
+  const f = new Float64Array(r);
+  const u = new Float64Array(r);
+  const scalars = initialScalars();
+  for (let begin = 0; begin < n; begin += RECURSION_CHUNK) {
+    advance(layout, form.observation, form.projection, s, f, u, scalars, time, noiseVariance, residual, mean, begin, Math.min(n, begin + RECURSION_CHUNK));
+  }
+  return recursionTotals(scalars);
 }
 
 /** Points begin .. end - 1 of the recursion; s, f, u and the scalars carry the state between calls. */
@@ -101,34 +89,23 @@ function advance(
   const r = layout.dimension;
   let variance = 0;
   for (let i = 0; i < r; i++) variance += p[i] * q[i];
-  let previousInverse = scalars[PREVIOUS_INVERSE];
-  let previousZ = scalars[PREVIOUS_Z];
-  let quadratic = scalars[QUADRATIC];
-  let logDeterminant = scalars[LOG_DETERMINANT];
-  let product = scalars[PRODUCT];
+  const projection = new Float64Array(2);
+  let previousInverse = scalars[SLOT.previousInverse];
+  let previousZ = scalars[SLOT.previousZ];
+  let quadratic = scalars[SLOT.quadratic];
+  let logDeterminant = scalars[SLOT.logDeterminant];
+  let product = scalars[SLOT.product];
   for (let k = begin; k < end; k++) {
     if (k > 0) {
       // S <- Phi (S + u u^T / D) Phi^T ; f <- Phi (f + u z / D)
-      for (let i = 0; i < r; i++) {
-        const ui = u[i] * previousInverse;
-        const row = i * r;
-        for (let j = 0; j < r; j++) s[row + j] += ui * u[j];
-        f[i] += ui * previousZ;
-      }
+      absorbPoint(s, f, u, 0, previousInverse, previousZ, r);
       layout.computeTransitions(time[k] - time[k - 1]);
       layout.applyCongruence(s, 0);
       layout.applyToVector(f, 0);
     }
-    let pSp = 0;
-    let pf = 0;
-    for (let i = 0; i < r; i++) {
-      let sp = 0;
-      const row = i * r;
-      for (let j = 0; j < r; j++) sp += s[row + j] * p[j];
-      u[i] = q[i] - sp;
-      pSp += p[i] * sp;
-      pf += p[i] * f[i];
-    }
+    projectState(s, f, p, q, u, 0, r, projection);
+    const pSp = projection[0];
+    const pf = projection[1];
     const pivot = noiseVariance[k] + variance - pSp;
     if (!(pivot > 0 && pivot < Infinity)) throw new FactorizationError(k, pivot);
     const z = residual[k] - mean - pf;
@@ -145,9 +122,9 @@ function advance(
       logDeterminant += Math.log(pivot);
     }
   }
-  scalars[PREVIOUS_INVERSE] = previousInverse;
-  scalars[PREVIOUS_Z] = previousZ;
-  scalars[QUADRATIC] = quadratic;
-  scalars[LOG_DETERMINANT] = logDeterminant;
-  scalars[PRODUCT] = product;
+  scalars[SLOT.previousInverse] = previousInverse;
+  scalars[SLOT.previousZ] = previousZ;
+  scalars[SLOT.quadratic] = quadratic;
+  scalars[SLOT.logDeterminant] = logDeterminant;
+  scalars[SLOT.product] = product;
 }

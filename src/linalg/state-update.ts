@@ -1,6 +1,7 @@
 /**
- * The two per-point steps that every pass of the semiseparable recursion shares (the fused likelihood in
- * `semiseparable-likelihood.ts` inlines its own copies for speed).
+ * The two per-point steps that every typed-array pass of the semiseparable recursion shares (the general
+ * likelihood loop, the gradient, the smoother); the written-out code of `unrolled-recursion.ts` performs
+ * the same operations in the same order on local variables.
  */
 
 /**

@@ -3,6 +3,7 @@ import { ExponentialTransition } from "./exponential-transition.js";
 import { FactorizationError } from "./factorization-error.js";
 import { coshSeries, dampedHyperbolicValues, OscillatorTransition, sinhSeries } from "./oscillator-transition.js";
 import { PIVOT_HIGH, PIVOT_LOW, PRODUCT_HIGH, PRODUCT_LOW } from "./pivot-product.js";
+import type { SemiseparableForm } from "./semiseparable-form.js";
 import type { TransitionBlock } from "./transition-block.js";
 
 /**
@@ -35,9 +36,77 @@ export type UnrolledAdvance = (
 /** Largest state dimension written out (the code grows as R^2). */
 export const MAX_UNROLLED_DIMENSION = 10;
 
-/** Slots of `scalars` shared with semiseparable-likelihood.ts (the last three only with a constant column). */
+/**
+ * Points per call of a per-point loop. Running the recursion in chunks lets V8 optimise the loop as an
+ * ordinary, often-called function; one long loop per call is entered through on-stack replacement, and
+ * code compiled that way can deoptimise on every call (measured in bench/README.md).
+ */
+export const RECURSION_CHUNK = 2048;
+
+/**
+ * Slots of the running scalars carried from chunk to chunk, for the written-out code and the general loop
+ * of semiseparable-likelihood.ts alike (the last three only with a constant column).
+ */
+export const SLOT = {
+  previousInverse: 0,
+  previousZ: 1,
+  quadratic: 2,
+  logDeterminant: 3,
+  product: 4,
+  previousW: 5,
+  columnQuadratic: 6,
+  crossQuadratic: 7,
+} as const;
 const SCALAR_NAMES = ["previousInverse", "previousZ", "quadratic", "logDeterminant", "product"] as const;
 const COLUMN_SCALAR_NAMES = ["previousW", "columnQuadratic", "crossQuadratic"] as const;
+
+/** A fresh array of running scalars (the pivot product starts at 1). */
+export function initialScalars(): Float64Array {
+  const scalars = new Float64Array(SCALAR_NAMES.length + COLUMN_SCALAR_NAMES.length);
+  scalars[SLOT.product] = 1;
+  return scalars;
+}
+
+/** What a pass of the recursion sums up: r^T K^-1 r, log det K and, with a constant column, 1^T K^-1 1 and 1^T K^-1 r. */
+export interface RecursionTotals {
+  readonly quadratic: number;
+  readonly logDeterminant: number;
+  readonly columnQuadratic: number;
+  readonly crossQuadratic: number;
+}
+
+/** The totals of a finished pass from its running scalars (the pivot product folded into the log-determinant). */
+export function recursionTotals(scalars: Float64Array): RecursionTotals {
+  return {
+    quadratic: scalars[SLOT.quadratic],
+    logDeterminant: scalars[SLOT.logDeterminant] + Math.log(scalars[SLOT.product]),
+    columnQuadratic: scalars[SLOT.columnQuadratic],
+    crossQuadratic: scalars[SLOT.crossQuadratic],
+  };
+}
+
+/**
+ * Runs a compiled recursion (from {@link unrolledRecursion}, built with the same `constantColumn`) over every
+ * point, chunk by chunk; `mean` is subtracted from every value on the fly.
+ */
+export function runUnrolled(
+  advance: UnrolledAdvance,
+  form: SemiseparableForm,
+  time: ArrayLike<number>,
+  noiseVariance: ArrayLike<number>,
+  values: ArrayLike<number>,
+  mean: number,
+  constantColumn = false,
+): RecursionTotals {
+  const n = time.length;
+  const r = form.observation.length;
+  const state = new Float64Array(r * r + (constantColumn ? 3 : 2) * r);
+  const scalars = initialScalars();
+  for (let begin = 0; begin < n; begin += RECURSION_CHUNK) {
+    advance(form.blocks, form.observation, form.projection, state, scalars, time, noiseVariance, values, mean, begin, Math.min(n, begin + RECURSION_CHUNK));
+  }
+  return recursionTotals(scalars);
+}
 
 /**
  * How a block enters the written-out code: exponential and oscillator blocks have their transitions
@@ -124,10 +193,10 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
   emit(`let variance = 0; ${range(r).map((i) => `variance += p${i} * q${i};`).join(" ")}`);
   for (const i of range(r)) for (const j of range(r)) emit(`let ${s(i, j)} = state[${i * r + j}];`);
   for (const i of range(r)) emit(`let f${i} = state[${r * r + i}]; let u${i} = state[${r * r + r + i}];`);
-  SCALAR_NAMES.forEach((name, k) => emit(`let ${name} = scalars[${k}];`));
+  SCALAR_NAMES.forEach((name) => emit(`let ${name} = scalars[${SLOT[name]}];`));
   if (withColumn) {
     for (const i of range(r)) emit(`let g${i} = state[${r * r + 2 * r + i}];`);
-    COLUMN_SCALAR_NAMES.forEach((name, k) => emit(`let ${name} = scalars[${SCALAR_NAMES.length + k}];`));
+    COLUMN_SCALAR_NAMES.forEach((name) => emit(`let ${name} = scalars[${SLOT[name]}];`));
   }
 
   emit(`let failedAt = -1; let failedPivot = 0;`);
@@ -217,10 +286,10 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
 
   for (const i of range(r)) for (const j of range(r)) emit(`state[${i * r + j}] = ${s(i, j)};`);
   for (const i of range(r)) emit(`state[${r * r + i}] = f${i}; state[${r * r + r + i}] = u${i};`);
-  SCALAR_NAMES.forEach((name, k) => emit(`scalars[${k}] = ${name};`));
+  SCALAR_NAMES.forEach((name) => emit(`scalars[${SLOT[name]}] = ${name};`));
   if (withColumn) {
     for (const i of range(r)) emit(`state[${r * r + 2 * r + i}] = g${i};`);
-    COLUMN_SCALAR_NAMES.forEach((name, k) => emit(`scalars[${SCALAR_NAMES.length + k}] = ${name};`));
+    COLUMN_SCALAR_NAMES.forEach((name) => emit(`scalars[${SLOT[name]}] = ${name};`));
   }
   emit(`if (failedAt >= 0) throw new FactorizationError(failedAt, failedPivot);`);
   return lines.join("\n");

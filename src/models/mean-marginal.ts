@@ -78,10 +78,10 @@ export function restoreMean(model: LightCurveModel, collapsed: CollapsedMeanMode
   let posterior = { mean: NaN, sd: NaN };
   for (let k = 0; k < count; k++) {
     let same = true;
-    names.forEach((name, i) => {
-      row[i] = draws.columns[name][k];
+    for (let i = 0; i < names.length; i++) {
+      row[i] = draws.columns[names[i]][k];
       if (row[i] !== previous[i]) same = false;
-    });
+    }
     if (!same) {
       posterior = collapsed.meanPosterior(row);
       previous.set(row);
