@@ -10,6 +10,7 @@ export const SUMMARY_STATISTICS = ["median", "mean", "sd", "q2.5", "q16", "q84",
 export const DIAGNOSTIC_KEYS = [
   "converged",
   "rhatMax",
+  "rhatThreshold",
   "essMin",
   "autocorrTime",
   "acceptance",

@@ -28,7 +28,7 @@ function extrapolatedFactor(report: ConvergenceReport, criteria: ConvergenceCrit
   if (parameters.some((p) => !p.autocorrReliable)) return MAX_CHECK_GROWTH;
   const neededLength = criteria.autocorrelationLengths * report.autocorrTime;
   if (!(chainLength >= neededLength)) return neededLength / chainLength;
-  if (!(report.rhatMax < criteria.rhat)) return (report.rhatMax - 1) / (criteria.rhat - 1);
+  if (!(report.rhatMax < report.rhatThreshold)) return (report.rhatMax - 1) / (report.rhatThreshold - 1);
   if (!(report.essMin >= criteria.ess)) return criteria.ess / report.essMin;
   return 1;
 }

@@ -54,6 +54,7 @@ export interface RunSamplerOptions {
 
 /** Diagnostics of a run: the fit-result keys plus per-parameter figures. */
 export interface RunDiagnostics extends FitDiagnostics {
+  readonly rhatThreshold: number;
   readonly stopReason: StopReason;
   readonly iterations: number;
   readonly keptDraws: number;
@@ -153,11 +154,14 @@ export function runSampler(
       notify();
     }
   }
-  // A full assessment (every criterion evaluated) of the final draws.
-  report = assess(false);
+  // A full assessment (every criterion evaluated) of the final draws; a check that passed already is one
+  // (the quick form skips criteria only after a failure), and at tens of thousands of draws a check can
+  // cost as much as the sampling since the previous one.
+  if (stopReason !== "converged" || report === undefined) report = assess(false);
   const diagnostics: RunDiagnostics = {
     converged: stopReason === "converged",
     rhatMax: report.rhatMax,
+    rhatThreshold: report.rhatThreshold,
     essMin: report.essMin,
     autocorrTime: report.autocorrTime,
     acceptance: sampler.acceptanceRate(),

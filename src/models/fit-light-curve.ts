@@ -134,6 +134,7 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   const diagnostics = {
     converged: runs.every((run) => run.diagnostics.converged),
     rhatMax: worst((run) => run.diagnostics.rhatMax, Math.max),
+    rhatThreshold: worst((run) => run.diagnostics.rhatThreshold, Math.min),
     essMin: worst((run) => run.diagnostics.essMin, Math.min),
     autocorrTime: worst((run) => run.diagnostics.autocorrTime, Math.max),
     acceptance: runs.reduce((sum, run) => sum + run.diagnostics.acceptance, 0) / runs.length,

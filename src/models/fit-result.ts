@@ -49,6 +49,12 @@ export interface FitDiagnostics {
   readonly converged: boolean;
   /** Largest rank-normalised split R-hat over the parameters. */
   readonly rhatMax: number;
+  /**
+   * The bound R-hat had to be below: 1.01 for four chains, larger for more chains at the same demand on
+   * the effective sample size (inference/convergence-check.ts, rhatThreshold). Absent in results written
+   * before it was added, where the bound was 1.01.
+   */
+  readonly rhatThreshold?: number;
   /** Smallest of the bulk and tail effective sample sizes over the parameters. */
   readonly essMin: number;
   /** Largest integrated autocorrelation time over the parameters, in steps. */

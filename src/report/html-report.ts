@@ -165,15 +165,16 @@ function diagnosticsTable(d: FitDiagnostics): string {
     [
       "Largest rank-normalised split R-hat",
       formatSignificant(d.rhatMax, 4),
-      d.rhatMax < RHAT_THRESHOLD ? "" : "bad",
+      d.rhatMax < (d.rhatThreshold ?? RHAT_THRESHOLD) ? "" : "bad",
     ],
+    ["R-hat bound for this number of chains", formatSignificant(d.rhatThreshold ?? RHAT_THRESHOLD, 4), ""],
     ["Smallest effective sample size", formatSignificant(d.essMin, 4), ""],
     ["Largest integrated autocorrelation time (steps)", formatSignificant(d.autocorrTime, 3), ""],
     ["Mean acceptance rate", formatSignificant(d.acceptance, 3), ""],
     ["Log-posterior evaluations", String(d.logProbEvaluations), ""],
     ["Wall time (s)", formatSignificant(d.seconds, 3), ""],
   ];
-  const listed = new Set(["converged", "rhatMax", "essMin", "autocorrTime", "acceptance", "logProbEvaluations", "seconds"]);
+  const listed = new Set(["converged", "rhatMax", "rhatThreshold", "essMin", "autocorrTime", "acceptance", "logProbEvaluations", "seconds"]);
   for (const [key, value] of Object.entries(d)) {
     if (listed.has(key)) continue;
     if (typeof value === "number") known.push([key, formatSignificant(value, 4), ""]);
@@ -184,7 +185,7 @@ function diagnosticsTable(d: FitDiagnostics): string {
       `<tr${cls ? ` class="${cls}"` : ""}><th scope="row">${escapeHtml(label)}</th><td>${escapeHtml(value)}</td></tr>`,
   );
   return `<table class="numbers narrow"><tbody>\n${rows.join("\n")}\n</tbody></table>
-<p class="note">Chains are taken as mixed when R-hat is below ${RHAT_THRESHOLD} (Vehtari et al. 2021).</p>`;
+<p class="note">Chains are taken as mixed when R-hat is below ${RHAT_THRESHOLD} for four chains (Vehtari et al. 2021), and below the bound that asks the same effective sample size for more chains, such as the walkers of an ensemble.</p>`;
 }
 
 function dataTable(input: ReportInput): string {

@@ -10,7 +10,10 @@ import type { ReportInput } from "./report-input.js";
  */
 export const DRW_BASELINE_RATIO = 10;
 
-/** The R-hat below which chains are taken as mixed (Vehtari et al. 2021, Bayesian Analysis 16, 667). */
+/**
+ * The R-hat below which four chains are taken as mixed (Vehtari et al. 2021, Bayesian Analysis 16, 667);
+ * fits with more chains report their own bound, `diagnostics.rhatThreshold`.
+ */
 export const RHAT_THRESHOLD = 1.01;
 
 const MODEL_NAMES: Readonly<Record<string, string>> = {
@@ -79,7 +82,7 @@ export function plainSummary(input: ReportInput): string[] {
   sentences.push(
     d.converged
       ? `The sampler converged: the largest R-hat is ${d.rhatMax.toFixed(3)} and the smallest effective sample size is ${Math.round(d.essMin)}.`
-      : `The sampler did not converge (largest R-hat ${d.rhatMax.toFixed(3)}, target below ${RHAT_THRESHOLD}; smallest effective sample size ${Math.round(d.essMin)}): treat these numbers as provisional.`,
+      : `The sampler did not converge (largest R-hat ${d.rhatMax.toFixed(3)}, target below ${+(d.rhatThreshold ?? RHAT_THRESHOLD).toPrecision(5)}; smallest effective sample size ${Math.round(d.essMin)}): treat these numbers as provisional.`,
   );
   const w = result.warnings.length;
   if (w > 0) sentences.push(`There ${w === 1 ? "is 1 warning" : `are ${w} warnings`}; read ${w === 1 ? "it" : "them"} before using these numbers.`);

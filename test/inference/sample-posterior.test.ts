@@ -1,6 +1,7 @@
 import { beforeAll, describe, expect, it } from "vitest";
 import normalQuantile from "@stdlib/stats/base/dists/normal/quantile";
 import { createRng } from "../../src/random/rng.js";
+import { rhatThreshold } from "../../src/inference/convergence-check.js";
 import { createParameterSpace } from "../../src/inference/parameter-space.js";
 import { posteriorDraws, posteriorDrawsToCsv } from "../../src/inference/posterior-draws.js";
 import { logUniformPrior, normalPrior } from "../../src/inference/priors.js";
@@ -45,7 +46,8 @@ describe.each(["nuts", "ensemble"] as const)("samplePosterior with %s", (sampler
   it("converges and says so", () => {
     expect(fit.stopReason).toBe("converged");
     expect(fit.diagnostics.converged).toBe(true);
-    expect(fit.diagnostics.rhatMax).toBeLessThan(1.01);
+    expect(fit.diagnostics.rhatMax).toBeLessThan(fit.diagnostics.rhatThreshold);
+    expect(fit.diagnostics.rhatThreshold).toBe(rhatThreshold(1.01, fit.run.sampler.chainCount));
     expect(fit.diagnostics.essMin).toBeGreaterThanOrEqual(400);
     expect(fit.diagnostics.logProbEvaluations).toBeGreaterThan(fit.diagnostics.optimizerEvaluations);
   });
