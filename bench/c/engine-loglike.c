@@ -328,14 +328,20 @@ static double general_recursion(const form_t *form, size_t n, const double *time
       apply_congruence(form, phi, s);
       apply_strided(form, phi, f, 0, 1);
     }
+    /* Sums from their first term, as projectState. */
     double p_s_p = 0, p_f = 0;
     for (int i = 0; i < r; i++) {
-      double sp = 0;
       const double *row = s + i * r;
-      for (int j = 0; j < r; j++) sp += row[j] * p[j];
+      double sp = row[0] * p[0];
+      for (int j = 1; j < r; j++) sp += row[j] * p[j];
       u[i] = q[i] - sp;
-      p_s_p += p[i] * sp;
-      p_f += p[i] * f[i];
+      if (i == 0) {
+        p_s_p = p[0] * sp;
+        p_f = p[0] * f[0];
+      } else {
+        p_s_p += p[i] * sp;
+        p_f += p[i] * f[i];
+      }
     }
     double pivot = noise[k] + variance - p_s_p;
     if (!(pivot > 0) || !isfinite(pivot)) {
@@ -441,11 +447,11 @@ static double two_block_recursion(const form_t *form, size_t n, const double *ti
       f1 = b10 * f0 + b11 * f1;
       f0 = g0;
     }
-    double sp0 = 0 + s00 * p0 + s01 * p1, sp1 = 0 + s10 * p0 + s11 * p1;
+    double sp0 = s00 * p0 + s01 * p1, sp1 = s10 * p0 + s11 * p1;
     u0 = q0 - sp0;
     u1 = q1 - sp1;
-    double p_s_p = 0 + p0 * sp0 + p1 * sp1;
-    double p_f = 0 + p0 * f0 + p1 * f1;
+    double p_s_p = p0 * sp0 + p1 * sp1;
+    double p_f = p0 * f0 + p1 * f1;
     double pivot = noise[k] + variance - p_s_p;
     if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
     double z = (residual[k] - mean) - p_f;

@@ -85,6 +85,40 @@ export function decayFactor(x: number): number {
   return x < -708 ? 0 : tableExponential(x);
 }
 
+/** The tables of the table-driven exponential, passed to generated code that uses {@link decayFactorSource}. */
+export const EXPONENTIAL_TABLES = Object.freeze({
+  twoToJBy64: TWO_TO_J_BY_64,
+  twoToJBy64Tail: TWO_TO_J_BY_64_TAIL,
+  twoToM: TWO_TO_M,
+});
+
+/** The names under which generated code must receive {@link EXPONENTIAL_TABLES}, in this order. */
+export const EXPONENTIAL_TABLE_NAMES = ["twoToJBy64", "twoToJBy64Tail", "twoToM"] as const;
+
+/**
+ * JavaScript statements that set the variable `target` (declared by the caller) to decayFactor(`argument`),
+ * with the same operations in the same order as {@link decayFactor}, for code generated at run time
+ * (unrolled-recursion.ts), which must receive the tables under {@link EXPONENTIAL_TABLE_NAMES}.
+ *
+ * Why not a call: V8 inlines a call only while the caller is small; past that it calls out, which boxes
+ * the double argument and result on the heap at every point (measured: the two-component recursion
+ * allocated about 90 bytes per point before its transitions were written out this way). Constants
+ * appear as shortest round-trip literals, so the results are bit-identical to {@link decayFactor}'s
+ * (test/linalg/elementary-functions.test.ts).
+ */
+export function decayFactorSource(target: string, argument: string): string {
+  const n = (value: number): string => `(${String(value)})`;
+  return (
+    `{ const ex = ${argument}; if (ex < -708) { ${target} = 0; } else {` +
+    ` const ekf = ex * ${n(INVERSE_LN2_BY_64)} + ${n(ROUNDING_SHIFT)} - ${n(ROUNDING_SHIFT)};` +
+    ` const er1 = ex - ekf * ${n(LN2_BY_64_HIGH)}; const er2 = ekf * ${n(LN2_BY_64_LOW)}; const er = er1 - er2;` +
+    ` const ek = ekf | 0; const ej = ek & 63; const em = (ek - ej) >> 6;` +
+    ` const eq = er * er * (${n(E2)} + er * (${n(E3)} + er * (${n(E4)} + er * (${n(E5)} + er * ${n(E6)}))));` +
+    ` const ep = er1 + (eq - er2); const es = twoToJBy64[ej]; const et = twoToJBy64Tail[ej];` +
+    ` ${target} = twoToM[em + 1022] * (es + (et + es * ep + et * ep)); } }`
+  );
+}
+
 /** The table-driven e^x, for -708 <= x <= 708 (NaN propagates). */
 function tableExponential(x: number): number {
   const kf = x * INVERSE_LN2_BY_64 + ROUNDING_SHIFT - ROUNDING_SHIFT;

@@ -108,6 +108,27 @@ function factorial(n: number): number {
   return value;
 }
 
+/** The coefficients 1/(2k)!, k = 0 .. 10, of {@link coshSeries}, as the literals it is written with. */
+const COSH_COEFFICIENTS = [1, 1 / 2, 1 / 24, 1 / 720, 1 / 40320, 1 / 3628800, 1 / 479001600, 1 / 87178291200, 1 / 20922789888000, 1 / 6402373705728000, 1 / 2432902008176640000];
+/** The coefficients 1/(2k + 1)!, k = 0 .. 10, of {@link sinhSeries}. */
+const SINH_COEFFICIENTS = [1, 1 / 6, 1 / 120, 1 / 5040, 1 / 362880, 1 / 39916800, 1 / 6227020800, 1 / 1307674368000, 1 / 355687428096000, 1 / 121645100408832000, 1 / 51090942171709440000];
+
+/** A Horner expression c0 + x (c1 + x (c2 + ...)) with shortest round-trip literals. */
+function hornerSource(coefficients: readonly number[], x: string): string {
+  let text = `(${String(coefficients[coefficients.length - 1])})`;
+  for (let k = coefficients.length - 2; k >= 0; k--) text = `(${String(coefficients[k])}) + ${x} * (${text})`;
+  return `(${text})`;
+}
+
+/**
+ * {@link coshSeries} and {@link sinhSeries} of `x` as JavaScript expressions, for code generated at run time
+ * (unrolled-recursion.ts): the same operations in the same order, bit-identical results, and no call that
+ * V8 might leave out of line (see decayFactorSource in elementary-functions.ts).
+ */
+export function hyperbolicSeriesSource(x: string): { readonly cosh: string; readonly sinh: string } {
+  return { cosh: hornerSource(COSH_COEFFICIENTS, x), sinh: hornerSource(SINH_COEFFICIENTS, x) };
+}
+
 /**
  * cosh(sqrt(x)) = sum_k x^k / (2k)! for |x| < 1, to k = 10 by Horner's rule (the first omitted term is
  * below 1 / 22! < 1e-21). The coefficients are literals (exact integers up to 21!, so each quotient is the

@@ -1,7 +1,7 @@
-import { decayFactor } from "./elementary-functions.js";
+import { decayFactorSource, EXPONENTIAL_TABLE_NAMES, EXPONENTIAL_TABLES } from "./elementary-functions.js";
 import { ExponentialTransition } from "./exponential-transition.js";
 import { FactorizationError } from "./factorization-error.js";
-import { coshSeries, dampedHyperbolicValues, OscillatorTransition, sinhSeries } from "./oscillator-transition.js";
+import { dampedHyperbolicValues, hyperbolicSeriesSource, OscillatorTransition } from "./oscillator-transition.js";
 import { PIVOT_HIGH, PIVOT_LOW, PRODUCT_HIGH, PRODUCT_LOW } from "./pivot-product.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import type { TransitionBlock } from "./transition-block.js";
@@ -148,16 +148,41 @@ export function unrolledRecursion(
   if (blocks.reduce((r, b) => r + b.size, 0) <= MAX_UNROLLED_DIMENSION) {
     try {
       const factory = new Function(
-        "FactorizationError, decayFactor, dampedHyperbolicValues, coshSeries, sinhSeries",
+        ["FactorizationError", "dampedHyperbolicValues", ...EXPONENTIAL_TABLE_NAMES].join(", "),
         `return function advance(${PARAMETERS}) {\n${recursionSource(kinds as BlockKind[], withColumn)}\n};`,
       );
-      advance = factory(FactorizationError, decayFactor, dampedHyperbolicValues, coshSeries, sinhSeries) as UnrolledAdvance;
+      const tables = EXPONENTIAL_TABLE_NAMES.map((name) => EXPONENTIAL_TABLES[name]);
+      advance = factory(FactorizationError, dampedHyperbolicValues, ...tables) as UnrolledAdvance;
+      primeFeedback(advance, blocks, withColumn);
     } catch {
       advance = undefined; // no run-time compilation on this host
     }
   }
   compiled.set(key, advance);
   return advance;
+}
+
+/** Empty calls made right after compiling a recursion (see {@link primeFeedback}). */
+const PRIMING_CALLS = 32;
+
+/**
+ * Calls a freshly compiled recursion a few dozen times on no points, so that V8 has allocated its feedback
+ * vector and recorded the types at the code around the loop before the loop first gets hot.
+ *
+ * Why: V8 allocates a function's feedback only after several calls. A recursion first called on a long
+ * light curve gets hot inside that first call; it was then optimised without feedback for its prologue,
+ * deoptimised at once ("insufficient type feedback"), and, in about one run in four, V8 kept entering the
+ * loop through on-stack-replacement code, which holds the loop's doubles as heap numbers: an allocation per
+ * point and twice the time (measured with --trace-opt/--trace-gc on the engine benchmark's light curves:
+ * 1 scavenge against about 1100 per 2e7 points, 43 against 92 ns per point for R = 1).
+ */
+function primeFeedback(advance: UnrolledAdvance, blocks: readonly TransitionBlock[], withColumn: boolean): void {
+  const r = blocks.reduce((sum, block) => sum + block.size, 0);
+  const ones = new Float64Array(r).fill(1);
+  const state = new Float64Array(r * r + (withColumn ? 3 : 2) * r);
+  const scalars = initialScalars();
+  const none = new Float64Array(0);
+  for (let call = 0; call < PRIMING_CALLS; call++) advance(blocks, ones, ones, state, scalars, none, none, none, 0.5, 0, 0);
 }
 
 /** Compiled recursions by layout (a cache of pure functions of the layout: same input, same code). */
@@ -215,13 +240,15 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
     const m = blockSizes[b]!;
     const names = range(m * m).map((e) => `a${b}_${e}`);
     if (kind === "exponential") {
-      // ExponentialTransition.transition
-      emit(`const ${names[0]} = decayFactor(-rate${b} * dt);`);
+      // ExponentialTransition.transition, with decayFactor written out (no call: see decayFactorSource).
+      emit(`let ${names[0]}; ${decayFactorSource(names[0]!, `-rate${b} * dt`)}`);
     } else if (kind === "oscillator") {
       // OscillatorTransition.transition
       // dampedHyperbolicValues, with its power-series branch (most steps of a well-sampled light curve) inline.
       emit(`let ec${b}; let es${b}; const x${b} = lambda${b} * dt * dt;`);
-      emit(`if (x${b} > -1 && x${b} < 1) { const e = decayFactor(-c${b} * dt); ec${b} = e * coshSeries(x${b}); es${b} = e * (dt * sinhSeries(x${b})); }`);
+      const series = hyperbolicSeriesSource(`x${b}`);
+      emit(`if (x${b} > -1 && x${b} < 1) { let e; ${decayFactorSource("e", `-c${b} * dt`)}`);
+      emit(`ec${b} = e * ${series.cosh}; es${b} = e * (dt * ${series.sinh}); }`);
       emit(`else { dampedHyperbolicValues(c${b}, lambda${b}, w${b}, dt, phi); ec${b} = phi[0]; es${b} = phi[1]; }`);
       emit(`const ${names[0]} = ec${b} + es${b} * c${b}; const ${names[1]} = es${b} * w${b};`);
       emit(`const ${names[2]} = -es${b} * w${b}; const ${names[3]} = ec${b} - es${b} * c${b};`);
@@ -267,11 +294,13 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
   });
   emit(`}`);
   // u = q - S p, D = d + variance - p^T S p, z = r - p^T f.
-  emit(`let pSp = 0; let pf = 0;${withColumn ? " let pg = 0;" : ""}`);
+  // Sums start from their first term (projectState): no 0 + on the critical path.
   for (const i of range(r)) {
-    emit(`{ let sp = 0; ${range(r).map((j) => `sp += ${s(i, j)} * p${j};`).join(" ")}`);
-    emit(`u${i} = q${i} - sp; pSp += p${i} * sp; pf += p${i} * f${i};${withColumn ? ` pg += p${i} * g${i};` : ""} }`);
+    emit(`const sp${i} = ${range(r).map((j) => `${s(i, j)} * p${j}`).join(" + ")}; u${i} = q${i} - sp${i};`);
   }
+  emit(`const pSp = ${range(r).map((i) => `p${i} * sp${i}`).join(" + ")};`);
+  emit(`const pf = ${range(r).map((i) => `p${i} * f${i}`).join(" + ")};`);
+  if (withColumn) emit(`const pg = ${range(r).map((i) => `p${i} * g${i}`).join(" + ")};`);
   emit(`const pivot = noiseVariance[k] + variance - pSp;`);
   emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
   emit(`const z = (residual[k] - mean) - pf;`);

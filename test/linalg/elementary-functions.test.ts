@@ -1,5 +1,13 @@
 import { describe, expect, it } from "vitest";
-import { cosineAndSine, decayFactor, exponential } from "../../src/linalg/elementary-functions.js";
+import {
+  cosineAndSine,
+  decayFactor,
+  decayFactorSource,
+  exponential,
+  EXPONENTIAL_TABLE_NAMES,
+  EXPONENTIAL_TABLES,
+} from "../../src/linalg/elementary-functions.js";
+import { coshSeries, hyperbolicSeriesSource, sinhSeries } from "../../src/linalg/oscillator-transition.js";
 import { createRng } from "../../src/random/rng.js";
 
 const EPSILON = 2 ** -52;
@@ -71,5 +79,33 @@ describe("decayFactor (exp for transitions, no call-out)", () => {
     expect(decayFactor(-Infinity)).toBe(0);
     expect(decayFactor(NaN)).toBeNaN();
     expect(decayFactor(0)).toBe(1);
+  });
+});
+
+describe("source emitters for generated code (bit-identical to the functions they write out)", () => {
+  it("decayFactorSource computes decayFactor exactly, the flush to zero included", () => {
+    const names = EXPONENTIAL_TABLE_NAMES.join(", ");
+    const written = new Function(names, `return function (x) { let y; ${decayFactorSource("y", "x")} return y; };`)(
+      ...EXPONENTIAL_TABLE_NAMES.map((name) => EXPONENTIAL_TABLES[name]),
+    ) as (x: number) => number;
+    const rng = createRng(7);
+    for (let i = 0; i < 100_000; i++) {
+      const x = i % 3 === 0 ? -rng.uniform() * 800 : (rng.uniform() - 0.5) * 20;
+      expect(Object.is(written(x), decayFactor(x))).toBe(true);
+    }
+    expect(written(-709)).toBe(0);
+    expect(written(0)).toBe(1);
+  });
+
+  it("hyperbolicSeriesSource computes coshSeries and sinhSeries exactly", () => {
+    const { cosh, sinh } = hyperbolicSeriesSource("x");
+    const coshWritten = new Function("x", `return ${cosh};`) as (x: number) => number;
+    const sinhWritten = new Function("x", `return ${sinh};`) as (x: number) => number;
+    const rng = createRng(8);
+    for (let i = 0; i < 100_000; i++) {
+      const x = 2 * rng.uniform() - 1;
+      expect(Object.is(coshWritten(x), coshSeries(x))).toBe(true);
+      expect(Object.is(sinhWritten(x), sinhSeries(x))).toBe(true);
+    }
   });
 });
