@@ -10,7 +10,7 @@
  *   - quasi-periodic: two oscillators with eta-corrected frequencies w and 2w (src/kernels/quasi-periodic.ts);
  *   - S <- Phi (S + u u^T / D) Phi^T one block pair at a time, exactly as TransitionLayout.applyCongruence
  *     does for blocks of size 1 and 2;
- *   - sum log D as the log of a running product of pivots, folded in when it leaves [1e-150, 1e150];
+ *   - sum log D as the log of a running product of pivots kept in range by power-of-two rescalings;
  *   - for one-block kernels (R = 1 and 2) the state in local variables; for more blocks a general loop over
  *     small arrays. (The TS engine writes the recursion out with the state in locals for every layout of
  *     1x1 and 2x2 blocks, src/linalg/unrolled-recursion.ts: V8 keeps locals in registers but bounds-checks
@@ -299,9 +299,32 @@ static inline void apply_congruence(const form_t *form, const double *phi, doubl
 
 static const double HALF_LOG_TWO_PI = 0.91893853320467274178;
 
-/* sum log D is the log of a running product of pivots, folded in when it leaves [1e-150, 1e150]. */
+/*
+ * sum log D = log(product) + exponent ln 2: pivots multiplied into a running product kept within
+ * [1e-150, 1e150] by exact power-of-two rescalings counted in a binary exponent (pivot-product.ts).
+ */
 static const double PIVOT_LOW = 1e-100, PIVOT_HIGH = 1e100;
 static const double PRODUCT_LOW = 1e-150, PRODUCT_HIGH = 1e150;
+#define PIVOT_SCALE_BITS 332
+#define PRODUCT_SCALE_BITS 498
+
+/* Multiplies one pivot into the running product (absorbPivot in pivot-product.ts). */
+#define FOLD_PIVOT(pivot)                                                           \
+  do {                                                                              \
+    double scaled = (pivot);                                                        \
+    if (!(scaled > PIVOT_LOW && scaled < PIVOT_HIGH)) {                             \
+      while (scaled > PIVOT_HIGH) { scaled *= 0x1p-332; exponent += PIVOT_SCALE_BITS; } \
+      while (scaled < PIVOT_LOW) { scaled *= 0x1p332; exponent -= PIVOT_SCALE_BITS; }   \
+    }                                                                               \
+    product *= scaled;                                                              \
+    if (!(product > PRODUCT_LOW && product < PRODUCT_HIGH)) {                       \
+      if (product > 1) { product *= 0x1p-498; exponent += PRODUCT_SCALE_BITS; }     \
+      else { product *= 0x1p498; exponent -= PRODUCT_SCALE_BITS; }                  \
+    }                                                                               \
+  } while (0)
+
+/* log det from the running product and binary exponent (logDeterminantOf). */
+#define LOG_DETERMINANT() (log(product) + exponent * 0.6931471805599453)
 
 static double general_recursion(const form_t *form, size_t n, const double *time, const double *noise,
                                 const double *residual, double mean) {
@@ -315,7 +338,7 @@ static double general_recursion(const form_t *form, size_t n, const double *time
   memset(s, 0, sizeof(double) * (size_t)(r * r));
   memset(f, 0, sizeof(double) * (size_t)r);
   memset(u, 0, sizeof(double) * (size_t)r);
-  double quadratic = 0, log_determinant = 0, product = 1, previous_inverse = 0, previous_z = 0;
+  double quadratic = 0, exponent = 0, product = 1, previous_inverse = 0, previous_z = 0;
   for (size_t k = 0; k < n; k++) {
     if (k > 0) {
       for (int i = 0; i < r; i++) {
@@ -352,33 +375,11 @@ static double general_recursion(const form_t *form, size_t n, const double *time
     previous_inverse = 1 / pivot;
     previous_z = z;
     quadratic += z * z * previous_inverse;
-    if (pivot > PIVOT_LOW && pivot < PIVOT_HIGH) {
-      product *= pivot;
-      if (!(product > PRODUCT_LOW && product < PRODUCT_HIGH)) {
-        log_determinant += log(product);
-        product = 1;
-      }
-    } else {
-      log_determinant += log(pivot);
-    }
+    FOLD_PIVOT(pivot);
   }
-  log_determinant += log(product);
-  return -0.5 * (quadratic + log_determinant) - (double)n * HALF_LOG_TWO_PI;
+  return -0.5 * (quadratic + LOG_DETERMINANT()) - (double)n * HALF_LOG_TWO_PI;
 }
 
-/* Folds one pivot into the log-determinant (running product, as in the general loop). */
-#define FOLD_PIVOT(pivot)                                                  \
-  do {                                                                     \
-    if ((pivot) > PIVOT_LOW && (pivot) < PIVOT_HIGH) {                     \
-      product *= (pivot);                                                  \
-      if (!(product > PRODUCT_LOW && product < PRODUCT_HIGH)) {            \
-        log_determinant += log(product);                                   \
-        product = 1;                                                       \
-      }                                                                    \
-    } else {                                                               \
-      log_determinant += log(pivot);                                       \
-    }                                                                      \
-  } while (0)
 
 static double not_positive_definite(size_t k, double pivot) {
   fprintf(stderr, "engine-loglike: not positive definite at point %zu (pivot %g)\n", k, pivot);
@@ -394,7 +395,7 @@ static double one_block_recursion(const form_t *form, size_t n, const double *ti
   const double p0 = form->p[0], q0 = form->q[0];
   const double variance = 0 + p0 * q0;
   double s = 0, f = 0, u = 0, phi[4];
-  double quadratic = 0, log_determinant = 0, product = 1, previous_inverse = 0, previous_z = 0;
+  double quadratic = 0, exponent = 0, product = 1, previous_inverse = 0, previous_z = 0;
   for (size_t k = 0; k < n; k++) {
     if (k > 0) {
       double ui = u * previous_inverse;
@@ -415,8 +416,7 @@ static double one_block_recursion(const form_t *form, size_t n, const double *ti
     quadratic += z * z * previous_inverse;
     FOLD_PIVOT(pivot);
   }
-  log_determinant += log(product);
-  return -0.5 * (quadratic + log_determinant) - (double)n * HALF_LOG_TWO_PI;
+  return -0.5 * (quadratic + LOG_DETERMINANT()) - (double)n * HALF_LOG_TWO_PI;
 }
 
 /* One 2 x 2 block (R = 2) with the state in local variables, as advanceTwo. */
@@ -425,7 +425,7 @@ static double two_block_recursion(const form_t *form, size_t n, const double *ti
   const double p0 = form->p[0], p1 = form->p[1], q0 = form->q[0], q1 = form->q[1];
   const double variance = 0 + p0 * q0 + p1 * q1;
   double s00 = 0, s01 = 0, s10 = 0, s11 = 0, f0 = 0, f1 = 0, u0 = 0, u1 = 0, phi[4];
-  double quadratic = 0, log_determinant = 0, product = 1, previous_inverse = 0, previous_z = 0;
+  double quadratic = 0, exponent = 0, product = 1, previous_inverse = 0, previous_z = 0;
   for (size_t k = 0; k < n; k++) {
     if (k > 0) {
       double a0 = u0 * previous_inverse, a1 = u1 * previous_inverse;
@@ -460,8 +460,7 @@ static double two_block_recursion(const form_t *form, size_t n, const double *ti
     quadratic += z * z * previous_inverse;
     FOLD_PIVOT(pivot);
   }
-  log_determinant += log(product);
-  return -0.5 * (quadratic + log_determinant) - (double)n * HALF_LOG_TWO_PI;
+  return -0.5 * (quadratic + LOG_DETERMINANT()) - (double)n * HALF_LOG_TWO_PI;
 }
 
 /*

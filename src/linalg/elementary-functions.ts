@@ -158,6 +158,27 @@ const C5 = 2.08757232129817482790e-9;
 const C6 = -1.13596475577881948265e-11;
 
 /**
+ * JavaScript statements that set the variables `cosTarget` and `sinTarget` (declared by the caller) to the
+ * cosine and sine of `argument`: the operations of {@link cosineAndSine} in the same order, for generated
+ * code (see {@link decayFactorSource} for why not a call). Bit-identical results.
+ */
+export function cosineAndSineSource(cosTarget: string, sinTarget: string, argument: string): string {
+  const n = (value: number): string => `(${String(value)})`;
+  return (
+    `{ const cx = ${argument};` +
+    ` if (!(cx > ${n(-REDUCTION_LIMIT)} && cx < ${n(REDUCTION_LIMIT)})) { ${cosTarget} = Math.cos(cx); ${sinTarget} = Math.sin(cx); } else {` +
+    ` const cnf = cx * ${n(TWO_BY_PI)} + ${n(ROUNDING_SHIFT)} - ${n(ROUNDING_SHIFT)};` +
+    ` const cy = cx - cnf * ${n(PIO2_1)} - cnf * ${n(PIO2_2)} - cnf * ${n(PIO2_3)}; const cz = cy * cy;` +
+    ` const csin = cy + cy * cz * (${n(S1)} + cz * (${n(S2)} + cz * (${n(S3)} + cz * (${n(S4)} + cz * (${n(S5)} + cz * ${n(S6)})))));` +
+    ` const chz = 0.5 * cz; const cw = 1 - chz;` +
+    ` const ccos = cw + (1 - cw - chz + cz * cz * (${n(C1)} + cz * (${n(C2)} + cz * (${n(C3)} + cz * (${n(C4)} + cz * (${n(C5)} + cz * ${n(C6)}))))));` +
+    ` const cq = (cnf | 0) & 3;` +
+    ` if (cq === 0) { ${cosTarget} = ccos; ${sinTarget} = csin; } else if (cq === 1) { ${cosTarget} = -csin; ${sinTarget} = ccos; }` +
+    ` else if (cq === 2) { ${cosTarget} = -ccos; ${sinTarget} = -csin; } else { ${cosTarget} = csin; ${sinTarget} = -ccos; } } }`
+  );
+}
+
+/**
  * cos x and sin x together, written to out[offset] and out[offset + 1]: one Cody-Waite reduction
  * x = n pi/2 + y, |y| <= pi/4, then fdlibm's polynomials for sin y and cos y and the quadrant n mod 4.
  * Absolute error below 2^-52 for |x| <= 1e5; larger |x| use `Math.cos` and `Math.sin`.

@@ -1,5 +1,5 @@
 import { FactorizationError } from "./factorization-error.js";
-import { PIVOT_HIGH, PIVOT_LOW, PRODUCT_HIGH, PRODUCT_LOW } from "./pivot-product.js";
+import { absorbPivot } from "./pivot-product.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import { absorbPoint, projectState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
@@ -17,9 +17,8 @@ const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
  * z_n = r_n - p^T f_n. Then log L = -1/2 sum (z_n^2 / D_n + log D_n + log 2 pi). S_n is the covariance that
  * the earlier points explain, so it stays bounded: this is the stable form of the recursion.
  *
- * sum log D_n is taken as the logarithm of a running product of pivots, folded into the sum whenever the
- * product leaves [1e-150, 1e150]: one logarithm per few dozen points instead of one per point, with the
- * same rounding error (a few ulp of the result per fold).
+ * sum log D_n is the logarithm of a running product of pivots kept in range by exact power-of-two
+ * rescalings (pivot-product.ts): one logarithm per pass, none inside the loop.
  *
  * @param form the kernel's semiseparable form
  * @param time sorted times (the time origin does not matter: only differences enter)
@@ -93,8 +92,6 @@ function advance(
   let previousInverse = scalars[SLOT.previousInverse];
   let previousZ = scalars[SLOT.previousZ];
   let quadratic = scalars[SLOT.quadratic];
-  let logDeterminant = scalars[SLOT.logDeterminant];
-  let product = scalars[SLOT.product];
   for (let k = begin; k < end; k++) {
     if (k > 0) {
       // S <- Phi (S + u u^T / D) Phi^T ; f <- Phi (f + u z / D)
@@ -112,19 +109,9 @@ function advance(
     previousInverse = 1 / pivot;
     previousZ = z;
     quadratic += z * z * previousInverse;
-    if (pivot > PIVOT_LOW && pivot < PIVOT_HIGH) {
-      product *= pivot;
-      if (!(product > PRODUCT_LOW && product < PRODUCT_HIGH)) {
-        logDeterminant += Math.log(product);
-        product = 1;
-      }
-    } else {
-      logDeterminant += Math.log(pivot);
-    }
+    absorbPivot(pivot, scalars, SLOT.product, SLOT.exponent);
   }
   scalars[SLOT.previousInverse] = previousInverse;
   scalars[SLOT.previousZ] = previousZ;
   scalars[SLOT.quadratic] = quadratic;
-  scalars[SLOT.logDeterminant] = logDeterminant;
-  scalars[SLOT.product] = product;
 }

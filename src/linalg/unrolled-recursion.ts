@@ -1,8 +1,8 @@
-import { decayFactorSource, EXPONENTIAL_TABLE_NAMES, EXPONENTIAL_TABLES } from "./elementary-functions.js";
+import { cosineAndSineSource, decayFactorSource, EXPONENTIAL_TABLE_NAMES, EXPONENTIAL_TABLES } from "./elementary-functions.js";
 import { ExponentialTransition } from "./exponential-transition.js";
 import { FactorizationError } from "./factorization-error.js";
-import { dampedHyperbolicValues, hyperbolicSeriesSource, OscillatorTransition } from "./oscillator-transition.js";
-import { PIVOT_HIGH, PIVOT_LOW, PRODUCT_HIGH, PRODUCT_LOW } from "./pivot-product.js";
+import { hyperbolicSeriesSource, OscillatorTransition } from "./oscillator-transition.js";
+import { absorbPivotSource, logDeterminantOf } from "./pivot-product.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import type { TransitionBlock } from "./transition-block.js";
 
@@ -51,13 +51,13 @@ export const SLOT = {
   previousInverse: 0,
   previousZ: 1,
   quadratic: 2,
-  logDeterminant: 3,
+  exponent: 3,
   product: 4,
   previousW: 5,
   columnQuadratic: 6,
   crossQuadratic: 7,
 } as const;
-const SCALAR_NAMES = ["previousInverse", "previousZ", "quadratic", "logDeterminant", "product"] as const;
+const SCALAR_NAMES = ["previousInverse", "previousZ", "quadratic", "exponent", "product"] as const;
 const COLUMN_SCALAR_NAMES = ["previousW", "columnQuadratic", "crossQuadratic"] as const;
 
 /** A fresh array of running scalars (the pivot product starts at 1). */
@@ -75,11 +75,11 @@ export interface RecursionTotals {
   readonly crossQuadratic: number;
 }
 
-/** The totals of a finished pass from its running scalars (the pivot product folded into the log-determinant). */
+/** The totals of a finished pass from its running scalars (the log-determinant from the pivot product, pivot-product.ts). */
 export function recursionTotals(scalars: Float64Array): RecursionTotals {
   return {
     quadratic: scalars[SLOT.quadratic],
-    logDeterminant: scalars[SLOT.logDeterminant] + Math.log(scalars[SLOT.product]),
+    logDeterminant: logDeterminantOf(scalars[SLOT.product], scalars[SLOT.exponent]),
     columnQuadratic: scalars[SLOT.columnQuadratic],
     crossQuadratic: scalars[SLOT.crossQuadratic],
   };
@@ -129,7 +129,7 @@ const SIZE: Record<BlockKind, number> = { exponential: 1, oscillator: 2, generic
  * A compiled recursion for these blocks, or undefined when the layout is not supported (a block larger
  * than 2 x 2, R above {@link MAX_UNROLLED_DIMENSION}) or code cannot be compiled here.
  * `state` holds S (R x R, row-major), then f, then u (R each) between calls; `scalars` the five running
- * scalars in the order previousInverse, previousZ, quadratic, logDeterminant, product.
+ * scalars in the order previousInverse, previousZ, quadratic, exponent, product (see pivot-product.ts).
  *
  * With `constantColumn`, the forward substitution also runs on a column of ones (state g after u in
  * `state`, R more values), and three more scalars follow: the previous w, sum w^2 / D = 1^T K^-1 1 and
@@ -148,11 +148,11 @@ export function unrolledRecursion(
   if (blocks.reduce((r, b) => r + b.size, 0) <= MAX_UNROLLED_DIMENSION) {
     try {
       const factory = new Function(
-        ["FactorizationError", "dampedHyperbolicValues", ...EXPONENTIAL_TABLE_NAMES].join(", "),
+        ["FactorizationError", ...EXPONENTIAL_TABLE_NAMES].join(", "),
         `return function advance(${PARAMETERS}) {\n${recursionSource(kinds as BlockKind[], withColumn)}\n};`,
       );
       const tables = EXPONENTIAL_TABLE_NAMES.map((name) => EXPONENTIAL_TABLES[name]);
-      advance = factory(FactorizationError, dampedHyperbolicValues, ...tables) as UnrolledAdvance;
+      advance = factory(FactorizationError, ...tables) as UnrolledAdvance;
       primeFeedback(advance, blocks, withColumn);
     } catch {
       advance = undefined; // no run-time compilation on this host
@@ -208,11 +208,21 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
 
   // Constants and state.
   emit(`"use strict";`);
+  // Numbers that arrive as JavaScript values (object fields, arguments) are multiplied by 1 here, once: that
+  // makes them doubles in registers, where a use inside the loop would check and unbox them at every point.
   kinds.forEach((kind, b) => {
     emit(`const block${b} = blocks[${b}];`);
-    if (kind === "exponential") emit(`const rate${b} = block${b}.rate;`);
-    if (kind === "oscillator") emit(`const c${b} = block${b}.halfWidth; const lambda${b} = block${b}.lambda; const w${b} = block${b}.w0;`);
+    if (kind === "exponential") emit(`const rate${b} = block${b}.rate * 1;`);
+    if (kind === "oscillator") {
+      emit(`const c${b} = block${b}.halfWidth * 1; const lambda${b} = block${b}.lambda * 1; const w${b} = block${b}.w0 * 1;`);
+      // dampedHyperbolicValues' per-block constants: the frequency (lambda < 0) or the two real rates (lambda > 0).
+      emit(`const omega${b} = lambda${b} < 0 ? Math.sqrt(-lambda${b}) : 0; const root${b} = lambda${b} > 0 ? Math.sqrt(lambda${b}) : 0;`);
+      emit(`const fastRate${b} = c${b} + root${b}; const slowRate${b} = (w${b} * w${b}) / fastRate${b};`);
+    }
   });
+  emit(`const meanValue = mean * 1; const first = begin | 0; const last = end | 0;`);
+  // Touching the arrays before the loop lets V8 check their maps once, here, instead of at every point.
+  emit(`if (time.length < last || noiseVariance.length < last || residual.length < last) throw new RangeError("advance: arrays shorter than the range");`);
   emit(`const phi = new Float64Array(${blockSizes.reduce((a, m) => a + m * m, 0)});`);
   for (const i of range(r)) emit(`const p${i} = p[${i}]; const q${i} = q[${i}];`);
   emit(`let variance = 0; ${range(r).map((i) => `variance += p${i} * q${i};`).join(" ")}`);
@@ -225,7 +235,7 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
   }
 
   emit(`let failedAt = -1; let failedPivot = 0;`);
-  emit(`for (let k = begin; k < end; k++) {`);
+  emit(`for (let k = first; k < last; k++) {`);
   emit(`if (k > 0) {`);
   // S <- S + u u^T / D ; f <- f + u z / D (row by row, as the general loop)
   for (const i of range(r)) {
@@ -243,13 +253,16 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
       // ExponentialTransition.transition, with decayFactor written out (no call: see decayFactorSource).
       emit(`let ${names[0]}; ${decayFactorSource(names[0]!, `-rate${b} * dt`)}`);
     } else if (kind === "oscillator") {
-      // OscillatorTransition.transition
-      // dampedHyperbolicValues, with its power-series branch (most steps of a well-sampled light curve) inline.
+      // OscillatorTransition.transition: dampedHyperbolicValues written out, all three branches (a call left
+      // for any of them made V8 box its double arguments at every step).
       emit(`let ec${b}; let es${b}; const x${b} = lambda${b} * dt * dt;`);
       const series = hyperbolicSeriesSource(`x${b}`);
       emit(`if (x${b} > -1 && x${b} < 1) { let e; ${decayFactorSource("e", `-c${b} * dt`)}`);
       emit(`ec${b} = e * ${series.cosh}; es${b} = e * (dt * ${series.sinh}); }`);
-      emit(`else { dampedHyperbolicValues(c${b}, lambda${b}, w${b}, dt, phi); ec${b} = phi[0]; es${b} = phi[1]; }`);
+      emit(`else if (lambda${b} < 0) { let e; ${decayFactorSource("e", `-c${b} * dt`)} let co; let si; ${cosineAndSineSource("co", "si", `omega${b} * dt`)}`);
+      emit(`ec${b} = e * co; es${b} = e * (si / omega${b}); }`);
+      emit(`else { let slow; ${decayFactorSource("slow", `-slowRate${b} * dt`)} let fast; ${decayFactorSource("fast", `-fastRate${b} * dt`)}`);
+      emit(`ec${b} = 0.5 * (slow + fast); es${b} = (slow - fast) / (2 * root${b}); }`);
       emit(`const ${names[0]} = ec${b} + es${b} * c${b}; const ${names[1]} = es${b} * w${b};`);
       emit(`const ${names[2]} = -es${b} * w${b}; const ${names[3]} = ec${b} - es${b} * c${b};`);
     } else {
@@ -303,14 +316,12 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
   if (withColumn) emit(`const pg = ${range(r).map((i) => `p${i} * g${i}`).join(" + ")};`);
   emit(`const pivot = noiseVariance[k] + variance - pSp;`);
   emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
-  emit(`const z = (residual[k] - mean) - pf;`);
+  emit(`const z = (residual[k] - meanValue) - pf;`);
   emit(`previousInverse = 1 / pivot; previousZ = z; quadratic += z * z * previousInverse;`);
   if (withColumn) {
     emit(`const w = 1 - pg; columnQuadratic += w * w * previousInverse; crossQuadratic += z * w * previousInverse; previousW = w;`);
   }
-  emit(`if (pivot > ${PIVOT_LOW} && pivot < ${PIVOT_HIGH}) {`);
-  emit(`product *= pivot; if (!(product > ${PRODUCT_LOW} && product < ${PRODUCT_HIGH})) { logDeterminant += Math.log(product); product = 1; }`);
-  emit(`} else { logDeterminant += Math.log(pivot); }`);
+  emit(absorbPivotSource("pivot"));
   emit(`}`);
 
   for (const i of range(r)) for (const j of range(r)) emit(`state[${i * r + j}] = ${s(i, j)};`);

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import {
   cosineAndSine,
+  cosineAndSineSource,
   decayFactor,
   decayFactorSource,
   exponential,
@@ -95,6 +96,18 @@ describe("source emitters for generated code (bit-identical to the functions the
     }
     expect(written(-709)).toBe(0);
     expect(written(0)).toBe(1);
+  });
+
+  it("cosineAndSineSource computes cosineAndSine exactly, the large-argument fallback included", () => {
+    const written = new Function("x", `let c; let s; ${cosineAndSineSource("c", "s", "x")} return [c, s];`) as (x: number) => number[];
+    const out = new Float64Array(2);
+    const rng = createRng(9);
+    for (let i = 0; i < 100_000; i++) {
+      const x = i % 100 === 0 ? (rng.uniform() - 0.5) * 1e7 : (rng.uniform() - 0.5) * 200;
+      cosineAndSine(x, out, 0);
+      const [c, s] = written(x);
+      expect(Object.is(c, out[0]) && Object.is(s, out[1])).toBe(true);
+    }
   });
 
   it("hyperbolicSeriesSource computes coshSeries and sinhSeries exactly", () => {
