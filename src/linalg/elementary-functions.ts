@@ -1,3 +1,5 @@
+import { literalConstant, type ConstantWriter } from "./generated-constants.js";
+
 /**
  * exp, cos and sin written out in TypeScript for the per-point loops of the engine. V8 implements
  * `Math.exp`, `Math.cos` and `Math.sin` as calls into C that it cannot inline, about 40 ns each on the
@@ -103,11 +105,11 @@ export const EXPONENTIAL_TABLE_NAMES = ["twoToJBy64", "twoToJBy64Tail", "twoToM"
  * Why not a call: V8 inlines a call only while the caller is small; past that it calls out, which boxes
  * the double argument and result on the heap at every point (measured: the two-component recursion
  * allocated about 90 bytes per point before its transitions were written out this way). Constants
- * appear as shortest round-trip literals, so the results are bit-identical to {@link decayFactor}'s
+ * are written by `n` (shortest round-trip literals by default, or pooled locals: generated-constants.ts),
+ * the same doubles either way, so the results are bit-identical to {@link decayFactor}'s
  * (test/linalg/elementary-functions.test.ts).
  */
-export function decayFactorSource(target: string, argument: string): string {
-  const n = (value: number): string => `(${String(value)})`;
+export function decayFactorSource(target: string, argument: string, n: ConstantWriter = literalConstant): string {
   return (
     `{ const ex = ${argument}; if (ex < -708) { ${target} = 0; } else {` +
     ` const ekf = ex * ${n(INVERSE_LN2_BY_64)} + ${n(ROUNDING_SHIFT)} - ${n(ROUNDING_SHIFT)};` +
@@ -162,8 +164,7 @@ const C6 = -1.13596475577881948265e-11;
  * cosine and sine of `argument`: the operations of {@link cosineAndSine} in the same order, for generated
  * code (see {@link decayFactorSource} for why not a call). Bit-identical results.
  */
-export function cosineAndSineSource(cosTarget: string, sinTarget: string, argument: string): string {
-  const n = (value: number): string => `(${String(value)})`;
+export function cosineAndSineSource(cosTarget: string, sinTarget: string, argument: string, n: ConstantWriter = literalConstant): string {
   return (
     `{ const cx = ${argument};` +
     ` if (!(cx > ${n(-REDUCTION_LIMIT)} && cx < ${n(REDUCTION_LIMIT)})) { ${cosTarget} = Math.cos(cx); ${sinTarget} = Math.sin(cx); } else {` +

@@ -1,4 +1,5 @@
 import { cosineAndSine, decayFactor } from "./elementary-functions.js";
+import { literalConstant, type ConstantWriter } from "./generated-constants.js";
 import type { ParameterDependence, TransitionBlock } from "./transition-block.js";
 
 /**
@@ -113,10 +114,10 @@ const COSH_COEFFICIENTS = [1, 1 / 2, 1 / 24, 1 / 720, 1 / 40320, 1 / 3628800, 1 
 /** The coefficients 1/(2k + 1)!, k = 0 .. 10, of {@link sinhSeries}. */
 const SINH_COEFFICIENTS = [1, 1 / 6, 1 / 120, 1 / 5040, 1 / 362880, 1 / 39916800, 1 / 6227020800, 1 / 1307674368000, 1 / 355687428096000, 1 / 121645100408832000, 1 / 51090942171709440000];
 
-/** A Horner expression c0 + x (c1 + x (c2 + ...)) with shortest round-trip literals. */
-function hornerSource(coefficients: readonly number[], x: string): string {
-  let text = `(${String(coefficients[coefficients.length - 1])})`;
-  for (let k = coefficients.length - 2; k >= 0; k--) text = `(${String(coefficients[k])}) + ${x} * (${text})`;
+/** A Horner expression c0 + x (c1 + x (c2 + ...)), constants written by `constant`. */
+function hornerSource(coefficients: readonly number[], x: string, constant: ConstantWriter): string {
+  let text = constant(coefficients[coefficients.length - 1]);
+  for (let k = coefficients.length - 2; k >= 0; k--) text = `${constant(coefficients[k])} + ${x} * (${text})`;
   return `(${text})`;
 }
 
@@ -125,8 +126,11 @@ function hornerSource(coefficients: readonly number[], x: string): string {
  * (unrolled-recursion.ts): the same operations in the same order, bit-identical results, and no call that
  * V8 might leave out of line (see decayFactorSource in elementary-functions.ts).
  */
-export function hyperbolicSeriesSource(x: string): { readonly cosh: string; readonly sinh: string } {
-  return { cosh: hornerSource(COSH_COEFFICIENTS, x), sinh: hornerSource(SINH_COEFFICIENTS, x) };
+export function hyperbolicSeriesSource(
+  x: string,
+  constant: ConstantWriter = literalConstant,
+): { readonly cosh: string; readonly sinh: string } {
+  return { cosh: hornerSource(COSH_COEFFICIENTS, x, constant), sinh: hornerSource(SINH_COEFFICIENTS, x, constant) };
 }
 
 /**

@@ -1,3 +1,5 @@
+import { literalConstant, type ConstantWriter } from "./generated-constants.js";
+
 /**
  * How the recursions accumulate log det K = sum log D_n without a logarithm per point: every pivot is
  * multiplied into a running product, which exact rescalings by powers of two keep inside
@@ -58,10 +60,9 @@ export function absorbPivot(pivot: number, state: Float64Array, productSlot: num
 /**
  * The statements of {@link absorbPivot} for generated code, on local variables named `product` and
  * `exponent` (declared by the caller) and a positive finite `pivot` expression; the same operations in the
- * same order, with the constants as exact literals.
+ * same order, with the constants written by `literal` (exact literals by default).
  */
-export function absorbPivotSource(pivot: string): string {
-  const literal = (value: number): string => `(${String(value)})`;
+export function absorbPivotSource(pivot: string, literal: ConstantWriter = literalConstant): string {
   return (
     `{ let scaled = ${pivot};` +
     ` if (!(scaled > ${literal(PIVOT_LOW)} && scaled < ${literal(PIVOT_HIGH)})) {` +

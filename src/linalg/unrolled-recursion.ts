@@ -1,6 +1,7 @@
 import { cosineAndSineSource, decayFactorSource, EXPONENTIAL_TABLE_NAMES, EXPONENTIAL_TABLES } from "./elementary-functions.js";
 import { ExponentialTransition } from "./exponential-transition.js";
 import { FactorizationError } from "./factorization-error.js";
+import { constantPool } from "./generated-constants.js";
 import { hyperbolicSeriesSource, OscillatorTransition } from "./oscillator-transition.js";
 import { absorbPivotSource, logDeterminantOf } from "./pivot-product.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
@@ -147,12 +148,13 @@ export function unrolledRecursion(
   let advance: UnrolledAdvance | undefined;
   if (blocks.reduce((r, b) => r + b.size, 0) <= MAX_UNROLLED_DIMENSION) {
     try {
+      const { body, constants } = recursionSource(kinds as BlockKind[], withColumn);
       const factory = new Function(
-        ["FactorizationError", ...EXPONENTIAL_TABLE_NAMES].join(", "),
-        `return function advance(${PARAMETERS}) {\n${recursionSource(kinds as BlockKind[], withColumn)}\n};`,
+        ["FactorizationError", "constants", ...EXPONENTIAL_TABLE_NAMES].join(", "),
+        `return function advance(${PARAMETERS}) {\n${body}\n};`,
       );
       const tables = EXPONENTIAL_TABLE_NAMES.map((name) => EXPONENTIAL_TABLES[name]);
-      advance = factory(FactorizationError, ...tables) as UnrolledAdvance;
+      advance = factory(FactorizationError, constants, ...tables) as UnrolledAdvance;
       primeFeedback(advance, blocks, withColumn);
     } catch {
       advance = undefined; // no run-time compilation on this host
@@ -190,8 +192,13 @@ const compiled = new Map<string, UnrolledAdvance | undefined>();
 
 const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, end";
 
-/** The body of the generated function (see {@link unrolledRecursion}). */
-export function recursionSource(kinds: readonly BlockKind[], withColumn = false): string {
+/**
+ * The body of the generated function (see {@link unrolledRecursion}) and the values of the numeric constants
+ * it reads from its `constants` array (generated-constants.ts).
+ */
+export function recursionSource(kinds: readonly BlockKind[], withColumn = false): { body: string; constants: Float64Array } {
+  const pool = constantPool("k");
+  const constant = pool.write;
   const blockSizes = kinds.map((kind) => SIZE[kind]);
   const starts: number[] = [];
   let r = 0;
@@ -235,6 +242,8 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
   }
 
   emit(`let failedAt = -1; let failedPivot = 0;`);
+  // The pooled constants are declared here, before the loop, once the loop has been written.
+  const constantsAt = lines.length;
   emit(`for (let k = first; k < last; k++) {`);
   emit(`if (k > 0) {`);
   // S <- S + u u^T / D ; f <- f + u z / D (row by row, as the general loop)
@@ -251,17 +260,19 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
     const names = range(m * m).map((e) => `a${b}_${e}`);
     if (kind === "exponential") {
       // ExponentialTransition.transition, with decayFactor written out (no call: see decayFactorSource).
-      emit(`let ${names[0]}; ${decayFactorSource(names[0]!, `-rate${b} * dt`)}`);
+      emit(`let ${names[0]}; ${decayFactorSource(names[0]!, `-rate${b} * dt`, constant)}`);
     } else if (kind === "oscillator") {
       // OscillatorTransition.transition: dampedHyperbolicValues written out, all three branches (a call left
       // for any of them made V8 box its double arguments at every step).
       emit(`let ec${b}; let es${b}; const x${b} = lambda${b} * dt * dt;`);
-      const series = hyperbolicSeriesSource(`x${b}`);
-      emit(`if (x${b} > -1 && x${b} < 1) { let e; ${decayFactorSource("e", `-c${b} * dt`)}`);
+      const series = hyperbolicSeriesSource(`x${b}`, constant);
+      emit(`if (x${b} > -1 && x${b} < 1) { let e; ${decayFactorSource("e", `-c${b} * dt`, constant)}`);
       emit(`ec${b} = e * ${series.cosh}; es${b} = e * (dt * ${series.sinh}); }`);
-      emit(`else if (lambda${b} < 0) { let e; ${decayFactorSource("e", `-c${b} * dt`)} let co; let si; ${cosineAndSineSource("co", "si", `omega${b} * dt`)}`);
+      emit(`else if (lambda${b} < 0) { let e; ${decayFactorSource("e", `-c${b} * dt`, constant)}`);
+      emit(`let co; let si; ${cosineAndSineSource("co", "si", `omega${b} * dt`, constant)}`);
       emit(`ec${b} = e * co; es${b} = e * (si / omega${b}); }`);
-      emit(`else { let slow; ${decayFactorSource("slow", `-slowRate${b} * dt`)} let fast; ${decayFactorSource("fast", `-fastRate${b} * dt`)}`);
+      emit(`else { let slow; ${decayFactorSource("slow", `-slowRate${b} * dt`, constant)}`);
+      emit(`let fast; ${decayFactorSource("fast", `-fastRate${b} * dt`, constant)}`);
       emit(`ec${b} = 0.5 * (slow + fast); es${b} = (slow - fast) / (2 * root${b}); }`);
       emit(`const ${names[0]} = ec${b} + es${b} * c${b}; const ${names[1]} = es${b} * w${b};`);
       emit(`const ${names[2]} = -es${b} * w${b}; const ${names[3]} = ec${b} - es${b} * c${b};`);
@@ -321,7 +332,7 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
   if (withColumn) {
     emit(`const w = 1 - pg; columnQuadratic += w * w * previousInverse; crossQuadratic += z * w * previousInverse; previousW = w;`);
   }
-  emit(absorbPivotSource("pivot"));
+  emit(absorbPivotSource("pivot", constant));
   emit(`}`);
 
   for (const i of range(r)) for (const j of range(r)) emit(`state[${i * r + j}] = ${s(i, j)};`);
@@ -332,5 +343,6 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
     COLUMN_SCALAR_NAMES.forEach((name) => emit(`scalars[${SLOT[name]}] = ${name};`));
   }
   emit(`if (failedAt >= 0) throw new FactorizationError(failedAt, failedPivot);`);
-  return lines.join("\n");
+  lines.splice(constantsAt, 0, pool.declarations("constants"));
+  return { body: lines.join("\n"), constants: Float64Array.from(pool.values) };
 }
