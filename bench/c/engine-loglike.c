@@ -503,7 +503,8 @@ static void read_data(const char *path, data_t *data) {
 /*
  * Build the kernel from its parameters, check and prepare the inputs, run the recursion: the work of
  * `new GaussianProcess(kernel, t, { yerr, mean }).logLikelihood(y)` in TypeScript, which copies the times
- * and forms yerr^2 in one checking pass, checks the values, and lets the recursion subtract the mean.
+ * and forms yerr^2 in one checking pass, lets the recursion subtract the mean, and checks the values only
+ * when the result is not finite.
  */
 static double evaluate(const term_t *terms, int term_count, const data_t *data) {
   form_t form;
@@ -520,9 +521,12 @@ static double evaluate(const term_t *terms, int term_count, const data_t *data) 
     time[i] = t;
     noise[i] = e * e;
   }
-  for (size_t i = 0; i < n; i++)
-    if (!isfinite(data->value[i])) die("value is not finite", NULL);
   double result = recursion(&form, n, time, noise, data->value, data->mean);
+  /* The values are checked only when the result is not finite (a value that is not finite makes it so), as
+     the TypeScript evaluateValues does: no separate pass over them. */
+  if (!isfinite(result))
+    for (size_t i = 0; i < n; i++)
+      if (!isfinite(data->value[i])) die("value is not finite", NULL);
   free(time);
   free(noise);
   return result;

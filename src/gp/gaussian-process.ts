@@ -7,8 +7,8 @@ import { semiseparableLogLikelihood } from "../linalg/semiseparable-likelihood.j
 import { semiseparablePredict } from "../linalg/semiseparable-smoother.js";
 import type { Rng } from "../random/rng.js";
 import {
-  checkValues,
   conditionInputs,
+  evaluateValues,
   residualOf,
   sortTargets,
   withMeanAndJitter,
@@ -90,8 +90,8 @@ export class GaussianProcess {
 
   /** log N(y | mean, K + diag(yerr^2 + jitter^2)), in one O(N R^2) pass with O(R^2) memory. */
   logLikelihood(y: ArrayLike<number>): number {
-    checkValues(y, this.inputs);
-    return semiseparableLogLikelihood(this.form, this.inputs.time, this.inputs.noiseVariance, y, { mean: this.inputs.mean });
+    const { time, noiseVariance, mean } = this.inputs;
+    return evaluateValues(y, this.inputs, () => semiseparableLogLikelihood(this.form, time, noiseVariance, y, { mean }));
   }
 
   /**
@@ -100,8 +100,8 @@ export class GaussianProcess {
    * process's own `mean` option plays no part. One O(N R^2) pass.
    */
   meanMarginal(y: ArrayLike<number>, prior: MeanPrior): MeanMarginal {
-    checkValues(y, this.inputs);
-    return semiseparableMeanMarginal(this.form, this.inputs.time, this.inputs.noiseVariance, y, prior);
+    const { time, noiseVariance } = this.inputs;
+    return evaluateValues(y, this.inputs, () => semiseparableMeanMarginal(this.form, time, noiseVariance, y, prior));
   }
 
   /**

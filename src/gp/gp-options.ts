@@ -1,3 +1,5 @@
+import { FactorizationError } from "../linalg/factorization-error.js";
+
 /** Options of a Gaussian process conditioned on observation times. */
 export interface GaussianProcessOptions {
   /** Per-point 1-sigma measurement errors (array, same length as the times) or one error for all. Default 0. */
@@ -105,6 +107,23 @@ export function withMeanAndJitter(inputs: ConditionedInputs, options: Pick<Gauss
     }
   }
   return { time: inputs.time, errorVariance: inputs.errorVariance, mean, jitter, noiseVariance };
+}
+
+/**
+ * Evaluates a one-pass function of y with the check of its values folded into that pass: the length is
+ * checked first, and a value that is not finite makes the recursion's result non-finite, which it reports
+ * as a FactorizationError; only then is y scanned ({@link checkValues}), so the error still names the bad
+ * value. Saves the separate pass over y that checking first costs at every evaluation.
+ */
+export function evaluateValues<T>(y: ArrayLike<number>, inputs: ConditionedInputs, evaluate: () => T): T {
+  const n = inputs.time.length;
+  if (y.length !== n) throw new RangeError(`GaussianProcess: y has ${y.length} values for ${n} times`);
+  try {
+    return evaluate();
+  } catch (error) {
+    if (error instanceof FactorizationError) checkValues(y, inputs);
+    throw error;
+  }
 }
 
 /** Checks that y has one finite value per time (without copying it). */

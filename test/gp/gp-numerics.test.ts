@@ -68,6 +68,12 @@ describe("numerical robustness", () => {
     expect(() => new GaussianProcess(k, [0, NaN])).toThrow(/time\[1\]/);
     expect(() => new GaussianProcess(k, [0, 1], { yerr: [0.1, -1] })).toThrow(/yerr\[1\]/);
     expect(() => new GaussianProcess(k, [0, 1]).logLikelihood([0, Infinity])).toThrow(/y\[1\]/);
+    // Values are checked within the recursion's pass, yet the error still names the bad value.
+    const several = new GaussianProcess(k, [0, 1, 2, 3], { yerr: 0.1 });
+    expect(() => several.logLikelihood([0, 0.1, NaN, 0.3])).toThrow(/y\[2\] is not finite/);
+    expect(() => several.logLikelihood([0, 0.1, 0.2, -Infinity])).toThrow(/y\[3\] is not finite/);
+    expect(() => several.meanMarginal([NaN, 0.1, 0.2, 0.3], { mean: 0, sd: 1 })).toThrow(/y\[0\] is not finite/);
+    expect(() => several.logLikelihood([0, 0.1, 0.2])).toThrow(/3 values for 4 times/);
     expect(() => new GaussianProcess(kernels.periodicSquaredExponential({ sigma: 1, period: 2, scale: 3, gamma: 1 }), [0, 1])).toThrow(
       /DenseGaussianProcess/,
     );
