@@ -83,7 +83,7 @@ typedef struct {
   double value[4];
 } term_t;
 
-static void die(const char *message, const char *detail) {
+static _Noreturn void die(const char *message, const char *detail) {
   fprintf(stderr, "engine-loglike: %s%s%s\n", message, detail ? ": " : "", detail ? detail : "");
   exit(2);
 }
