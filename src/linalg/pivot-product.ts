@@ -60,18 +60,18 @@ export function absorbPivot(pivot: number, state: Float64Array, productSlot: num
 /**
  * The statements of {@link absorbPivot} for generated code, on local variables named `product` and
  * `exponent` (declared by the caller) and a positive finite `pivot` expression; the same operations in the
- * same order, with the constants written by `literal` (exact literals by default).
+ * same order, with the constants written by `constant` (exact literals by default).
  */
-export function absorbPivotSource(pivot: string, literal: ConstantWriter = literalConstant): string {
+export function absorbPivotSource(pivot: string, constant: ConstantWriter = literalConstant): string {
   return (
     `{ let scaled = ${pivot};` +
-    ` if (!(scaled > ${literal(PIVOT_LOW)} && scaled < ${literal(PIVOT_HIGH)})) {` +
-    ` while (scaled > ${literal(PIVOT_HIGH)}) { scaled *= ${literal(PIVOT_SCALE_DOWN)}; exponent += ${PIVOT_SCALE_BITS}; }` +
-    ` while (scaled < ${literal(PIVOT_LOW)}) { scaled *= ${literal(PIVOT_SCALE_UP)}; exponent -= ${PIVOT_SCALE_BITS}; } }` +
+    ` if (!(scaled > ${constant(PIVOT_LOW)} && scaled < ${constant(PIVOT_HIGH)})) {` +
+    ` while (scaled > ${constant(PIVOT_HIGH)}) { scaled *= ${constant(PIVOT_SCALE_DOWN)}; exponent += ${PIVOT_SCALE_BITS}; }` +
+    ` while (scaled < ${constant(PIVOT_LOW)}) { scaled *= ${constant(PIVOT_SCALE_UP)}; exponent -= ${PIVOT_SCALE_BITS}; } }` +
     ` product *= scaled;` +
-    ` if (!(product > ${literal(PRODUCT_LOW)} && product < ${literal(PRODUCT_HIGH)})) {` +
-    ` if (product > 1) { product *= ${literal(PRODUCT_SCALE_DOWN)}; exponent += ${PRODUCT_SCALE_BITS}; }` +
-    ` else { product *= ${literal(PRODUCT_SCALE_UP)}; exponent -= ${PRODUCT_SCALE_BITS}; } } }`
+    ` if (!(product > ${constant(PRODUCT_LOW)} && product < ${constant(PRODUCT_HIGH)})) {` +
+    ` if (product > 1) { product *= ${constant(PRODUCT_SCALE_DOWN)}; exponent += ${PRODUCT_SCALE_BITS}; }` +
+    ` else { product *= ${constant(PRODUCT_SCALE_UP)}; exponent -= ${PRODUCT_SCALE_BITS}; } } }`
   );
 }
 

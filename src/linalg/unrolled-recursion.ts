@@ -228,9 +228,10 @@ export function recursionSource(kinds: readonly BlockKind[], withColumn = false)
     }
   });
   emit(`const meanValue = mean * 1; const first = begin | 0; const last = end | 0;`);
-  // Touching the arrays before the loop lets V8 check their maps once, here, instead of at every point.
+  // A guard for callers: the arrays must cover the range.
   emit(`if (time.length < last || noiseVariance.length < last || residual.length < last) throw new RangeError("advance: arrays shorter than the range");`);
-  emit(`const phi = new Float64Array(${blockSizes.reduce((a, m) => a + m * m, 0)});`);
+  // Scratch for the transitions that are called rather than written out.
+  if (kinds.some((kind) => kind === "generic1" || kind === "generic2")) emit(`const phi = new Float64Array(${blockSizes.reduce((a, m) => a + m * m, 0)});`);
   for (const i of range(r)) emit(`const p${i} = p[${i}]; const q${i} = q[${i}];`);
   emit(`let variance = 0; ${range(r).map((i) => `variance += p${i} * q${i};`).join(" ")}`);
   for (const i of range(r)) for (const j of range(r)) emit(`let ${s(i, j)} = state[${i * r + j}];`);
