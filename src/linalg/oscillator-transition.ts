@@ -110,9 +110,15 @@ function factorial(n: number): number {
 }
 
 /** The coefficients 1/(2k)!, k = 0 .. 10, of {@link coshSeries}, as the literals it is written with. */
-const COSH_COEFFICIENTS = [1, 1 / 2, 1 / 24, 1 / 720, 1 / 40320, 1 / 3628800, 1 / 479001600, 1 / 87178291200, 1 / 20922789888000, 1 / 6402373705728000, 1 / 2432902008176640000];
+const COSH_COEFFICIENTS = [
+  1, 1 / 2, 1 / 24, 1 / 720, 1 / 40320, 1 / 3628800, 1 / 479001600, 1 / 87178291200, 1 / 20922789888000,
+  1 / 6402373705728000, 1 / 2432902008176640000,
+];
 /** The coefficients 1/(2k + 1)!, k = 0 .. 10, of {@link sinhSeries}. */
-const SINH_COEFFICIENTS = [1, 1 / 6, 1 / 120, 1 / 5040, 1 / 362880, 1 / 39916800, 1 / 6227020800, 1 / 1307674368000, 1 / 355687428096000, 1 / 121645100408832000, 1 / 51090942171709440000];
+const SINH_COEFFICIENTS = [
+  1, 1 / 6, 1 / 120, 1 / 5040, 1 / 362880, 1 / 39916800, 1 / 6227020800, 1 / 1307674368000, 1 / 355687428096000,
+  1 / 121645100408832000, 1 / 51090942171709440000,
+];
 
 /** A Horner expression c0 + x (c1 + x (c2 + ...)), constants written by `constant`. */
 function hornerSource(coefficients: readonly number[], x: string, constant: ConstantWriter): string {
