@@ -61,6 +61,11 @@ export const SLOT = {
 const SCALAR_NAMES = ["previousInverse", "previousZ", "quadratic", "exponent", "product"] as const;
 const COLUMN_SCALAR_NAMES = ["previousW", "columnQuadratic", "crossQuadratic"] as const;
 
+/** Length of the `state` array of a recursion of dimension `r`: S (r x r), f, u and, with a constant column, g. */
+function stateLength(r: number, constantColumn: boolean): number {
+  return r * r + (constantColumn ? 3 : 2) * r;
+}
+
 /** A fresh array of running scalars (the pivot product starts at 1). */
 export function initialScalars(): Float64Array {
   const scalars = new Float64Array(SCALAR_NAMES.length + COLUMN_SCALAR_NAMES.length);
@@ -101,7 +106,7 @@ export function runUnrolled(
 ): RecursionTotals {
   const n = time.length;
   const r = form.observation.length;
-  const state = new Float64Array(r * r + (constantColumn ? 3 : 2) * r);
+  const state = new Float64Array(stateLength(r, constantColumn));
   const scalars = initialScalars();
   for (let begin = 0; begin < n; begin += RECURSION_CHUNK) {
     advance(form.blocks, form.observation, form.projection, state, scalars, time, noiseVariance, values, mean, begin, Math.min(n, begin + RECURSION_CHUNK));
@@ -146,7 +151,8 @@ export function unrolledRecursion(
   const key = kinds.join(",") + (withColumn ? "+ones" : "");
   if (compiled.has(key)) return compiled.get(key);
   let advance: UnrolledAdvance | undefined;
-  if (blocks.reduce((r, b) => r + b.size, 0) <= MAX_UNROLLED_DIMENSION) {
+  const dimension = blocks.reduce((r, b) => r + b.size, 0);
+  if (dimension <= MAX_UNROLLED_DIMENSION) {
     try {
       const { body, constants } = recursionSource(kinds as BlockKind[], withColumn);
       const factory = new Function(
@@ -155,7 +161,7 @@ export function unrolledRecursion(
       );
       const tables = EXPONENTIAL_TABLE_NAMES.map((name) => EXPONENTIAL_TABLES[name]);
       advance = factory(FactorizationError, constants, ...tables) as UnrolledAdvance;
-      primeFeedback(advance, blocks, withColumn);
+      primeFeedback(advance, blocks, dimension, withColumn);
     } catch {
       advance = undefined; // no run-time compilation on this host
     }
@@ -178,10 +184,9 @@ const PRIMING_CALLS = 32;
  * point and twice the time (measured with --trace-opt/--trace-gc on the engine benchmark's light curves:
  * 1 scavenge against about 1100 per 2e7 points, 43 against 92 ns per point for R = 1).
  */
-function primeFeedback(advance: UnrolledAdvance, blocks: readonly TransitionBlock[], withColumn: boolean): void {
-  const r = blocks.reduce((sum, block) => sum + block.size, 0);
+function primeFeedback(advance: UnrolledAdvance, blocks: readonly TransitionBlock[], r: number, withColumn: boolean): void {
   const ones = new Float64Array(r).fill(1);
-  const state = new Float64Array(r * r + (withColumn ? 3 : 2) * r);
+  const state = new Float64Array(stateLength(r, withColumn));
   const scalars = initialScalars();
   const none = new Float64Array(0);
   for (let call = 0; call < PRIMING_CALLS; call++) advance(blocks, ones, ones, state, scalars, none, none, none, 0.5, 0, 0);

@@ -20,9 +20,12 @@ describe("R-hat bound by number of chains", () => {
     expect(rhatThreshold(1.01, 16)).toBeCloseTo(1.0394, 4);
   });
 
-  it("1.01 for four chains is the R-hat of an ESS of about 400 (Vehtari et al. 2021 pair the two)", () => {
-    // R-hat^2 - 1 ~ M / ESS for M split chains (Vats & Knudson 2021, from memory): M = 8, ESS = 400.
-    expect(Math.sqrt(1 + 8 / 400)).toBeCloseTo(1.01, 4);
+  it("asks the same ESS of any number of chains: M / (bound^2 - 1) is constant, about 400", () => {
+    // R-hat^2 - 1 ~ M / ESS for M split chains (Vats & Knudson 2021, from memory), so the ESS at which a
+    // well-mixed run meets the bound is M / (bound^2 - 1); 1.01 with four chains (M = 8) gives 398.
+    const essAtBound = (chains: number) => (2 * chains) / (rhatThreshold(1.01, chains) ** 2 - 1);
+    expect(essAtBound(4)).toBeCloseTo(398, 0);
+    for (const chains of [8, 16, 32, 64]) expect(essAtBound(chains)).toBeCloseTo(essAtBound(4), 8);
   });
 
   it("at equal total ESS, R-hat^2 - 1 of sixteen chains is four times that of four: the scaling the bound assumes", () => {
