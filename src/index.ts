@@ -31,7 +31,7 @@ export { createRng, childSeed, type Rng } from "./random/rng.js";
 export * as inference from "./inference/index.js";
 
 export type { LightCurve, LightCurveProvenance, PhotometricUnit } from "./lightcurve/light-curve.js";
-export { InputError } from "./lightcurve/input-error.js";
+export { InputError } from "./errors/input-error.js";
 export { parseLightCurveBytes } from "./lightcurve/parse-light-curve-bytes.js";
 export { seasonalGroundCadence, continuousSpaceCadence } from "./lightcurve/cadence.js";
 export { photometricError } from "./lightcurve/photometric-error.js";

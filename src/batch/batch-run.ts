@@ -1,5 +1,5 @@
 import { existsSync } from "node:fs";
-import { UsageError } from "../cli/cli-io.js";
+import { UsageError } from "../errors/usage-error.js";
 import type { CatalogueObject } from "./catalogue-object.js";
 import { CsvResultsAppender, writeCsvTable } from "./csv-results-file.js";
 import { FitPool, type FitOutcome } from "./fit-pool.js";

@@ -1,7 +1,7 @@
 import { stat } from "node:fs/promises";
 import { basename, resolve } from "node:path";
-import { UsageError } from "../cli/cli-io.js";
-import { InputError } from "../lightcurve/input-error.js";
+import { UsageError } from "../errors/usage-error.js";
+import { InputError } from "../errors/input-error.js";
 import { streamCatalogue } from "../lightcurve/catalogue-stream.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { FORMAT_EXTENSIONS } from "../lightcurve/light-curve-format.js";

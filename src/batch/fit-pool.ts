@@ -1,5 +1,5 @@
 import { Worker } from "node:worker_threads";
-import { InputError } from "../lightcurve/input-error.js";
+import { InputError } from "../errors/input-error.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { FitRequest, FitWorkerData, FitWorkerMessage } from "./fit-worker-protocol.js";
 import type { ResultRow } from "./result-row.js";

@@ -1,5 +1,5 @@
 import { existsSync } from "node:fs";
-import { InputError } from "../lightcurve/input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { writeCsvTable } from "./csv-results-file.js";
 import { ColumnTypeTracker, writeParquetTable } from "./parquet-results-file.js";
 import { orderColumns, unionColumns } from "./result-columns.js";

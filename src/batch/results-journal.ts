@@ -1,7 +1,7 @@
 import { closeSync, existsSync, ftruncateSync, openSync } from "node:fs";
 import { dirname } from "node:path";
-import { UsageError } from "../cli/cli-io.js";
-import { InputError } from "../lightcurve/input-error.js";
+import { UsageError } from "../errors/usage-error.js";
+import { InputError } from "../errors/input-error.js";
 import { DurableAppender, syncDirectory } from "./durable-file.js";
 import { fileLines } from "./file-lines.js";
 import { decodeJournalRow, encodeJournalRow } from "./journal-codec.js";

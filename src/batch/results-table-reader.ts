@@ -1,5 +1,5 @@
 import { asyncBufferFromFile, parquetMetadataAsync, parquetReadObjects } from "hyparquet";
-import { InputError } from "../lightcurve/input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { fileLines } from "./file-lines.js";
 import { TEXT_COLUMNS, type ResultCell, type ResultRow } from "./result-row.js";
 

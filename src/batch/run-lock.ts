@@ -1,6 +1,6 @@
 import { closeSync, openSync, readFileSync, unlinkSync, writeSync } from "node:fs";
 import { hostname } from "node:os";
-import { UsageError } from "../cli/cli-io.js";
+import { UsageError } from "../errors/usage-error.js";
 
 /** A held lock; release it when the run ends. */
 export interface RunLock {

@@ -1,4 +1,4 @@
-import { UsageError } from "../cli/cli-io.js";
+import { UsageError } from "../errors/usage-error.js";
 import { hash48 } from "./id-hash.js";
 
 /** One share of a catalogue: shard `index` (0-based) of `count`. */

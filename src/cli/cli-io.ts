@@ -19,11 +19,3 @@ export interface CliVerb {
   readonly summary: string;
   run(args: string[], io: CliIo): Promise<number>;
 }
-
-/** A mistake in the command line itself (unknown option, missing argument); printed as one line, exit 2. */
-export class UsageError extends Error {
-  constructor(message: string) {
-    super(message);
-    this.name = "UsageError";
-  }
-}

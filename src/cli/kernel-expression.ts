@@ -1,5 +1,5 @@
 import { kernels, type Kernel } from "../kernels/index.js";
-import { UsageError } from "./cli-io.js";
+import { UsageError } from "../errors/usage-error.js";
 
 /** The kernel families a kernel expression may name, with their parameter names. */
 export const EXPRESSION_FAMILIES: Readonly<Record<string, string>> = {

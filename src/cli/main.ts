@@ -1,6 +1,7 @@
-import { InputError } from "../lightcurve/input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
-import { UsageError, type CliIo, type CliVerb } from "./cli-io.js";
+import type { CliIo, CliVerb } from "./cli-io.js";
+import { UsageError } from "../errors/usage-error.js";
 
 /**
  * The verbs of the `horologium` command; each lives in `verbs/<name>.ts` and exports `verb: CliVerb`.

@@ -2,7 +2,7 @@ import { resolve } from "node:path";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { readLightCurves } from "../lightcurve/read-light-curves.js";
 import type { CliIo } from "./cli-io.js";
-import { UsageError } from "./cli-io.js";
+import { UsageError } from "../errors/usage-error.js";
 import { textOption, type VerbArguments } from "./verb-arguments.js";
 
 /** Reads the light curves of FILE with the column options; the readers' warnings go to stderr. */

@@ -1,6 +1,6 @@
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
-import { InputError } from "../lightcurve/input-error.js";
+import { InputError } from "../errors/input-error.js";
 import type { FitResult } from "../models/fit-result.js";
 
 /** Reads a fit-result JSON file (one result; for a multi-band file the result of `band`). */

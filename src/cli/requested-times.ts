@@ -1,7 +1,7 @@
 import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
-import { InputError } from "../lightcurve/input-error.js";
-import { UsageError } from "./cli-io.js";
+import { InputError } from "../errors/input-error.js";
+import { UsageError } from "../errors/usage-error.js";
 
 /** Largest prediction grid accepted, so that a typo cannot ask for billions of points. */
 export const MAX_GRID_POINTS = 1_000_000;

@@ -1,5 +1,5 @@
 import { parseArgs, type ParseArgsConfig } from "node:util";
-import { UsageError } from "./cli-io.js";
+import { UsageError } from "../errors/usage-error.js";
 
 type Options = NonNullable<ParseArgsConfig["options"]>;
 

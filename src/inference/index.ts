@@ -69,7 +69,8 @@ export { rankNormalize, splitChains, foldAboutMedian } from "./rank-normalizatio
 export { rankNormalizedSplitRhat, potentialScaleReduction } from "./split-rhat.js";
 export { effectiveSampleSize, bulkEffectiveSampleSize, tailEffectiveSampleSize } from "./effective-sample-size.js";
 export { highestDensityInterval } from "./highest-density-interval.js";
-export { summarizeDraws, type PosteriorSummary } from "./posterior-summary.js";
+export { summarizeDraws, type PosteriorSummary, type ParameterSummary } from "./posterior-summary.js";
+export type { SamplerDiagnostics } from "./sampler-diagnostics.js";
 export { posteriorDraws, posteriorDrawsToCsv, type PosteriorDraws } from "./posterior-draws.js";
 export {
   samplePosterior,

@@ -1,8 +1,22 @@
-import type { ParameterSummary } from "../models/fit-result.js";
 import { highestDensityInterval } from "./highest-density-interval.js";
 import { sortedCopy, sortedQuantile } from "./sample-quantile.js";
 
-/** The fit-result summary of one parameter plus highest-density intervals. */
+/**
+ * Posterior summary of one scalar: the keys every result of a fit carries for each parameter
+ * (docs/architecture.md, "Result JSON"). Units are those of the draws.
+ */
+export interface ParameterSummary {
+  readonly median: number;
+  readonly mean: number;
+  /** Standard deviation, divisor n - 1. */
+  readonly sd: number;
+  readonly "q2.5": number;
+  readonly q16: number;
+  readonly q84: number;
+  readonly "q97.5": number;
+}
+
+/** {@link ParameterSummary} plus highest-density intervals. */
 export interface PosteriorSummary extends ParameterSummary {
   /** Shortest interval holding 95% of the draws. */
   readonly hdi95: readonly [number, number];

@@ -1,9 +1,9 @@
-import type { FitDiagnostics } from "../models/fit-result.js";
 import { checkGrowthAfter } from "./check-schedule.js";
 import { assessConvergence, DEFAULT_CONVERGENCE_CRITERIA, type ConvergenceCriteria, type ConvergenceReport } from "./convergence-check.js";
 import { evaluationCost, type EvaluationCounts } from "./evaluation-counter.js";
 import { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
 import type { MarkovSampler } from "./markov-sampler.js";
+import type { SamplerDiagnostics } from "./sampler-diagnostics.js";
 
 /** Why a run stopped. */
 export type StopReason = "converged" | "budget" | "cancelled";
@@ -53,8 +53,7 @@ export interface RunSamplerOptions {
 }
 
 /** Diagnostics of a run: the fit-result keys plus per-parameter figures. */
-export interface RunDiagnostics extends FitDiagnostics {
-  readonly rhatThreshold: number;
+export interface RunDiagnostics extends SamplerDiagnostics {
   readonly stopReason: StopReason;
   readonly iterations: number;
   readonly keptDraws: number;

@@ -1,5 +1,5 @@
 import type { ColumnChoice } from "./column-choice.js";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import type { LightCurve, PhotometricUnit } from "./light-curve.js";
 import { fluxErrorToMagnitudeError, fluxToMagnitude, magnitudeErrorToFluxError, magnitudeToFlux } from "./units.js";
 

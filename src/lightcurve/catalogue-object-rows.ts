@@ -1,7 +1,7 @@
 import { assembleLightCurves } from "./assemble-light-curves.js";
 import type { ColumnChoice } from "./column-choice.js";
 import type { DelimitedReadOptions } from "./delimited-light-curve.js";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import type { LightCurve } from "./light-curve.js";
 
 /** One object of a catalogue table. */

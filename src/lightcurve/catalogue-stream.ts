@@ -14,7 +14,7 @@ import {
   rowFields,
   type DelimitedReadOptions,
 } from "./delimited-light-curve.js";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { formatFromName } from "./light-curve-format.js";
 import { streamParquetCatalogue } from "./parquet-catalogue-stream.js";
 

@@ -1,7 +1,7 @@
 import { assembleLightCurves, type AssembleOptions, type LightCurveSet, type ObservationColumns } from "./assemble-light-curves.js";
 import { chooseColumns, type ColumnChoice, type ColumnOptions } from "./column-choice.js";
 import { detectDelimitedLayout, isSkippableLine, splitFields, type Delimiter, type DelimitedLayout } from "./delimited-text.js";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { MISSING_TOKENS, readNumericCell } from "./numeric-cell.js";
 
 /**

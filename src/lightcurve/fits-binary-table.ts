@@ -1,4 +1,4 @@
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 
 /**
  * A reader for binary-table extensions (XTENSION = 'BINTABLE') of FITS files, written from the FITS

@@ -2,7 +2,7 @@ import { assembleLightCurves, type LightCurveSet, type ObservationColumns } from
 import { chooseColumns, type ColumnChoice } from "./column-choice.js";
 import type { DelimitedReadOptions } from "./delimited-light-curve.js";
 import { parseFitsBinaryTables, readFitsCell, type FitsBinaryTable, type FitsColumn } from "./fits-binary-table.js";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import type { PhotometricUnit } from "./light-curve.js";
 import { readNumericCell } from "./numeric-cell.js";
 

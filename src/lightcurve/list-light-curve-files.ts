@@ -1,6 +1,6 @@
 import { readdir } from "node:fs/promises";
 import { join, relative } from "node:path";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { isLightCurveFileName } from "./light-curve-format.js";
 
 /**

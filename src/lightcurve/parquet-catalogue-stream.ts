@@ -2,7 +2,7 @@ import { asyncBufferFromFile, parquetMetadataAsync, parquetReadObjects, parquetS
 import { finishObject, newObjectRows, notContiguous, type CatalogueEntry, type ObjectRows } from "./catalogue-object-rows.js";
 import { chooseColumns, findColumn } from "./column-choice.js";
 import type { DelimitedReadOptions } from "./delimited-light-curve.js";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { numericParquetCell, UNIX_EPOCH_MJD } from "./parquet-light-curve.js";
 
 /**

@@ -2,7 +2,7 @@ import { parquetMetadata, parquetReadObjects, parquetSchema, type FileMetaData }
 import { assembleLightCurves, type LightCurveSet, type ObservationColumns } from "./assemble-light-curves.js";
 import { chooseColumns } from "./column-choice.js";
 import type { DelimitedReadOptions } from "./delimited-light-curve.js";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { readNumericCell } from "./numeric-cell.js";
 
 /**

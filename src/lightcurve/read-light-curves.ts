@@ -1,7 +1,7 @@
 import { readFile } from "node:fs/promises";
 import { gunzipSync } from "node:zlib";
 import type { LightCurveSet } from "./assemble-light-curves.js";
-import { InputError } from "./input-error.js";
+import { InputError } from "../errors/input-error.js";
 import { formatFromBytes, formatFromName } from "./light-curve-format.js";
 import { parseLightCurveBytes, type LightCurveReadOptions } from "./parse-light-curve-bytes.js";
 

@@ -1,3 +1,8 @@
+import type { ParameterSummary } from "../inference/posterior-summary.js";
+import type { SamplerDiagnostics } from "../inference/sampler-diagnostics.js";
+
+export type { ParameterSummary };
+
 /**
  * The fit result: the stable JSON contract of `horologium fit` (see DESIGN.md). Keys may be added;
  * none of these may be renamed or removed.
@@ -32,36 +37,9 @@ export interface FitDataSummary {
   readonly [extra: string]: unknown;
 }
 
-/** Posterior summary of one scalar parameter. */
-export interface ParameterSummary {
-  readonly median: number;
-  readonly mean: number;
-  readonly sd: number;
-  readonly "q2.5": number;
-  readonly q16: number;
-  readonly q84: number;
-  readonly "q97.5": number;
-  readonly [extra: string]: unknown;
-}
-
-/** Sampler convergence and cost. */
-export interface FitDiagnostics {
-  readonly converged: boolean;
-  /** Largest rank-normalised split R-hat over the parameters. */
-  readonly rhatMax: number;
-  /**
-   * The bound R-hat had to be below: 1.01 for four chains, larger for more chains at the same demand on
-   * the effective sample size (inference/convergence-check.ts, rhatThreshold). Absent in results written
-   * before it was added, where the bound was 1.01.
-   */
-  readonly rhatThreshold?: number;
-  /** Smallest of the bulk and tail effective sample sizes over the parameters. */
-  readonly essMin: number;
-  /** Largest integrated autocorrelation time over the parameters, in steps. */
-  readonly autocorrTime: number;
-  /** Mean acceptance rate. */
-  readonly acceptance: number;
-  readonly logProbEvaluations: number;
-  readonly seconds: number;
+/**
+ * Sampler convergence and cost (the keys of {@link SamplerDiagnostics}, which the inference layer owns).
+ */
+export interface FitDiagnostics extends SamplerDiagnostics {
   readonly [extra: string]: unknown;
 }

@@ -112,16 +112,8 @@ function figureHtml(drawn: DrawnFigure): string {
 </figure>`;
 }
 
-const SUMMARY_KEYS = new Set(["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5"]);
-
 function parameterTable(input: ReportInput): string {
   const entries = Object.entries(input.result.parameters);
-  // Per-parameter extras a sampler may add (for example an R-hat or an ESS) get their own columns.
-  const extraKeys = [
-    ...new Set(
-      entries.flatMap(([, s]) => Object.keys(s).filter((k) => !SUMMARY_KEYS.has(k) && typeof s[k] === "number")),
-    ),
-  ];
   const head = [
     "Parameter",
     "Unit",
@@ -129,7 +121,6 @@ function parameterTable(input: ReportInput): string {
     "95% interval",
     "Mean",
     "SD",
-    ...extraKeys,
   ]
     .map((h) => `<th scope="col">${escapeHtml(h)}</th>`)
     .join("");
@@ -142,7 +133,6 @@ function parameterTable(input: ReportInput): string {
       `<td>${escapeHtml(interval95(s))}</td>`,
       `<td>${escapeHtml(formatSignificant(s.mean, 4))}</td>`,
       `<td>${escapeHtml(formatSignificant(s.sd, 3))}</td>`,
-      ...extraKeys.map((k) => `<td>${typeof s[k] === "number" ? escapeHtml(formatSignificant(s[k] as number, 4)) : ""}</td>`),
     ];
     return `<tr>${cells.join("")}</tr>`;
   });

@@ -5,7 +5,7 @@ import { gzipSync } from "node:zlib";
 import { parquetWriteBuffer } from "hyparquet-writer";
 import { describe, expect, it } from "vitest";
 import { streamCatalogue, type CatalogueEntry, type CatalogueStreamOptions } from "../../src/lightcurve/catalogue-stream.js";
-import { InputError } from "../../src/lightcurve/input-error.js";
+import { InputError } from "../../src/errors/input-error.js";
 import { listLightCurveFiles } from "../../src/lightcurve/list-light-curve-files.js";
 
 const fixture = join(import.meta.dirname, "..", "fixtures", "lightcurves", "lantern-catalogue.csv");

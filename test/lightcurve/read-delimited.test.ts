@@ -4,7 +4,7 @@ import { join } from "node:path";
 import { gzipSync } from "node:zlib";
 import { describe, expect, it } from "vitest";
 import { parseDelimitedLightCurves } from "../../src/lightcurve/delimited-light-curve.js";
-import { InputError } from "../../src/lightcurve/input-error.js";
+import { InputError } from "../../src/errors/input-error.js";
 import { readLightCurves } from "../../src/lightcurve/read-light-curves.js";
 
 const fixtures = join(import.meta.dirname, "..", "fixtures", "lightcurves");

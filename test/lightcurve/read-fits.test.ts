@@ -5,7 +5,7 @@ import { gzipSync } from "node:zlib";
 import { describe, expect, it } from "vitest";
 import { parseFitsBinaryTables } from "../../src/lightcurve/fits-binary-table.js";
 import { parseFitsLightCurves } from "../../src/lightcurve/fits-light-curve.js";
-import { InputError } from "../../src/lightcurve/input-error.js";
+import { InputError } from "../../src/errors/input-error.js";
 import { readLightCurves } from "../../src/lightcurve/read-light-curves.js";
 import { bintableHdu, card, concat, headerBytes, primaryHdu, type ColumnSpec } from "./fits-builder.js";
 

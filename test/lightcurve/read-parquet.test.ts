@@ -3,7 +3,7 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { parquetWriteBuffer } from "hyparquet-writer";
 import { describe, expect, it } from "vitest";
-import { InputError } from "../../src/lightcurve/input-error.js";
+import { InputError } from "../../src/errors/input-error.js";
 import { parseParquetLightCurves } from "../../src/lightcurve/parquet-light-curve.js";
 import { readLightCurves } from "../../src/lightcurve/read-light-curves.js";
 

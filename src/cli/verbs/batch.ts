@@ -11,7 +11,8 @@ import { progressDisplay } from "../../batch/progress-display.js";
 import { formatShard, parseShard, shardFromEnvironment, WHOLE_CATALOGUE, type ShardSpec } from "../../batch/shard.js";
 import { slurmJobScript } from "../../batch/slurm-job-script.js";
 import { formatDuration, formatRate, throughput } from "../../batch/throughput.js";
-import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
+import type { CliIo, CliVerb } from "../cli-io.js";
+import { UsageError } from "../../errors/usage-error.js";
 
 const MODELS = ["drw", "oscillator", "quasi-periodic"] as const;
 

@@ -1,6 +1,7 @@
 import { compareModels } from "../../models/compare-models.js";
 import { MODEL_NAMES, type ModelName } from "../../models/light-curve-model.js";
-import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
+import type { CliIo, CliVerb } from "../cli-io.js";
+import { UsageError } from "../../errors/usage-error.js";
 import { readInput } from "../read-input.js";
 import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, seedOption, singleInput, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";

@@ -1,6 +1,6 @@
 import { resolve } from "node:path";
 import type { LightCurve } from "../../lightcurve/light-curve.js";
-import { InputError } from "../../lightcurve/input-error.js";
+import { InputError } from "../../errors/input-error.js";
 import { DEFAULT_SAMPLER } from "../../inference/index.js";
 import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
 import type { FitOptions } from "../../models/fit-options.js";
@@ -8,7 +8,8 @@ import type { FitResult } from "../../models/fit-result.js";
 import { MODEL_NAMES, type ModelName } from "../../models/light-curve-model.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { writeReport } from "../../report/write-report.js";
-import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
+import type { CliIo, CliVerb } from "../cli-io.js";
+import { UsageError } from "../../errors/usage-error.js";
 import { fitSummaryText } from "../fit-summary-text.js";
 import { samplerProgressBar } from "../progress-bar.js";
 import { readInput } from "../read-input.js";

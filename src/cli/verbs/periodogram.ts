@@ -1,5 +1,6 @@
 import { computePeriodogram } from "../../periodogram/periodogram.js";
-import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
+import type { CliIo, CliVerb } from "../cli-io.js";
+import { UsageError } from "../../errors/usage-error.js";
 import { readInput } from "../read-input.js";
 import { COLUMN_HELP, COLUMN_OPTIONS, numberOption, parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";

@@ -1,11 +1,12 @@
 import type { LightCurve } from "../../lightcurve/light-curve.js";
-import { InputError } from "../../lightcurve/input-error.js";
+import { InputError } from "../../errors/input-error.js";
 import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
 import type { FitOptions } from "../../models/fit-options.js";
 import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
 import { posteriorPredictive } from "../../models/posterior-predictive.js";
 import { evenlySpacedItems, storedPosteriorSample } from "../../models/posterior-sample.js";
-import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
+import type { CliIo, CliVerb } from "../cli-io.js";
+import { UsageError } from "../../errors/usage-error.js";
 import { fitSummaryText } from "../fit-summary-text.js";
 import { samplerProgressBar } from "../progress-bar.js";
 import { readInput } from "../read-input.js";

@@ -1,4 +1,4 @@
-import { InputError } from "../../lightcurve/input-error.js";
+import { InputError } from "../../errors/input-error.js";
 import { readLightCurves } from "../../lightcurve/read-light-curves.js";
 import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";

@@ -3,7 +3,8 @@ import { continuousSpaceCadence, seasonalGroundCadence } from "../../lightcurve/
 import { formatLightCurveCsv } from "../../lightcurve/light-curve-csv.js";
 import { observeMagnitudes } from "../../lightcurve/simulated-photometry.js";
 import { createRng } from "../../random/rng.js";
-import { UsageError, type CliIo, type CliVerb } from "../cli-io.js";
+import type { CliIo, CliVerb } from "../cli-io.js";
+import { UsageError } from "../../errors/usage-error.js";
 import { EXPRESSION_FAMILIES, parseKernelExpression } from "../kernel-expression.js";
 import { numberOption, parseVerbArguments, seedOption, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
