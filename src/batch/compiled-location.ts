@@ -15,10 +15,10 @@ import { fileURLToPath, pathToFileURL } from "node:url";
 export function compiledProjectFile(pathUnderSrc: string, moduleUrl: string = import.meta.url): URL {
   const here = fileURLToPath(moduleUrl);
   const srcRoot = join(dirname(here), "..");
-  let candidate = join(srcRoot, ...pathUnderSrc.split("/"));
+  let candidate = join(srcRoot, pathUnderSrc);
   if (here.endsWith(".ts")) {
     const projectRoot = join(srcRoot, "..");
-    candidate = join(projectRoot, "dist", "src", ...pathUnderSrc.split("/"));
+    candidate = join(projectRoot, "dist", "src", pathUnderSrc);
   }
   if (!existsSync(candidate)) {
     const shown = relative(process.cwd(), candidate) || candidate;

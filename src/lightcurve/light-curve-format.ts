@@ -48,7 +48,7 @@ export function formatFromName(path: string): FormatGuess {
  */
 export function formatFromBytes(bytes: Uint8Array): { format: LightCurveFormat; gzip: boolean } {
   if (bytes.length >= 2 && bytes[0] === 0x1f && bytes[1] === 0x8b) return { format: "text", gzip: true };
-  const head = String.fromCharCode(...bytes.subarray(0, 9));
+  const head = Array.from(bytes.subarray(0, 9), (byte) => String.fromCharCode(byte)).join("");
   if (head.startsWith("PAR1")) return { format: "parquet", gzip: false };
   if (head === "SIMPLE  =") return { format: "fits", gzip: false };
   return { format: "text", gzip: false };

@@ -155,12 +155,14 @@ export function unrolledRecursion(
   if (dimension <= MAX_UNROLLED_DIMENSION) {
     try {
       const { body, constants } = recursionSource(kinds as BlockKind[], withColumn);
+      // The tables arrive as one object and are unpacked into the closure's locals (no spread call).
       const factory = new Function(
-        ["FactorizationError", "constants", ...EXPONENTIAL_TABLE_NAMES].join(", "),
-        `return function advance(${PARAMETERS}) {\n${body}\n};`,
+        "FactorizationError",
+        "constants",
+        "tables",
+        `const { ${EXPONENTIAL_TABLE_NAMES.join(", ")} } = tables;\nreturn function advance(${PARAMETERS}) {\n${body}\n};`,
       );
-      const tables = EXPONENTIAL_TABLE_NAMES.map((name) => EXPONENTIAL_TABLES[name]);
-      advance = factory(FactorizationError, constants, ...tables) as UnrolledAdvance;
+      advance = factory(FactorizationError, constants, EXPONENTIAL_TABLES) as UnrolledAdvance;
       primeFeedback(advance, blocks, dimension, withColumn);
     } catch {
       advance = undefined; // no run-time compilation on this host

@@ -83,7 +83,7 @@ export function compareModels(
       maximum: model.space.recordFromPhysical(physical),
     };
   });
-  const top = Math.max(...standings.map((s) => s.logEvidence));
+  const top = standings.reduce((best, s) => Math.max(best, s.logEvidence), -Infinity);
   const total = standings.reduce((sum, s) => sum + Math.exp(s.logEvidence - top), 0);
   const ranking = standings
     .map((s) => ({ ...s, deltaLogEvidence: s.logEvidence - top, probability: Math.exp(s.logEvidence - top) / total }))

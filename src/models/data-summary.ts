@@ -18,14 +18,18 @@ export interface DataSummary {
   readonly hasErrors: boolean;
 }
 
-/** Computes the scales of a light curve (sorted times assumed, as the readers deliver them). */
+/** Computes the scales of a light curve (sorted times assumed, as the readers deliver them). Linear memory, O(N log N) time. */
 export function summarizeLightCurve(lightCurve: LightCurve): DataSummary {
   const { time, value, error } = lightCurve;
   const n = time.length;
-  const spacings: number[] = [];
-  for (let i = 1; i < n; i++) if (time[i] > time[i - 1]) spacings.push(time[i] - time[i - 1]);
-  const median = medianOf(Array.from(value));
-  const deviations = Array.from(value, (v) => Math.abs(v - median));
+  const spacings = new Float64Array(Math.max(n - 1, 0));
+  let spacingCount = 0;
+  for (let i = 1; i < n; i++) if (time[i] > time[i - 1]) spacings[spacingCount++] = time[i] - time[i - 1];
+  const distinctSpacings = spacings.subarray(0, spacingCount);
+  let minimumSpacing = Infinity;
+  for (let i = 0; i < spacingCount; i++) minimumSpacing = Math.min(minimumSpacing, distinctSpacings[i]);
+  const median = medianOf(value);
+  const deviations = Float64Array.from(value, (v) => Math.abs(v - median));
   let mean = 0;
   for (let i = 0; i < n; i++) mean += value[i];
   mean /= n;
@@ -33,12 +37,12 @@ export function summarizeLightCurve(lightCurve: LightCurve): DataSummary {
   for (let i = 0; i < n; i++) ss += (value[i] - mean) ** 2;
   const sd = n > 1 ? Math.sqrt(ss / (n - 1)) : 0;
   const spread = Math.max(1.4826 * medianOf(deviations), sd);
-  const medianError = error ? medianOf(Array.from(error)) : 0;
+  const medianError = error ? medianOf(error) : 0;
   return {
     n,
     baseline: n > 0 ? time[n - 1] - time[0] : 0,
-    medianCadence: spacings.length ? medianOf(spacings) : 0,
-    minimumSpacing: spacings.length ? Math.min(...spacings) : 0,
+    medianCadence: spacingCount > 0 ? medianOf(distinctSpacings) : 0,
+    minimumSpacing: spacingCount > 0 ? minimumSpacing : 0,
     median,
     spread: spread > 0 ? spread : Math.max(medianError, 1e-12),
     medianError,
@@ -46,10 +50,10 @@ export function summarizeLightCurve(lightCurve: LightCurve): DataSummary {
   };
 }
 
-/** The median of a list (the mean of the two middle values for an even count). */
-export function medianOf(values: number[]): number {
+/** The median of a list (the mean of the two middle values for an even count); NaN for none. */
+export function medianOf(values: ArrayLike<number>): number {
   if (values.length === 0) return NaN;
-  const sorted = [...values].sort((a, b) => a - b);
+  const sorted = Float64Array.from(values).sort();
   const mid = sorted.length >> 1;
   return sorted.length % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
 }

@@ -42,7 +42,7 @@ export function findPeriodModes(model: LightCurveModel, likelihood: PhysicalLike
     found.push({ period: modePeriod, logDensity: best.logDensity, logEvidence: evidence.logEvidence, x: best.x });
   }
   if (found.length === 0) return [];
-  const top = Math.max(...found.map((m) => m.logEvidence));
+  const top = found.reduce((best, m) => Math.max(best, m.logEvidence), -Infinity);
   const total = found.reduce((sum, m) => sum + Math.exp(m.logEvidence - top), 0);
   return found
     .map((m) => ({

@@ -38,7 +38,7 @@ export function reportInputFromFit(
 
   const chains = [...new Set(sample.chain)].sort((a, b) => a - b);
   const perChain = chains.map((c) => sample.rows.filter((_, k) => sample.chain[k] === c));
-  const length = Math.min(...perChain.map((rows) => rows.length));
+  const length = perChain.reduce((shortest, rows) => Math.min(shortest, rows.length), Infinity);
   const draws = {
     names: [...model.space.names],
     chains: Object.fromEntries(

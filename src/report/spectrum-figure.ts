@@ -74,8 +74,8 @@ export function spectrumFigure(input: ReportInput): ReportFigure | undefined {
     datasets["periodogram"] = rows;
     for (const r of rows) frequencies.push(r.f);
   }
-  const fMin = Math.min(...frequencies);
-  const fMax = Math.max(...frequencies);
+  const fMin = frequencies.reduce((a, b) => Math.min(a, b), Infinity);
+  const fMax = frequencies.reduce((a, b) => Math.max(a, b), -Infinity);
   const x = {
     field: "f",
     type: "quantitative" as const,

@@ -1,0 +1,53 @@
+import type { PosteriorDraws } from "../inference/index.js";
+
+/**
+ * Indices of `count` items spread evenly over `0..length-1` (at most `length`): k * length / count,
+ * rounded down, so the first item is always kept.
+ */
+export function evenlySpacedIndices(length: number, count: number): Int32Array {
+  const n = Math.max(0, Math.min(length, count));
+  const picks = new Int32Array(n);
+  for (let k = 0; k < n; k++) picks[k] = Math.floor((k * length) / n);
+  return picks;
+}
+
+/**
+ * The pooling stage of a fit: the draws of several runs (one per period mode) in one set, each run
+ * contributing a share proportional to its weight. The pooled size is the largest for which every
+ * run has enough draws, each run's share spread evenly over its draws; chain numbers are offset so that
+ * the chains of different runs stay distinct. One run is returned as it is. Linear in the draws.
+ */
+export function pooledDraws(runs: readonly PosteriorDraws[], weights: readonly number[]): PosteriorDraws {
+  if (runs.length === 0) throw new RangeError("pooling needs at least one run");
+  if (runs.length === 1) return runs[0];
+  let size = Infinity;
+  runs.forEach((d, k) => (size = Math.min(size, d.chain.length / weights[k])));
+  const picks = runs.map((d, k) => evenlySpacedIndices(d.chain.length, Math.max(1, Math.round(size * weights[k]))));
+  const total = picks.reduce((sum, p) => sum + p.length, 0);
+  const names = runs[0].names;
+  const columns: Record<string, Float64Array> = {};
+  for (const name of names) columns[name] = new Float64Array(total);
+  const chain = new Int32Array(total);
+  const iteration = new Int32Array(total);
+  const logDensity = new Float64Array(total);
+  let offset = 0;
+  let chainOffset = 0;
+  runs.forEach((run, k) => {
+    for (const i of picks[k]) {
+      for (const name of names) columns[name][offset] = run.columns[name][i];
+      chain[offset] = run.chain[i] + chainOffset;
+      iteration[offset] = run.iteration[i];
+      logDensity[offset] = run.logDensity[i];
+      offset++;
+    }
+    chainOffset += chainCount(run.chain);
+  });
+  return { names, columns, chain, iteration, logDensity };
+}
+
+/** Number of chains in a draw set: the largest chain index plus one (0 for no draws). */
+function chainCount(chain: Int32Array): number {
+  let largest = -1;
+  for (let i = 0; i < chain.length; i++) if (chain[i] > largest) largest = chain[i];
+  return largest + 1;
+}

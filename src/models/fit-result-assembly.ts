@@ -1,0 +1,114 @@
+import type { LightCurve } from "../lightcurve/light-curve.js";
+import type { PosteriorDraws } from "../inference/index.js";
+import { HOROLOGIUM_VERSION } from "../version.js";
+import type { DataSummary } from "./data-summary.js";
+import type { CombinedDiagnostics } from "./fit-diagnostics.js";
+import type { FitOptions } from "./fit-options.js";
+import { evenlySpacedIndices } from "./fit-pooling.js";
+import type { FitResult } from "./fit-result.js";
+import type { PosteriorSummaries } from "./fit-summaries.js";
+import { fitWarnings } from "./fit-warnings.js";
+import type { LightCurveModel } from "./light-curve-model.js";
+import type { PeriodMode } from "./period-modes.js";
+import type { RobustNoise } from "./robust-noise.js";
+
+/** Everything the result JSON is assembled from. */
+export interface ResultParts {
+  readonly options: FitOptions;
+  readonly lightCurve: LightCurve;
+  readonly summary: DataSummary;
+  readonly model: LightCurveModel;
+  readonly summaries: PosteriorSummaries;
+  readonly diagnostics: CombinedDiagnostics;
+  readonly modes: readonly PeriodMode[];
+  readonly periodogramPeriod?: number;
+  readonly robust?: RobustNoise;
+  readonly maximumPosterior: Readonly<Record<string, number>>;
+  readonly draws: PosteriorDraws;
+}
+
+/** Number of posterior draws kept in the result when the options do not say (`keptDraws`). */
+export const DEFAULT_KEPT_DRAWS = 400;
+
+/**
+ * The result stage of a fit: the result JSON ({@link FitResult}) with the data's provenance, the
+ * summaries, diagnostics and warnings, the options that change the model, the robust weights, the
+ * priors, the maximum a posteriori, the period modes, and at most `keptDraws` posterior draws spread
+ * evenly over the pooled ones.
+ */
+export function assembleFitResult(parts: ResultParts): FitResult {
+  const { options, lightCurve, summary, model, summaries, diagnostics, modes, robust } = parts;
+  const provenance = lightCurve.provenance;
+  return {
+    model: options.model,
+    seed: options.seed,
+    version: HOROLOGIUM_VERSION,
+    data: {
+      n: summary.n,
+      dropped: provenance.dropped,
+      baseline: summary.baseline,
+      medianCadence: summary.medianCadence,
+      timeColumn: provenance.timeColumn,
+      valueColumn: provenance.valueColumn,
+      errorColumn: provenance.errorColumn,
+      source: provenance.source,
+      unit: lightCurve.unit,
+      ...(lightCurve.band !== undefined ? { band: lightCurve.band } : {}),
+    },
+    parameters: summaries.parameters,
+    derived: summaries.derived,
+    diagnostics,
+    warnings: [
+      ...fitWarnings({ model, summary, lightCurve, parameters: summaries.parameters, diagnostics, modes, redshift: options.redshift }),
+      ...(robust ? robustWarnings(robust) : []),
+    ],
+    options: {
+      ...(options.background ? { background: options.background } : {}),
+      ...(options.redshift !== undefined ? { redshift: options.redshift } : {}),
+      ...(model.fitsJitter ? { jitter: true } : {}),
+      ...(robust ? { robust: true } : {}),
+    },
+    ...(robust ? { robust: robustSection(robust) } : {}),
+    priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, ...p.prior.settings }])),
+    maximumPosterior: parts.maximumPosterior,
+    ...(modes.length > 0 ? { periodModes: modes.map((m) => ({ period: m.period, probability: m.probability })) } : {}),
+    ...(parts.periodogramPeriod !== undefined ? { periodogramPeriod: parts.periodogramPeriod } : {}),
+    posteriorSample: thinnedSample(parts.draws, options.keptDraws ?? DEFAULT_KEPT_DRAWS),
+  };
+}
+
+/** Outlier probability above which a point counts as a likely outlier. */
+const LIKELY_OUTLIER = 0.5;
+
+function likelyOutlierCount(robust: RobustNoise): number {
+  let count = 0;
+  for (const p of robust.outlierProbability) if (p > LIKELY_OUTLIER) count++;
+  return count;
+}
+
+function robustSection(robust: RobustNoise) {
+  return {
+    noise: `Student-t, ${robust.degreesOfFreedom} degrees of freedom (scale mixture of Gaussians, EM weights)`,
+    degreesOfFreedom: robust.degreesOfFreedom,
+    likelyOutliers: likelyOutlierCount(robust),
+    weights: Array.from(robust.weights),
+    outlierProbability: Array.from(robust.outlierProbability),
+  };
+}
+
+function robustWarnings(robust: RobustNoise): string[] {
+  const likely = likelyOutlierCount(robust);
+  return likely > 0
+    ? [`${likely} points are likely outliers (probability > 0.5 that their scatter exceeds twice their error bar); the Student-t noise down-weights them.`]
+    : [];
+}
+
+/** At most `count` draws spread evenly over the pooled draws, for predictions and reports from the JSON. */
+function thinnedSample(draws: PosteriorDraws, count: number) {
+  const picks = Array.from(evenlySpacedIndices(draws.chain.length, count));
+  return {
+    names: draws.names,
+    chain: picks.map((i) => draws.chain[i]),
+    rows: picks.map((i) => draws.names.map((name) => draws.columns[name][i])),
+  };
+}

@@ -1,0 +1,51 @@
+import { DEFAULT_SAMPLER, samplePosterior, type PhysicalLikelihood, type PosteriorSample } from "../inference/index.js";
+import type { LightCurve } from "../lightcurve/light-curve.js";
+import { childSeed } from "../random/rng.js";
+import type { FitOptions } from "./fit-options.js";
+import type { ModePlan } from "./fit-mode-plan.js";
+import type { LightCurveModel } from "./light-curve-model.js";
+import { collapseMean, type CollapsedMeanModel } from "./mean-marginal.js";
+
+/** The sampler runs of a fit, one per start of the {@link ModePlan}. */
+export interface SamplingOutcome {
+  readonly runs: readonly PosteriorSample[];
+  /** The model with its mean integrated out, when the runs sampled it so (draws lack the mean). */
+  readonly collapsed?: CollapsedMeanModel;
+}
+
+/** Default budget of a fit in log-likelihood evaluations (gradients weighted by their cost). */
+export const DEFAULT_FIT_BUDGET = 2e6;
+
+/**
+ * The sampling stage of a fit: one {@link samplePosterior} run from each start of the plan, the budget
+ * shared equally. The ensemble samples the other parameters with the mean integrated out
+ * (mean-marginal.ts); NUTS, which needs a gradient, samples the mean with them. One start keeps the
+ * fit's seed; several get child seeds 100, 101, ...
+ */
+export function sampleStarts(
+  model: LightCurveModel,
+  conditioning: LightCurve,
+  likelihood: PhysicalLikelihood,
+  plan: ModePlan,
+  options: FitOptions,
+  clock: () => number,
+): SamplingOutcome {
+  const budget = options.maxEvaluations ?? DEFAULT_FIT_BUDGET;
+  const collapsed = (options.sampler ?? DEFAULT_SAMPLER) === "ensemble" ? collapseMean(model, conditioning) : undefined;
+  const space = collapsed?.space ?? model.space;
+  const sampledOnly = (record: Readonly<Record<string, number>>): Record<string, number> =>
+    Object.fromEntries(Object.entries(record).filter(([name]) => space.names.includes(name)));
+  const runs = plan.starts.map((initial, k) =>
+    samplePosterior(space, collapsed?.likelihood ?? likelihood, {
+      seed: plan.starts.length === 1 ? options.seed : childSeed(options.seed, 100 + k),
+      initial: sampledOnly(initial),
+      starts: plan.startsAtModes ? 1 : 6,
+      maxEvaluations: budget / plan.starts.length,
+      ...(options.sampler ? { sampler: options.sampler } : {}),
+      ...(options.onProgress ? { onProgress: options.onProgress } : {}),
+      ...(options.signal ? { signal: options.signal } : {}),
+      clock,
+    }),
+  );
+  return { runs, ...(collapsed ? { collapsed } : {}) };
+}
