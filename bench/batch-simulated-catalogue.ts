@@ -51,7 +51,7 @@ export function* simulatedQuasars(options: SimulatedQuasarOptions): Generator<Si
     const mean = 18 + 3 * rng.uniform();
     const time = seasonalGroundCadence({ start: 59000, seasons: options.seasons ?? 6 }, rng);
     const gp = new GaussianProcess(kernels.dampedRandomWalk({ sigma, tau }), time, { mean });
-    const truth = gp.sample(rng);
+    const truth = gp.priorDraw(rng);
     const lightCurve = observeMagnitudes(time, truth, { depth5Sigma: 24 }, rng, `simulated Lanternfield quasar ${id}`);
     yield { id, tau, sigma, mean, lightCurve };
   }

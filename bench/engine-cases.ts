@@ -19,7 +19,7 @@ export interface EngineCase {
 /** A benchmark light curve: sorted times, 1-sigma errors, values and the constant mean. */
 export interface EngineData {
   readonly time: Float64Array;
-  readonly yerr: Float64Array;
+  readonly errors: Float64Array;
   readonly value: Float64Array;
   readonly mean: number;
 }
@@ -98,19 +98,19 @@ export function benchmarkTimes(rng: Rng, n: number): Float64Array {
 export function benchmarkData(kernel: Kernel, n: number, rng: Rng): EngineData {
   const mean = 17.5;
   const time = benchmarkTimes(rng, n);
-  const yerr = new Float64Array(n);
-  for (let i = 0; i < n; i++) yerr[i] = 0.02 + 0.04 * rng.uniform();
-  const latent = new GaussianProcess(kernel, time, { mean }).sample(rng);
+  const errors = new Float64Array(n);
+  for (let i = 0; i < n; i++) errors[i] = 0.02 + 0.04 * rng.uniform();
+  const latent = new GaussianProcess(kernel, time, { mean }).priorDraw(rng);
   const value = new Float64Array(n);
-  for (let i = 0; i < n; i++) value[i] = latent[i] + yerr[i] * rng.normal();
-  return { time, yerr, value, mean };
+  for (let i = 0; i < n; i++) value[i] = latent[i] + errors[i] * rng.normal();
+  return { time, errors, value, mean };
 }
 
 /** The first n points of a light curve. */
 export function leadingPoints(data: EngineData, n: number): EngineData {
   return {
     time: data.time.subarray(0, n),
-    yerr: data.yerr.subarray(0, n),
+    errors: data.errors.subarray(0, n),
     value: data.value.subarray(0, n),
     mean: data.mean,
   };

@@ -66,7 +66,7 @@ export function measureDense(engineCase: EngineCase, data: EngineData, settings:
   const n = data.time.length;
   const template = engineCase.kernel;
   const values = template.parameterValues;
-  const options = { yerr: data.yerr, mean: data.mean };
+  const options = { errors: data.errors, mean: data.mean };
   const semiseparable = fullLogLikelihood(engineCase, data);
   const dense = () => new DenseGaussianProcess(template.withParameters(values), data.time, options).logLikelihood(data.value);
   const a = semiseparable();
@@ -97,7 +97,7 @@ export function measureGradient(engineCase: EngineCase, data: EngineData, settin
   const n = data.time.length;
   const template = engineCase.kernel;
   const values = template.parameterValues;
-  const options = { yerr: data.yerr, mean: data.mean };
+  const options = { errors: data.errors, mean: data.mean };
   const likelihood = fullLogLikelihood(engineCase, data);
   const gradient = () =>
     new GaussianProcess(template.withParameters(values), data.time, options).logLikelihoodGradient(data.value).value;
@@ -129,11 +129,11 @@ export function measurePredict(engineCase: EngineCase, data: EngineData, m: numb
   const n = data.time.length;
   const template = engineCase.kernel;
   const values = template.parameterValues;
-  const options = { yerr: data.yerr, mean: data.mean };
+  const options = { errors: data.errors, mean: data.mean };
   const grid = predictionGrid(data, m);
   const likelihood = fullLogLikelihood(engineCase, data);
   const predict = () => {
-    const result = new GaussianProcess(template.withParameters(values), data.time, options).predict(data.value, grid);
+    const result = new GaussianProcess(template.withParameters(values), data.time, options).given(data.value).at(grid);
     return result.mean[0] + result.variance[m - 1];
   };
   const timing = timePair(likelihood, predict, n, n + m, settings);

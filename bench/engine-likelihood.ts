@@ -38,7 +38,7 @@ export interface LikelihoodRow {
 export function fullLogLikelihood(engineCase: EngineCase, data: EngineData): () => number {
   const template = engineCase.kernel;
   const values = template.parameterValues;
-  const options = { yerr: data.yerr, mean: data.mean };
+  const options = { errors: data.errors, mean: data.mean };
   return () => new GaussianProcess(template.withParameters(values), data.time, options).logLikelihood(data.value);
 }
 
@@ -50,7 +50,7 @@ export function coreLogLikelihood(engineCase: EngineCase, data: EngineData): () 
   const noise = new Float64Array(n);
   const residual = new Float64Array(n);
   for (let i = 0; i < n; i++) {
-    noise[i] = data.yerr[i] * data.yerr[i];
+    noise[i] = data.errors[i] * data.errors[i];
     residual[i] = data.value[i] - data.mean;
   }
   return () => semiseparableLogLikelihood(form, data.time, noise, residual);

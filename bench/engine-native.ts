@@ -55,7 +55,7 @@ export function writeDataFile(path: string, data: EngineData): void {
   bytes.writeBigUInt64LE(BigInt(n), 8);
   bytes.writeDoubleLE(data.mean, 16);
   let offset = 24;
-  for (const column of [data.time, data.yerr, data.value]) {
+  for (const column of [data.time, data.errors, data.value]) {
     for (let i = 0; i < n; i++) {
       bytes.writeDoubleLE(column[i], offset);
       offset += 8;

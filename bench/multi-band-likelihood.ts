@@ -45,7 +45,7 @@ function main(): void {
   const rows: string[][] = [];
   for (const n of [360, 3600, 36000, 360000]) {
     const data = invented(n);
-    const base = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 200 }), data.time, { yerr: data.errors });
+    const base = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 200 }), data.time, { errors: data.errors });
     const bands = data.bandTimes.map((time, b) => ({ name: `b${b}`, time, values: data.bandValues[b], errors: data.bandErrors[b] }));
     const amplitude = [1, 0.9, 0.8, 0.7, 0.6, 0.5];
     const mean = [19, 19, 19, 19, 19, 19];

@@ -40,7 +40,7 @@ for (const fit of fits) {
           const tenth = Math.floor(p.fraction * 10);
           if (tenth > shown) {
             shown = tenth;
-            console.error(`  ${fit.label}, ${sampler}: ${p.phase} ${(100 * p.fraction).toFixed(0)}%, ${p.logProbEvaluations.toFixed(0)} evaluations`);
+            console.error(`  ${fit.label}, ${sampler}: ${p.phase} ${(100 * p.fraction).toFixed(0)}%, ${p.likelihoodEvaluations.toFixed(0)} evaluations`);
           }
         },
       });
@@ -48,7 +48,7 @@ for (const fit of fits) {
       const key = `${fit.label}|${sampler}`;
       const t = totals.get(key) ?? { evaluations: 0, ess: 0, seconds: 0, converged: 0 };
       totals.set(key, {
-        evaluations: t.evaluations + d.logProbEvaluations,
+        evaluations: t.evaluations + d.likelihoodEvaluations,
         ess: t.ess + d.essMin,
         seconds: t.seconds + d.seconds,
         converged: t.converged + (d.converged ? 1 : 0),
@@ -59,12 +59,12 @@ for (const fit of fits) {
           sampler.padEnd(9),
           String(seed).padStart(4),
           result.stopReason.padEnd(10),
-          d.logProbEvaluations.toFixed(0).padStart(12),
+          d.likelihoodEvaluations.toFixed(0).padStart(12),
           d.essMin.toFixed(0).padStart(9),
-          (d.logProbEvaluations / d.essMin).toFixed(1).padStart(11),
+          (d.likelihoodEvaluations / d.essMin).toFixed(1).padStart(11),
           d.seconds.toFixed(1).padStart(9),
           d.rhatMax.toFixed(4).padStart(11),
-          d.autocorrTime.toFixed(1).padStart(9),
+          d.autocorrelationTime.toFixed(1).padStart(9),
         ].join(" "),
       );
       const summary = Object.entries(result.parameters)

@@ -8,7 +8,7 @@ import { GaussianProcess } from "../src/gp/gaussian-process.js";
 import { kernels } from "../src/kernels/index.js";
 import { continuousSpaceCadence, seasonalGroundCadence } from "../src/lightcurve/cadence.js";
 import { createParameterSpace, type ParameterSpace } from "../src/inference/parameter-space.js";
-import type { PhysicalLikelihood } from "../src/inference/posterior-density.js";
+import type { PhysicalLikelihood } from "../src/inference/unconstrained-posterior.js";
 import { logUniformPrior, normalPrior, uniformPrior } from "../src/inference/priors.js";
 import { createRng, type Rng } from "../src/random/rng.js";
 
@@ -40,7 +40,7 @@ export function dampedRandomWalkSpace(): ParameterSpace {
  */
 export function dampedRandomWalkLikelihood(time: Float64Array, value: Float64Array, error: Float64Array): PhysicalLikelihood {
   const process = (x: Float64Array): GaussianProcess =>
-    new GaussianProcess(kernels.dampedRandomWalk({ sigma: x[1]!, tau: x[0]! }), time, { yerr: error, mean: x[2]! });
+    new GaussianProcess(kernels.dampedRandomWalk({ sigma: x[1]!, tau: x[0]! }), time, { errors: error, mean: x[2]! });
   return {
     logLikelihood: (x) => process(x).logLikelihood(value),
     logLikelihoodAndGradient: (x, g) => {
@@ -73,7 +73,7 @@ export function simulateDampedRandomWalk(
   const error = Float64Array.from(time, () => errorLevel * (0.8 + 0.4 * rng.uniform()));
   const latent = new GaussianProcess(kernels.dampedRandomWalk({ sigma: truth.sigma, tau: truth.tau }), time, {
     mean: truth.mean,
-  }).sample(rng);
+  }).priorDraw(rng);
   const value = Float64Array.from(latent, (v, i) => v + error[i]! * rng.normal());
   return { value, error };
 }
@@ -113,7 +113,7 @@ export function quasiPeriodicLikelihood(time: Float64Array, value: Float64Array,
     new GaussianProcess(
       kernels.quasiPeriodic({ sigma: x[3]!, period: x[0]!, quality: x[1]!, harmonicWeight: x[2]! }),
       time,
-      { yerr: error, mean: x[4]! },
+      { errors: error, mean: x[4]! },
     );
   return {
     logLikelihood: (x) => process(x).logLikelihood(value),
@@ -144,7 +144,7 @@ export function quasiPeriodicFit(n = 1000, seed = 2025): SimulatedFit {
     kernels.quasiPeriodic({ sigma: truth.sigma, period: truth.period, quality: truth.quality, harmonicWeight: truth.harmonicWeight }),
     time,
     { mean: truth.mean },
-  ).sample(rng);
+  ).priorDraw(rng);
   const value = Float64Array.from(latent, (v, i) => v + error[i]! * rng.normal());
   return {
     label: `quasi-periodic, ${n} points`,

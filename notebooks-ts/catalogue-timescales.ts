@@ -52,7 +52,7 @@ for (let k = 0; k < COUNT; k++) {
   const mean = uniform(19, 21);
   const rng = createRng(childSeed("lds-catalogue-light-curves", k));
   const time = seasonalGroundCadence({ start: 60310, seasons: 5, revisitInterval: 4 }, rng);
-  const latent = new GaussianProcess(kernels.dampedRandomWalk({ sigma, tau }), time, { mean }).sample(rng);
+  const latent = new GaussianProcess(kernels.dampedRandomWalk({ sigma, tau }), time, { mean }).priorDraw(rng);
   const full = observeMagnitudes(time, latent, { depth5Sigma: 23 }, rng, `${id} (invented)`);
   const firstSeason = Array.from(time.keys()).filter((i) => time[i]! < 60310 + 200);
   const short: LightCurve = {

@@ -107,7 +107,7 @@ const fit = fitLightCurveDetailed(training, { model: "drw", seed: 417, redshift:
 const { result } = fit;
 const d = result.diagnostics;
 console.log(`converged: ${d.converged} (stop: ${String(d.stopReason)}); largest R-hat ${d.rhatMax.toFixed(4)}; smallest ESS ${d.essMin.toFixed(0)}; ` +
-  `${d.logProbEvaluations.toLocaleString("en")} evaluations in ${d.seconds.toFixed(1)} s`);
+  `${d.likelihoodEvaluations.toLocaleString("en")} evaluations in ${d.seconds.toFixed(1)} s`);
 console.log(result.warnings.length === 0 ? "no warnings" : result.warnings.join("\n"));
 
 // %%
@@ -239,7 +239,7 @@ independent checks. And the average over draws is not a normal distribution: a p
 tail to large τ and σ gives the forecast heavy tails, so we use the mixture's distribution function, not
 a mean and a standard deviation.
 */
-const perDraw = rows.map((row) => fit.model.processAt(row, training).predict(training.value, heldOut.time));
+const perDraw = rows.map((row) => fit.model.processAt(row, training).given(training.value).at(heldOut.time));
 const pit = Array.from(heldOut.time, (_, i) => {
   let u = 0;
   for (const prediction of perDraw) u += normalCdf(heldOut.value[i]!, prediction.mean[i]!, Math.sqrt(prediction.variance[i]! + heldOut.error![i]! ** 2));
@@ -266,7 +266,7 @@ posterior-median parameters and shows how much the parameter uncertainty adds.
 */
 const medianRow = fit.model.space.names.map((name) => result.parameters[name]!.median);
 const afterGrid = timeGrid(lastFitted, lastFitted + 400, 201);
-const fixed = fit.model.processAt(medianRow, training).predict(training.value, afterGrid);
+const fixed = fit.model.processAt(medianRow, training).given(training.value).at(afterGrid);
 const mixture = posteriorPredictive(fit.model, training, rows, afterGrid);
 const tauMedian = result.parameters.tau!.median;
 const sigmaMedian = result.parameters.sigma!.median;

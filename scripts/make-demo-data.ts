@@ -14,7 +14,7 @@ import { createRng } from "../src/random/rng.js";
 
 const quasarRng = createRng("lanternfield-quasar");
 const quasarTimes = seasonalGroundCadence({ start: 58850, seasons: 8, revisitInterval: 4 }, quasarRng);
-const quasarTruth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.22, tau: 180 }), quasarTimes, { mean: 20.1 }).sample(quasarRng);
+const quasarTruth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.22, tau: 180 }), quasarTimes, { mean: 20.1 }).priorDraw(quasarRng);
 const quasar = observeMagnitudes(quasarTimes, quasarTruth, { depth5Sigma: 23.4 }, quasarRng, "LDS J0412-2731");
 writeFileSync(
   "demo/lds-j0412-2731-quasar.csv",
@@ -29,7 +29,7 @@ writeFileSync(
 const starRng = createRng("lanternfield-star");
 const starTimes = seasonalGroundCadence({ start: 59200, seasons: 3, revisitInterval: 1 }, starRng);
 const starKernel = kernels.quasiPeriodic({ sigma: 0.03, period: 7.43, quality: 12, harmonicWeight: 0.35 });
-const starTruth = new GaussianProcess(starKernel, starTimes, { mean: 15.2 }).sample(starRng);
+const starTruth = new GaussianProcess(starKernel, starTimes, { mean: 15.2 }).priorDraw(starRng);
 const star = observeMagnitudes(starTimes, starTruth, { depth5Sigma: 22.5 }, starRng, "LDS V-2291");
 writeFileSync(
   "demo/lds-v2291-spotted-star.csv",

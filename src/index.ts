@@ -4,9 +4,9 @@
  *
  * @example
  * import { kernels, GaussianProcess } from "horologium";
- * const gp = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 }), t, { yerr, mean: 19.3 });
- * gp.logLikelihood(y);
- * gp.predict(y, tNew); // { mean, variance }
+ * const gp = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 }), times, { errors, mean: 19.3 });
+ * gp.logLikelihood(values);
+ * gp.given(values).at(newTimes); // { mean, variance }
  *
  * @module
  */
@@ -20,9 +20,11 @@ export type {
   PeriodicSquaredExponentialParameters,
   QuasiPeriodicParameters,
 } from "./kernels/index.js";
-export { GaussianProcess, MAX_COVARIANCE_SIZE } from "./gp/gaussian-process.js";
+export { GaussianProcess } from "./gp/gaussian-process.js";
 export { DenseGaussianProcess } from "./gp/dense-gaussian-process.js";
-export type { GaussianProcessOptions, GradientResult, Prediction } from "./gp/gp-options.js";
+export { SemiseparableConditionedProcess } from "./gp/conditioned-process.js";
+export { DenseConditionedProcess } from "./gp/dense-conditioned-process.js";
+export { MAX_COVARIANCE_SIZE, type ConditionedProcess, type GaussianProcessOptions, type GradientResult, type MeanAndVariance } from "./gp/gp-options.js";
 export { FactorizationError } from "./linalg/factorization-error.js";
 export type { SemiseparableForm } from "./linalg/semiseparable-form.js";
 export type { TransitionBlock } from "./linalg/transition-block.js";

@@ -17,8 +17,8 @@
  *     every typed-array access, while gcc keeps these small arrays in L1 and vectorises the short loops.)
  *
  * One evaluation = "build the kernel from its physical parameters + evaluate", like the TypeScript
- * benchmark's `new GaussianProcess(kernel, t, { yerr, mean }).logLikelihood(y)`: the inputs are checked
- * (finite, sorted), the times copied and the noise variances yerr^2 formed, the values checked, then the
+ * benchmark's `new GaussianProcess(kernel, t, { errors, mean }).logLikelihood(y)`: the inputs are checked
+ * (finite, sorted), the times copied and the noise variances errors^2 formed, the values checked, then the
  * recursion runs, subtracting the mean on the fly.
  *
  * Usage:
@@ -480,7 +480,7 @@ static double recursion(const form_t *form, size_t n, const double *time, const 
 typedef struct {
   size_t n;
   double mean;
-  double *time, *yerr, *value;
+  double *time, *errors, *value;
 } data_t;
 
 static void read_data(const char *path, data_t *data) {
@@ -491,7 +491,7 @@ static void read_data(const char *path, data_t *data) {
   if (fread(magic, 1, 8, file) != 8 || memcmp(magic, "HORODAT1", 8) != 0) die("not a benchmark data file", path);
   if (fread(&n, 8, 1, file) != 1 || fread(&data->mean, 8, 1, file) != 1) die("truncated data file", path);
   data->n = (size_t)n;
-  double **columns[3] = {&data->time, &data->yerr, &data->value};
+  double **columns[3] = {&data->time, &data->errors, &data->value};
   for (int c = 0; c < 3; c++) {
     *columns[c] = malloc(sizeof(double) * (data->n ? data->n : 1));
     if (!*columns[c]) die("out of memory", NULL);
@@ -502,8 +502,8 @@ static void read_data(const char *path, data_t *data) {
 
 /*
  * Build the kernel from its parameters, check and prepare the inputs, run the recursion: the work of
- * `new GaussianProcess(kernel, t, { yerr, mean }).logLikelihood(y)` in TypeScript, which copies the times
- * and forms yerr^2 in one checking pass, lets the recursion subtract the mean, and checks the values only
+ * `new GaussianProcess(kernel, t, { errors, mean }).logLikelihood(y)` in TypeScript, which copies the times
+ * and forms errors^2 in one checking pass, lets the recursion subtract the mean, and checks the values only
  * when the result is not finite.
  */
 static double evaluate(const term_t *terms, int term_count, const data_t *data) {
@@ -514,7 +514,7 @@ static double evaluate(const term_t *terms, int term_count, const data_t *data) 
   double *noise = malloc(sizeof(double) * n);
   if (!time || !noise) die("out of memory", NULL);
   for (size_t i = 0; i < n; i++) {
-    double t = data->time[i], e = data->yerr[i];
+    double t = data->time[i], e = data->errors[i];
     if (!isfinite(t)) die("time is not finite", NULL);
     if (i > 0 && t < time[i - 1]) die("times must be sorted", NULL);
     if (!isfinite(e) || e < 0) die("error must be finite and >= 0", NULL);
@@ -579,7 +579,7 @@ int main(int argc, char **argv) {
     double *residual = malloc(sizeof(double) * (data.n ? data.n : 1));
     if (!noise || !residual) die("out of memory", NULL);
     for (size_t i = 0; i < data.n; i++) {
-      noise[i] = data.yerr[i] * data.yerr[i];
+      noise[i] = data.errors[i] * data.errors[i];
       residual[i] = data.value[i] - data.mean;
     }
     char line[64];

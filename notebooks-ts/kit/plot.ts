@@ -36,7 +36,7 @@ export function jointDraw(
 ): { atObserved: Float64Array; atGrid: Float64Array } {
   const tagged = [...Array.from(observed, (t) => ({ t, grid: false })), ...Array.from(grid, (t) => ({ t, grid: true }))];
   tagged.sort((a, b) => a.t - b.t);
-  const draw = new GaussianProcess(kernel, Float64Array.from(tagged, (p) => p.t), { mean }).sample(rng);
+  const draw = new GaussianProcess(kernel, Float64Array.from(tagged, (p) => p.t), { mean }).priorDraw(rng);
   const atObserved: number[] = [];
   const atGrid: number[] = [];
   tagged.forEach((p, i) => (p.grid ? atGrid : atObserved).push(draw[i]!));

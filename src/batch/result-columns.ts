@@ -12,9 +12,9 @@ export const DIAGNOSTIC_KEYS = [
   "rhatMax",
   "rhatThreshold",
   "essMin",
-  "autocorrTime",
+  "autocorrelationTime",
   "acceptance",
-  "logProbEvaluations",
+  "likelihoodEvaluations",
   "seconds",
 ] as const;
 

@@ -18,7 +18,7 @@ export function fitSummaryText(result: FitResult, label?: string): string {
   const d = result.diagnostics;
   lines.push(
     `  ${d.converged ? "converged" : "NOT converged"}: R-hat max ${d.rhatMax.toFixed(4)}, ESS min ${Math.round(d.essMin)}, ` +
-      `${Math.round(d.logProbEvaluations)} log-likelihood evaluations, ${d.seconds.toFixed(1)} s`,
+      `${Math.round(d.likelihoodEvaluations)} log-likelihood evaluations, ${d.seconds.toFixed(1)} s`,
   );
   for (const warning of result.warnings) lines.push(`  warning: ${warning}`);
   return lines.join("\n") + "\n";

@@ -22,7 +22,7 @@ export function samplerProgressBar(io: CliIo, quiet: boolean, label: string): Sa
   let started = false;
   return {
     onProgress: (progress) => {
-      const payload = { phase: progress.phase, evaluations: Math.round(progress.logProbEvaluations) };
+      const payload = { phase: progress.phase, evaluations: Math.round(progress.likelihoodEvaluations) };
       if (!started) {
         bar.start(100, 0, payload);
         started = true;

@@ -9,15 +9,16 @@ import {
   type ConditionedInputs,
   type GaussianProcessOptions,
   type GradientResult,
-  type Prediction,
 } from "./gp-options.js";
+import { DenseConditionedProcess } from "./dense-conditioned-process.js";
+import { DRAW_JITTER } from "./semiseparable-prior-draw.js";
 
 const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
 
 /**
  * The same interface as `GaussianProcess`, on dense O(N^3) linear algebra (ml-matrix Cholesky), for any
  * kernel, including those with no semiseparable form (the squared-exponential times periodic kernel).
- * Prediction follows Rasmussen & Williams 2006, Algorithm 2.1.
+ * Conditioning follows Rasmussen & Williams 2006, Algorithm 2.1 ({@link DenseConditionedProcess}).
  */
 export class DenseGaussianProcess {
   readonly kernel: Kernel;
@@ -50,8 +51,8 @@ export class DenseGaussianProcess {
   }
 
   /** -1/2 r^T K^{-1} r - 1/2 log det K - N/2 log 2 pi. */
-  logLikelihood(y: ArrayLike<number>): number {
-    const residual = residualOf(y, this.inputs);
+  logLikelihood(values: ArrayLike<number>): number {
+    const residual = residualOf(values, this.inputs);
     const alpha = this.cholesky.solve(residual);
     let quadratic = 0;
     for (let i = 0; i < residual.length; i++) quadratic += residual[i] * alpha[i];
@@ -62,8 +63,8 @@ export class DenseGaussianProcess {
    * d log L / d theta = 1/2 tr((alpha alpha^T - K^{-1}) dK/dtheta) (Rasmussen & Williams 2006, eq. 5.9),
    * with dK/dtheta exact from the kernel's state-space form where it has one, else by central differences.
    */
-  logLikelihoodGradient(y: ArrayLike<number>): GradientResult {
-    const residual = residualOf(y, this.inputs);
+  logLikelihoodGradient(values: ArrayLike<number>): GradientResult {
+    const residual = residualOf(values, this.inputs);
     const alpha = this.cholesky.solve(residual);
     const inverse = this.cholesky.inverse();
     const t = this.inputs.time;
@@ -84,51 +85,23 @@ export class DenseGaussianProcess {
     let meanBar = 0;
     for (let i = 0; i < n; i++) meanBar += alpha[i];
     return {
-      value: this.logLikelihood(y),
+      value: this.logLikelihood(values),
       kernel: grad,
       mean: meanBar,
       jitter: traceNoise * this.inputs.jitter,
     };
   }
 
-  /** Posterior mean and variance (and covariance) of the latent process at new times. */
-  predict(y: ArrayLike<number>, tNew: ArrayLike<number>, options: { covariance?: boolean } = {}): Prediction {
-    const residual = residualOf(y, this.inputs);
-    const alpha = this.cholesky.solve(residual);
-    const t = this.inputs.time;
-    const m = tNew.length;
-    const cross = new Matrix(t.length, m);
-    for (let i = 0; i < t.length; i++) for (let j = 0; j < m; j++) cross.set(i, j, this.kernel.covarianceAt(t[i] - tNew[j]));
-    const mean = new Float64Array(m);
-    const variance = new Float64Array(m);
-    const solved: Float64Array[] = [];
-    for (let j = 0; j < m; j++) {
-      const column = cross.getColumn(j);
-      let mu = 0;
-      for (let i = 0; i < t.length; i++) mu += column[i] * alpha[i];
-      mean[j] = mu + this.inputs.mean;
-      const v = this.cholesky.solve(column);
-      solved.push(v);
-      let explained = 0;
-      for (let i = 0; i < t.length; i++) explained += column[i] * v[i];
-      variance[j] = Math.max(0, this.kernel.covarianceAt(0) - explained);
-    }
-    if (!options.covariance) return { mean, variance };
-    const covariance = new Float64Array(m * m);
-    for (let a = 0; a < m; a++)
-      for (let b = 0; b < m; b++) {
-        let explained = 0;
-        for (let i = 0; i < t.length; i++) explained += cross.get(i, a) * solved[b][i];
-        covariance[a * m + b] = this.kernel.covarianceAt(tNew[a] - tNew[b]) - explained;
-      }
-    return { mean, variance, covariance };
+  /** The process conditioned on observed values (one per observation time), queried like `GaussianProcess.given`. */
+  given(values: ArrayLike<number>): DenseConditionedProcess {
+    return new DenseConditionedProcess(this.kernel, this.inputs, this.cholesky, values);
   }
 
   /** A prior draw of the latent process at the observation times (mean included). */
-  sample(rng: Rng): Float64Array {
+  priorDraw(rng: Rng): Float64Array {
     const k = this.covarianceMatrix(false);
     const n = k.rows;
-    const jitter = 1e-10 * this.kernel.covarianceAt(0);
+    const jitter = DRAW_JITTER * this.kernel.covarianceAt(0);
     for (let i = 0; i < n; i++) k.set(i, i, k.get(i, i) + jitter);
     const xi = Float64Array.from({ length: n }, () => rng.normal());
     const draw = new DenseCholesky(k).correlate(xi);

@@ -1,21 +1,47 @@
 import { FactorizationError } from "../linalg/factorization-error.js";
+import type { Rng } from "../random/rng.js";
 
 /** Options of a Gaussian process conditioned on observation times. */
 export interface GaussianProcessOptions {
   /** Per-point 1-sigma measurement errors (array, same length as the times) or one error for all. Default 0. */
-  readonly yerr?: number | ArrayLike<number>;
+  readonly errors?: number | ArrayLike<number>;
   /** Constant mean of the process, in the unit of the data. Default 0. */
   readonly mean?: number;
   /** Extra white-noise standard deviation added in quadrature to every error ("jitter"). Default 0. */
   readonly jitter?: number;
 }
 
-/** Posterior prediction of the latent (noise-free) process. */
-export interface Prediction {
+/** Mean and variance of the latent (noise-free) process at requested times, given the data. */
+export interface MeanAndVariance {
   readonly mean: Float64Array;
   readonly variance: Float64Array;
-  /** Full M x M posterior covariance (row-major), when requested. */
-  readonly covariance?: Float64Array;
+}
+
+/**
+ * A Gaussian process conditioned on observed values (`gp.given(values)`): the latent (noise-free) light
+ * curve's distribution anywhere, in gaps, between points and beyond both ends. Both engines return one.
+ */
+export interface ConditionedProcess {
+  /** Conditional mean (the process's constant mean included) and variance at `times` (any order). */
+  at(times: ArrayLike<number>): MeanAndVariance;
+  /**
+   * Joint conditional covariance at `times` (row-major M x M, in the order given); refused with a
+   * RangeError above {@link MAX_COVARIANCE_SIZE} times.
+   */
+  covarianceAt(times: ArrayLike<number>): Float64Array;
+  /** One draw of the latent process at `times` from its conditional distribution (mean included). */
+  draw(rng: Rng, times: ArrayLike<number>): Float64Array;
+}
+
+/** Largest number of requested times for which a joint conditional covariance is formed (M^2 numbers). */
+export const MAX_COVARIANCE_SIZE = 2000;
+
+/** Refuses a joint covariance over more than {@link MAX_COVARIANCE_SIZE} times, naming the count. */
+export function checkCovarianceSize(count: number): void {
+  if (count > MAX_COVARIANCE_SIZE)
+    throw new RangeError(
+      `covarianceAt: a joint covariance is limited to ${MAX_COVARIANCE_SIZE} times (${MAX_COVARIANCE_SIZE}^2 numbers), got ${count}; use at() for the variances`,
+    );
 }
 
 /** The log-likelihood and its gradient. */
@@ -32,11 +58,11 @@ export interface GradientResult {
 /** Validated inputs shared by both engines. */
 export interface ConditionedInputs {
   readonly time: Float64Array;
-  /** yerr^2 per point. */
+  /** errors^2 per point. */
   readonly errorVariance: Float64Array;
   readonly mean: number;
   readonly jitter: number;
-  /** yerr^2 + jitter^2 per point (the same array as errorVariance when the jitter is 0). */
+  /** errors^2 + jitter^2 per point (the same array as errorVariance when the jitter is 0). */
   readonly noiseVariance: Float64Array;
 }
 
@@ -50,20 +76,20 @@ const isFiniteValue = (x: number): boolean => x - x === 0;
 export function conditionInputs(time: ArrayLike<number>, options: GaussianProcessOptions): ConditionedInputs {
   const n = time.length;
   if (n < 1) throw new RangeError("GaussianProcess: at least one time is required");
-  const yerr = options.yerr ?? 0;
-  if (typeof yerr !== "number" && yerr.length !== n)
-    throw new RangeError(`GaussianProcess: yerr has ${yerr.length} values for ${n} times`);
+  const errors = options.errors ?? 0;
+  if (typeof errors !== "number" && errors.length !== n)
+    throw new RangeError(`GaussianProcess: errors has ${errors.length} values for ${n} times`);
   const t = new Float64Array(n);
   const errorVariance = new Float64Array(n);
-  const bad = typeof yerr === "number" ? copyChecked(time, t, new Float64Array(n).fill(yerr), errorVariance) : copyChecked(time, t, yerr, errorVariance);
+  const bad = typeof errors === "number" ? copyChecked(time, t, new Float64Array(n).fill(errors), errorVariance) : copyChecked(time, t, errors, errorVariance);
   if (bad < n) {
-    const e = typeof yerr === "number" ? yerr : yerr[bad];
+    const e = typeof errors === "number" ? errors : errors[bad];
     if (!isFiniteValue(time[bad])) throw new RangeError(`GaussianProcess: time[${bad}] is not finite (${time[bad]})`);
     if (bad > 0 && time[bad] < time[bad - 1])
       throw new RangeError(
         `GaussianProcess: times must be sorted ascending (time[${bad}] = ${time[bad]} < time[${bad - 1}] = ${time[bad - 1]})`,
       );
-    throw new RangeError(`GaussianProcess: yerr[${bad}] must be finite and >= 0, got ${e}`);
+    throw new RangeError(`GaussianProcess: errors[${bad}] must be finite and >= 0, got ${e}`);
   }
   return withMeanAndJitter({ time: t, errorVariance, mean: 0, jitter: 0, noiseVariance: errorVariance }, options);
 }
@@ -73,12 +99,12 @@ export function conditionInputs(time: ArrayLike<number>, options: GaussianProces
  * point whose time is not finite or out of order or whose error is not finite and >= 0, or n when all are
  * good. Kept apart from the messages so that V8 compiles the loop on its own.
  */
-function copyChecked(time: ArrayLike<number>, t: Float64Array, yerr: ArrayLike<number>, errorVariance: Float64Array): number {
+function copyChecked(time: ArrayLike<number>, t: Float64Array, errors: ArrayLike<number>, errorVariance: Float64Array): number {
   const n = t.length;
   let previous = -Infinity;
   for (let i = 0; i < n; i++) {
     const ti = time[i];
-    const e = yerr[i];
+    const e = errors[i];
     if (!(ti - ti === 0 && ti >= previous && e - e === 0 && e >= 0)) return i;
     t[i] = ti;
     errorVariance[i] = e * e;
@@ -117,7 +143,7 @@ export function withMeanAndJitter(inputs: ConditionedInputs, options: Pick<Gauss
  */
 export function evaluateValues<T>(y: ArrayLike<number>, inputs: ConditionedInputs, evaluate: () => T): T {
   const n = inputs.time.length;
-  if (y.length !== n) throw new RangeError(`GaussianProcess: y has ${y.length} values for ${n} times`);
+  if (y.length !== n) throw new RangeError(`GaussianProcess: ${y.length} values for ${n} times`);
   try {
     return evaluate();
   } catch (error) {
@@ -129,9 +155,9 @@ export function evaluateValues<T>(y: ArrayLike<number>, inputs: ConditionedInput
 /** Checks that y has one finite value per time (without copying it). */
 export function checkValues(y: ArrayLike<number>, inputs: ConditionedInputs): void {
   const n = inputs.time.length;
-  if (y.length !== n) throw new RangeError(`GaussianProcess: y has ${y.length} values for ${n} times`);
+  if (y.length !== n) throw new RangeError(`GaussianProcess: ${y.length} values for ${n} times`);
   const bad = firstNonFinite(y);
-  if (bad < n) throw new RangeError(`GaussianProcess: y[${bad}] is not finite (${y[bad]})`);
+  if (bad < n) throw new RangeError(`GaussianProcess: values[${bad}] is not finite (${y[bad]})`);
 }
 
 /** The index of the first value that is not finite, or the length. */
@@ -151,11 +177,16 @@ export function residualOf(y: ArrayLike<number>, inputs: ConditionedInputs): Flo
   return out;
 }
 
-/** Sorts requested times, remembering where each came from. */
-export function sortTargets(targets: ArrayLike<number>): { sorted: Float64Array; order: Int32Array } {
-  const order = Int32Array.from({ length: targets.length }, (_, i) => i);
+/** Checks that every requested time is finite (`what` names the method in the message). */
+export function checkTargets(targets: ArrayLike<number>, what: string): void {
   for (let i = 0; i < targets.length; i++)
-    if (!Number.isFinite(targets[i])) throw new RangeError(`predict: requested time[${i}] is not finite (${targets[i]})`);
+    if (!Number.isFinite(targets[i])) throw new RangeError(`${what}: requested times[${i}] is not finite (${targets[i]})`);
+}
+
+/** Sorts requested times (checked finite), remembering where each came from. */
+export function sortTargets(targets: ArrayLike<number>, what: string): { sorted: Float64Array; order: Int32Array } {
+  checkTargets(targets, what);
+  const order = Int32Array.from({ length: targets.length }, (_, i) => i);
   order.sort((a, b) => targets[a] - targets[b]);
   const sorted = Float64Array.from(order, (i) => targets[i]);
   return { sorted, order };

@@ -26,7 +26,7 @@ export function checkGrowthAfter(report: ConvergenceReport, criteria: Convergenc
 function extrapolatedFactor(report: ConvergenceReport, criteria: ConvergenceCriteria): number {
   const { parameters, chainLength } = report;
   if (parameters.some((p) => !p.autocorrReliable)) return MAX_CHECK_GROWTH;
-  const neededLength = criteria.autocorrelationLengths * report.autocorrTime;
+  const neededLength = criteria.autocorrelationLengths * report.autocorrelationTime;
   if (!(chainLength >= neededLength)) return neededLength / chainLength;
   if (!(report.rhatMax < report.rhatThreshold)) return (report.rhatMax - 1) / (report.rhatThreshold - 1);
   if (!(report.essMin >= criteria.ess)) return criteria.ess / report.essMin;

@@ -55,7 +55,7 @@ export interface ParameterDiagnostics {
   readonly essBulk: number;
   readonly essTail: number;
   /** Integrated autocorrelation time in iterations (Sokal window, chain-averaged autocorrelation). */
-  readonly autocorrTime: number;
+  readonly autocorrelationTime: number;
   /** Whether the Sokal window fitted inside the chains. */
   readonly autocorrReliable: boolean;
 }
@@ -69,13 +69,13 @@ export interface ConvergenceReport {
   /** Smallest bulk or tail ESS over the parameters. */
   readonly essMin: number;
   /** Largest autocorrelation time over the parameters, in iterations. */
-  readonly autocorrTime: number;
+  readonly autocorrelationTime: number;
   /** Draws per chain that were assessed. */
   readonly chainLength: number;
   readonly converged: boolean;
   /**
    * How far the run is from meeting the criteria, in [0, 1]: the smallest of essMin / ess and
-   * chainLength / (autocorrelationLengths * autocorrTime); 1 only when converged.
+   * chainLength / (autocorrelationLengths * autocorrelationTime); 1 only when converged.
    */
   readonly progress: number;
 }
@@ -115,19 +115,19 @@ export function assessConvergence(
         rhat: rhat[i]!,
         essBulk: essBulk[i]!,
         essTail: essTail[i]!,
-        autocorrTime: tau[i]!,
+        autocorrelationTime: tau[i]!,
         autocorrReliable: reliable[i]!,
       }),
     );
     const rhatMax = nanMax(rhat);
     const essMin = nanMin([...essBulk, ...essTail]);
-    const autocorrTime = nanMax(tau);
+    const autocorrelationTime = nanMax(tau);
     const lengthRatio = reliable.every((r) => r)
-      ? chainLength / (criteria.autocorrelationLengths * Math.max(autocorrTime, 1e-12))
+      ? chainLength / (criteria.autocorrelationLengths * Math.max(autocorrelationTime, 1e-12))
       : 0;
     const ratio = Number.isNaN(essMin) ? Math.min(lengthRatio, 0.5) : Math.min(essMin / criteria.ess, lengthRatio);
     const progress = converged ? 1 : Number.isFinite(ratio) ? Math.max(0, Math.min(0.99, ratio)) : 0;
-    return { parameters, rhatMax, rhatThreshold: rhatBound, essMin, autocorrTime, chainLength, converged, progress };
+    return { parameters, rhatMax, rhatThreshold: rhatBound, essMin, autocorrelationTime, chainLength, converged, progress };
   };
   if (chainLength < 8) return finish(false);
 

@@ -6,7 +6,7 @@ export class DrawStore {
   readonly chains: number;
   readonly dimension: number;
   private rows: Float64Array[];
-  private logDensities: Float64Array[];
+  private logPosteriors: Float64Array[];
   private count = 0;
   private capacity: number;
 
@@ -15,7 +15,7 @@ export class DrawStore {
     this.dimension = dimension;
     this.capacity = Math.max(1, initialCapacity);
     this.rows = Array.from({ length: chains }, () => new Float64Array(this.capacity * dimension));
-    this.logDensities = Array.from({ length: chains }, () => new Float64Array(this.capacity));
+    this.logPosteriors = Array.from({ length: chains }, () => new Float64Array(this.capacity));
   }
 
   /** Number of kept iterations (rows per chain). */
@@ -24,10 +24,10 @@ export class DrawStore {
   }
 
   /**
-   * Appends one iteration: `positions[c]` and `logDensity[c]` for every chain c. Storage grows by
+   * Appends one iteration: `positions[c]` and `logPosterior[c]` for every chain c. Storage grows by
    * doubling so a long run costs amortised O(1) per row.
    */
-  append(positions: readonly Float64Array[], logDensity: ArrayLike<number>): void {
+  append(positions: readonly Float64Array[], logPosterior: ArrayLike<number>): void {
     if (this.count === this.capacity) {
       this.capacity *= 2;
       this.rows = this.rows.map((old) => {
@@ -35,7 +35,7 @@ export class DrawStore {
         grown.set(old);
         return grown;
       });
-      this.logDensities = this.logDensities.map((old) => {
+      this.logPosteriors = this.logPosteriors.map((old) => {
         const grown = new Float64Array(this.capacity);
         grown.set(old);
         return grown;
@@ -43,7 +43,7 @@ export class DrawStore {
     }
     for (let c = 0; c < this.chains; c++) {
       this.rows[c]!.set(positions[c]!, this.count * this.dimension);
-      this.logDensities[c]![this.count] = logDensity[c]!;
+      this.logPosteriors[c]![this.count] = logPosterior[c]!;
     }
     this.count++;
   }
@@ -59,8 +59,8 @@ export class DrawStore {
   }
 
   /** ln p of every kept row of one chain, rows `from` to `to`. */
-  logDensityOf(chain: number, from = 0, to = this.count): Float64Array {
-    return this.logDensities[chain]!.slice(from, to);
+  logPosteriorOf(chain: number, from = 0, to = this.count): Float64Array {
+    return this.logPosteriors[chain]!.slice(from, to);
   }
 
   /** One kept row of one chain (a copy). */

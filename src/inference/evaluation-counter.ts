@@ -1,4 +1,4 @@
-import type { LogDensity } from "./log-density.js";
+import type { PosteriorTarget } from "./posterior-target.js";
 
 /**
  * Running tally of how often a target was evaluated. Values and gradients are counted apart because
@@ -12,7 +12,7 @@ export interface EvaluationCounts {
 }
 
 /** A target wrapped so that every evaluation is counted. */
-export interface CountedLogDensity extends LogDensity {
+export interface CountedPosteriorTarget extends PosteriorTarget {
   readonly counts: EvaluationCounts;
 }
 
@@ -20,19 +20,19 @@ export interface CountedLogDensity extends LogDensity {
  * Wraps a target so that its evaluations are tallied in `counts`. The wrapper owns its tally, so two
  * runs on the same target do not share counts.
  */
-export function countEvaluations(target: LogDensity): CountedLogDensity {
+export function countEvaluations(target: PosteriorTarget): CountedPosteriorTarget {
   const counts: EvaluationCounts = { values: 0, gradients: 0 };
-  const gradientFn = target.logDensityAndGradient;
-  const counted: CountedLogDensity = {
+  const gradientFn = target.logPosteriorAndGradient;
+  const counted: CountedPosteriorTarget = {
     dimension: target.dimension,
     counts,
-    logDensity(x: Float64Array): number {
+    logPosterior(x: Float64Array): number {
       counts.values++;
-      return target.logDensity(x);
+      return target.logPosterior(x);
     },
   };
   if (gradientFn !== undefined) {
-    counted.logDensityAndGradient = (x: Float64Array, gradientOut: Float64Array): number => {
+    counted.logPosteriorAndGradient = (x: Float64Array, gradientOut: Float64Array): number => {
       counts.gradients++;
       return gradientFn.call(target, x, gradientOut);
     };

@@ -1,11 +1,11 @@
 /**
  * The inference layer: parameters with priors and transforms, maximum a posteriori, the ensemble and
- * no-U-turn samplers, convergence diagnostics and posterior summaries. Works on any {@link LogDensity},
+ * no-U-turn samplers, convergence diagnostics and posterior summaries. Works on any {@link PosteriorTarget},
  * so it does not depend on the Gaussian-process engine.
  */
-export type { LogDensity, DifferentiableLogDensity } from "./log-density.js";
-export { hasGradient } from "./log-density.js";
-export { countEvaluations, evaluationCost, type CountedLogDensity, type EvaluationCounts } from "./evaluation-counter.js";
+export type { PosteriorTarget, DifferentiablePosteriorTarget } from "./posterior-target.js";
+export { hasGradient } from "./posterior-target.js";
+export { countEvaluations, evaluationCost, type CountedPosteriorTarget, type EvaluationCounts } from "./evaluation-counter.js";
 export { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
 export {
   uniformPrior,
@@ -32,7 +32,7 @@ export {
   type ParameterSpec,
   type FreeParameter,
 } from "./parameter-space.js";
-export { posteriorDensity, type PhysicalLikelihood, type PosteriorDensityOptions } from "./posterior-density.js";
+export { unconstrainedPosterior, type PhysicalLikelihood, type UnconstrainedPosteriorOptions } from "./unconstrained-posterior.js";
 export { minimizeLbfgs, type LbfgsOptions, type LocalMinimum, type GradientObjective } from "./lbfgs.js";
 export { minimizeNelderMead, type NelderMeadOptions } from "./nelder-mead.js";
 export { findMaximumPosterior, startingPoints, type MaximumPosterior, type LocalMaximum } from "./maximum-posterior.js";

@@ -1,6 +1,6 @@
 import type { Rng } from "../random/rng.js";
 import { minimizeLbfgs, type LbfgsOptions, type LocalMinimum } from "./lbfgs.js";
-import { hasGradient, type LogDensity } from "./log-density.js";
+import { hasGradient, type PosteriorTarget } from "./posterior-target.js";
 import { minimizeNelderMead, type NelderMeadOptions } from "./nelder-mead.js";
 import type { ParameterSpace } from "./parameter-space.js";
 
@@ -18,7 +18,7 @@ export interface MaximumPosteriorOptions {
 export interface LocalMaximum {
   readonly start: Float64Array;
   readonly x: Float64Array;
-  readonly logDensity: number;
+  readonly logPosterior: number;
   readonly converged: boolean;
   readonly evaluations: number;
 }
@@ -28,7 +28,7 @@ export interface MaximumPosterior {
   /** The highest point found, in the target's space. */
   readonly x: Float64Array;
   /** ln p at `x`. */
-  readonly logDensity: number;
+  readonly logPosterior: number;
   readonly method: "lbfgs" | "nelder-mead";
   /** Every run, best first. */
   readonly runs: readonly LocalMaximum[];
@@ -39,7 +39,7 @@ export interface MaximumPosterior {
  * target has a gradient, Nelder-Mead otherwise. Several starts guard against the local maxima that
  * periodic likelihoods have at harmonics and aliases of the period (common practice).
  */
-export function findMaximumPosterior(target: LogDensity, options: MaximumPosteriorOptions): MaximumPosterior {
+export function findMaximumPosterior(target: PosteriorTarget, options: MaximumPosteriorOptions): MaximumPosterior {
   const method = options.method ?? (hasGradient(target) ? "lbfgs" : "nelder-mead");
   if (method === "lbfgs" && !hasGradient(target)) {
     throw new RangeError("maximum a posteriori: L-BFGS needs a target with a gradient");
@@ -49,12 +49,12 @@ export function findMaximumPosterior(target: LogDensity, options: MaximumPosteri
     if (start.length !== target.dimension) {
       throw new RangeError(`maximum a posteriori: start has ${start.length} entries, the target ${target.dimension}`);
     }
-    if (!Number.isFinite(target.logDensity(start))) continue;
+    if (!Number.isFinite(target.logPosterior(start))) continue;
     let result: LocalMinimum;
     if (method === "lbfgs" && hasGradient(target)) {
       result = minimizeLbfgs(
         (x, g) => {
-          const v = target.logDensityAndGradient(x, g);
+          const v = target.logPosteriorAndGradient(x, g);
           for (let i = 0; i < g.length; i++) g[i] = -g[i]!;
           return -v;
         },
@@ -62,12 +62,12 @@ export function findMaximumPosterior(target: LogDensity, options: MaximumPosteri
         options.lbfgs,
       );
     } else {
-      result = minimizeNelderMead((x) => -target.logDensity(x), start, options.nelderMead);
+      result = minimizeNelderMead((x) => -target.logPosterior(x), start, options.nelderMead);
     }
     runs.push({
       start: Float64Array.from(start),
       x: result.x,
-      logDensity: -result.value,
+      logPosterior: -result.value,
       converged: result.converged,
       evaluations: result.evaluations,
     });
@@ -75,9 +75,9 @@ export function findMaximumPosterior(target: LogDensity, options: MaximumPosteri
   if (runs.length === 0) {
     throw new RangeError("maximum a posteriori: the log density is not finite at any starting point");
   }
-  runs.sort((a, b) => b.logDensity - a.logDensity);
+  runs.sort((a, b) => b.logPosterior - a.logPosterior);
   const best = runs[0]!;
-  return { x: best.x, logDensity: best.logDensity, method, runs };
+  return { x: best.x, logPosterior: best.logPosterior, method, runs };
 }
 
 /**

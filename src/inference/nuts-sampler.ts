@@ -1,7 +1,7 @@
 import { childSeed, createRng, type Rng } from "../random/rng.js";
 import { DrawStore } from "./draw-store.js";
 import { DualAveraging } from "./dual-averaging.js";
-import { hasGradient, type DifferentiableLogDensity, type LogDensity } from "./log-density.js";
+import { hasGradient, type DifferentiablePosteriorTarget, type PosteriorTarget } from "./posterior-target.js";
 import type { MarkovSampler } from "./markov-sampler.js";
 import { nutsTransition, type PhasePoint } from "./nuts-transition.js";
 import { planWarmup, RunningVariance } from "./warmup-schedule.js";
@@ -39,7 +39,7 @@ interface ChainState {
  * eps until the acceptance probability of a single leapfrog step crosses 1/2.
  */
 function initialStepSize(
-  target: DifferentiableLogDensity,
+  target: DifferentiablePosteriorTarget,
   point: PhasePoint,
   inverseMass: Float64Array,
   rng: Rng,
@@ -50,15 +50,15 @@ function initialStepSize(
   const q = new Float64Array(d);
   const g = new Float64Array(d);
   for (let i = 0; i < d; i++) p[i] = rng.normal() / Math.sqrt(inverseMass[i]!);
-  let h0 = -point.logDensity;
+  let h0 = -point.logPosterior;
   for (let i = 0; i < d; i++) h0 += 0.5 * p[i]! * p[i]! * inverseMass[i]!;
   const logAcceptance = (eps: number): number => {
     const pHalf = new Float64Array(d);
     for (let i = 0; i < d; i++) pHalf[i] = p[i]! + 0.5 * eps * point.gradient[i]!;
     for (let i = 0; i < d; i++) q[i] = point.q[i]! + eps * inverseMass[i]! * pHalf[i]!;
-    const logDensity = target.logDensityAndGradient(q, g);
-    if (!Number.isFinite(logDensity)) return -Infinity;
-    let h = -logDensity;
+    const logPosterior = target.logPosteriorAndGradient(q, g);
+    if (!Number.isFinite(logPosterior)) return -Infinity;
+    let h = -logPosterior;
     for (let i = 0; i < d; i++) {
       const pe = pHalf[i]! + 0.5 * eps * g[i]!;
       h += 0.5 * pe * pe * inverseMass[i]!;
@@ -86,7 +86,7 @@ function initialStepSize(
  * @param initial one starting point per chain, each with a finite log density
  */
 export function createNutsSampler(
-  target: LogDensity,
+  target: PosteriorTarget,
   initial: readonly Float64Array[],
   seed: number | string,
   options: NutsSamplerOptions = {},
@@ -102,10 +102,10 @@ export function createNutsSampler(
     if (q0.length !== d) throw new RangeError(`NUTS: a starting point has ${q0.length} entries, expected ${d}`);
     const gradient = new Float64Array(d);
     const q = Float64Array.from(q0);
-    const logDensity = target.logDensityAndGradient(q, gradient);
-    if (!Number.isFinite(logDensity)) throw new RangeError(`NUTS: log density of chain ${c} at its start is ${logDensity}`);
+    const logPosterior = target.logPosteriorAndGradient(q, gradient);
+    if (!Number.isFinite(logPosterior)) throw new RangeError(`NUTS: log density of chain ${c} at its start is ${logPosterior}`);
     const rng = createRng(childSeed(seed, c));
-    const point: PhasePoint = { q, p: new Float64Array(d), gradient, logDensity };
+    const point: PhasePoint = { q, p: new Float64Array(d), gradient, logPosterior };
     const inverseMass = options.initialInverseMass ? Float64Array.from(options.initialInverseMass) : new Float64Array(d).fill(1);
     if (inverseMass.length !== d || !inverseMass.every((v) => v > 0 && Number.isFinite(v))) {
       throw new RangeError(`NUTS: the initial inverse mass needs ${d} positive finite entries`);
@@ -166,7 +166,7 @@ export function createNutsSampler(
           if (step.treeDepth >= maxDepth) depthLimitHits++;
         }
         positions[c] = chain.point.q;
-        logp[c] = chain.point.logDensity;
+        logp[c] = chain.point.logPosterior;
       });
       iterations++;
       if (!inWarmup) draws.append(positions, logp);

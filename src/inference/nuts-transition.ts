@@ -1,12 +1,12 @@
 import type { Rng } from "../random/rng.js";
-import type { DifferentiableLogDensity } from "./log-density.js";
+import type { DifferentiablePosteriorTarget } from "./posterior-target.js";
 
 /** A point of phase space with the log density and its gradient at the position. */
 export interface PhasePoint {
   readonly q: Float64Array;
   readonly p: Float64Array;
   readonly gradient: Float64Array;
-  readonly logDensity: number;
+  readonly logPosterior: number;
 }
 
 /** What one NUTS transition did. */
@@ -62,7 +62,7 @@ function logAddExp(a: number, b: number): number {
  * across each merged pair of subtrees so that turns at their junction are caught (common practice).
  */
 export function nutsTransition(
-  target: DifferentiableLogDensity,
+  target: DifferentiablePosteriorTarget,
   start: PhasePoint,
   stepSize: number,
   inverseMass: Float64Array,
@@ -95,8 +95,8 @@ export function nutsTransition(
   const noUTurn = (sharpA: Float64Array, sharpB: Float64Array, rho: Float64Array): boolean =>
     dot(sharpA, rho) > 0 && dot(sharpB, rho) > 0;
 
-  const origin: PhasePoint = { q: start.q, p: p0, gradient: start.gradient, logDensity: start.logDensity };
-  const h0 = -start.logDensity + kinetic(p0);
+  const origin: PhasePoint = { q: start.q, p: p0, gradient: start.gradient, logPosterior: start.logPosterior };
+  const h0 = -start.logPosterior + kinetic(p0);
   const stats: TreeStats = { leapfrogSteps: 0, acceptanceSum: 0, divergent: false };
 
   const leapfrog = (from: PhasePoint, eps: number): PhasePoint => {
@@ -105,18 +105,18 @@ export function nutsTransition(
     const gradient = new Float64Array(d);
     for (let i = 0; i < d; i++) p[i] = from.p[i]! + 0.5 * eps * from.gradient[i]!;
     for (let i = 0; i < d; i++) q[i] = from.q[i]! + eps * inverseMass[i]! * p[i]!;
-    const logDensity = target.logDensityAndGradient(q, gradient);
-    if (Number.isFinite(logDensity)) {
+    const logPosterior = target.logPosteriorAndGradient(q, gradient);
+    if (Number.isFinite(logPosterior)) {
       for (let i = 0; i < d; i++) p[i] = p[i]! + 0.5 * eps * gradient[i]!;
     }
-    return { q, p, gradient, logDensity };
+    return { q, p, gradient, logPosterior };
   };
 
   const build = (from: PhasePoint, depth: number, eps: number): Subtree | null => {
     if (depth === 0) {
       const point = leapfrog(from, eps);
-      let h = -point.logDensity + kinetic(point.p);
-      if (Number.isNaN(h) || !Number.isFinite(point.logDensity)) h = Infinity;
+      let h = -point.logPosterior + kinetic(point.p);
+      if (Number.isNaN(h) || !Number.isFinite(point.logPosterior)) h = Infinity;
       stats.leapfrogSteps++;
       stats.acceptanceSum += h0 - h > 0 ? 1 : Math.exp(h0 - h);
       if (h - h0 > MAX_ENERGY_ERROR) {

@@ -12,7 +12,7 @@ export interface PosteriorDraws {
   /** Kept iteration of each draw, counted from the first one used for summaries. */
   readonly iteration: Int32Array;
   /** ln posterior (unconstrained, with the Jacobian) of each draw. */
-  readonly logDensity: Float64Array;
+  readonly logPosterior: Float64Array;
 }
 
 /**
@@ -29,33 +29,33 @@ export function posteriorDraws(space: ParameterSpace, run: SamplerRun, thin = 1)
   for (const name of space.names) columns[name] = new Float64Array(total);
   const chain = new Int32Array(total);
   const iteration = new Int32Array(total);
-  const logDensity = new Float64Array(total);
+  const logPosterior = new Float64Array(total);
   const physical = new Float64Array(space.names.length);
   let k = 0;
   for (let c = 0; c < store.chains; c++) {
-    const logp = store.logDensityOf(c, from);
+    const logp = store.logPosteriorOf(c, from);
     for (let r = from, j = 0; r < store.length; r += thin, j += thin) {
       space.toPhysical(store.row(c, r), physical);
       space.names.forEach((name, i) => (columns[name]![k] = physical[i]!));
       chain[k] = c;
       iteration[k] = j;
-      logDensity[k] = logp[j]!;
+      logPosterior[k] = logp[j]!;
       k++;
     }
   }
-  return { names: space.names, columns, chain, iteration, logDensity };
+  return { names: space.names, columns, chain, iteration, logPosterior };
 }
 
 /**
- * The draws as CSV text: a header `chain,iteration,<parameters...>,log_density` and one row per draw,
+ * The draws as CSV text: a header `chain,iteration,<parameters...>,log_posterior` and one row per draw,
  * numbers with full double precision (shortest round-trip form).
  */
 export function posteriorDrawsToCsv(draws: PosteriorDraws): string {
-  const lines = [["chain", "iteration", ...draws.names, "log_density"].join(",")];
+  const lines = [["chain", "iteration", ...draws.names, "log_posterior"].join(",")];
   for (let k = 0; k < draws.chain.length; k++) {
     const row = [String(draws.chain[k]), String(draws.iteration[k])];
     for (const name of draws.names) row.push(String(draws.columns[name]![k]));
-    row.push(String(draws.logDensity[k]));
+    row.push(String(draws.logPosterior[k]));
     lines.push(row.join(","));
   }
   return lines.join("\n") + "\n";

@@ -21,7 +21,7 @@ export interface SamplerProgress {
   /** Estimated fraction of the run done, in [0, 1], never decreasing: the larger of the budget used and the convergence progress. */
   readonly fraction: number;
   /** Cost so far in log-likelihood evaluations (a gradient counts as `gradientCost`). */
-  readonly logProbEvaluations: number;
+  readonly likelihoodEvaluations: number;
   /** The latest convergence assessment, when one has been made. */
   readonly convergence?: ConvergenceReport;
 }
@@ -123,7 +123,7 @@ export function runSampler(
       phase: warm ? "warmup" : "sampling",
       iteration: sampler.iterations,
       fraction,
-      logProbEvaluations: cost(),
+      likelihoodEvaluations: cost(),
       ...(report ? { convergence: report } : {}),
     });
   };
@@ -162,9 +162,9 @@ export function runSampler(
     rhatMax: report.rhatMax,
     rhatThreshold: report.rhatThreshold,
     essMin: report.essMin,
-    autocorrTime: report.autocorrTime,
+    autocorrelationTime: report.autocorrelationTime,
     acceptance: sampler.acceptanceRate(),
-    logProbEvaluations: cost(),
+    likelihoodEvaluations: cost(),
     seconds: (clock() - startTime) / 1000,
     stopReason,
     iterations: sampler.iterations,

@@ -3,12 +3,12 @@ import { createWalkerEnsemble, defaultWalkerCount } from "./walker-ensemble.js";
 import type { WeightedProposal } from "./walker-proposals.js";
 import { countEvaluations, evaluationCost } from "./evaluation-counter.js";
 import { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
-import { hasGradient, type LogDensity } from "./log-density.js";
+import { hasGradient, type PosteriorTarget } from "./posterior-target.js";
 import { findMaximumPosterior, startingPoints, type MaximumPosterior } from "./maximum-posterior.js";
 import { modeScales } from "./mode-curvature.js";
 import { createNutsSampler } from "./nuts-sampler.js";
 import type { ParameterSpace } from "./parameter-space.js";
-import { posteriorDensity, type PhysicalLikelihood } from "./posterior-density.js";
+import { unconstrainedPosterior, type PhysicalLikelihood } from "./unconstrained-posterior.js";
 import { posteriorDraws } from "./posterior-draws.js";
 import { summarizeDraws, type PosteriorSummary } from "./posterior-summary.js";
 import { runSampler, type RunDiagnostics, type RunSamplerOptions, type SamplerRun, type StopReason } from "./run-sampler.js";
@@ -60,10 +60,10 @@ export interface PosteriorSample {
   /** The maximum a posteriori in physical parameters (no Jacobian), by name. */
   readonly maximum: Readonly<Record<string, number>>;
   /** ln posterior at the maximum (physical parameterisation). */
-  readonly maximumLogDensity: number;
+  readonly maximumLogPosterior: number;
   /** Posterior summary of every parameter, by name; fixed ones carry `fixed: true` and sd 0. */
   readonly parameters: Readonly<Record<string, PosteriorSummary & { readonly fixed?: boolean; readonly rhat?: number; readonly essBulk?: number; readonly essTail?: number }>>;
-  /** Run diagnostics; `logProbEvaluations` and `seconds` include the optimisation. */
+  /** Run diagnostics; `likelihoodEvaluations` and `seconds` include the optimisation. */
   readonly diagnostics: RunDiagnostics & { readonly optimizerEvaluations: number };
   readonly run: SamplerRun;
   readonly space: ParameterSpace;
@@ -73,7 +73,7 @@ export interface PosteriorSample {
 
 /** Draws `count` points around `centre`, `scale[i] * spread` wide, each with a finite log density. */
 function cloudAround(
-  target: LogDensity,
+  target: PosteriorTarget,
   centre: Float64Array,
   scale: Float64Array,
   spread: number,
@@ -85,7 +85,7 @@ function cloudAround(
     let point = Float64Array.from(centre);
     for (let attempt = 0, s = spread; attempt < 50; attempt++, s *= 0.5) {
       const trial = Float64Array.from(centre, (c, i) => c + s * scale[i]! * rng.normal());
-      if (Number.isFinite(target.logDensity(trial))) {
+      if (Number.isFinite(target.logPosterior(trial))) {
         point = trial;
         break;
       }
@@ -121,12 +121,12 @@ export function samplePosterior(
   if (space.dimension === 0) throw new RangeError("posterior sampling: every parameter is fixed");
 
   const seed = options.seed;
-  const optimiserTarget = countEvaluations(posteriorDensity(space, likelihood, { jacobian: false }));
+  const optimiserTarget = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: false }));
   const starts = startingPoints(space, options.starts ?? 6, createRng(childSeed(seed, 0)), options.initial);
   const maximum: MaximumPosterior = findMaximumPosterior(optimiserTarget, { starts });
   const optimizerEvaluations = evaluationCost(optimiserTarget.counts, gradientCost);
 
-  const target = countEvaluations(posteriorDensity(space, likelihood, { jacobian: true }));
+  const target = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: true }));
   // Samplers start around the mode of the density they sample (with the Jacobian), reached from the
   // physical MAP by one more local search. The physical MAP can sit on the edge of a prior's support
   // (a variability amplitude the data cannot resolve), which is -Infinity away in the unconstrained
@@ -174,11 +174,11 @@ export function samplePosterior(
     seed,
     stopReason: run.stopReason,
     maximum: physicalMaximum,
-    maximumLogDensity: maximum.logDensity,
+    maximumLogPosterior: maximum.logPosterior,
     parameters,
     diagnostics: {
       ...run.diagnostics,
-      logProbEvaluations: run.diagnostics.logProbEvaluations + optimizerEvaluations + setupCost,
+      likelihoodEvaluations: run.diagnostics.likelihoodEvaluations + optimizerEvaluations + setupCost,
       seconds: (clock() - startTime) / 1000,
       optimizerEvaluations,
     },

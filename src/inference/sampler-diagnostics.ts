@@ -15,11 +15,11 @@ export interface SamplerDiagnostics {
   /** Smallest of the bulk and tail effective sample sizes over the parameters. */
   readonly essMin: number;
   /** Largest integrated autocorrelation time over the parameters, in steps. */
-  readonly autocorrTime: number;
+  readonly autocorrelationTime: number;
   /** Mean acceptance rate. */
   readonly acceptance: number;
   /** Cost in log-likelihood evaluations, a gradient weighted by its cost in evaluations. */
-  readonly logProbEvaluations: number;
+  readonly likelihoodEvaluations: number;
   /** Wall-clock seconds. */
   readonly seconds: number;
 }

@@ -1,7 +1,7 @@
 import type { Rng } from "../random/rng.js";
 import { DrawStore } from "./draw-store.js";
 import { defaultWalkerProposals, type WeightedProposal } from "./walker-proposals.js";
-import type { LogDensity } from "./log-density.js";
+import type { PosteriorTarget } from "./posterior-target.js";
 import type { MarkovSampler } from "./markov-sampler.js";
 
 /** Options of {@link createWalkerEnsemble}. */
@@ -31,7 +31,7 @@ export function defaultWalkerCount(dimension: number): number {
  *   each with a finite log density
  */
 export function createWalkerEnsemble(
-  target: LogDensity,
+  target: PosteriorTarget,
   initial: readonly Float64Array[],
   rng: Rng,
   options: WalkerEnsembleOptions = {},
@@ -48,7 +48,7 @@ export function createWalkerEnsemble(
     if (x.length !== d) throw new RangeError(`ensemble sampler: a starting point has ${x.length} entries, expected ${d}`);
     return Float64Array.from(x);
   });
-  const logp = Float64Array.from(positions, (x) => target.logDensity(x));
+  const logp = Float64Array.from(positions, (x) => target.logPosterior(x));
   logp.forEach((v, i) => {
     if (!Number.isFinite(v)) throw new RangeError(`ensemble sampler: log density of walker ${i} at its start is ${v}`);
   });
@@ -75,7 +75,7 @@ export function createWalkerEnsemble(
     let acceptedHere = 0;
     for (let w = first; w < first + half; w++) {
       const logFactor = move.propose(positions[w]!, complement, rng, proposal);
-      const candidate = target.logDensity(proposal);
+      const candidate = target.logPosterior(proposal);
       const logRatio = logFactor + candidate - logp[w]!;
       // Compare in logs; NaN or -Infinity candidates are never accepted.
       if (candidate > -Infinity && (logRatio >= 0 || Math.log(rng.uniform()) < logRatio)) {

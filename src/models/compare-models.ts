@@ -1,4 +1,4 @@
-import { findMaximumPosterior, posteriorDensity, startingPoints } from "../inference/index.js";
+import { findMaximumPosterior, unconstrainedPosterior, startingPoints } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { computePeriodogram } from "../periodogram/periodogram.js";
 import { childSeed, createRng } from "../random/rng.js";
@@ -58,7 +58,7 @@ export function compareModels(
       ...(peak ? { periodGuess: peak.period } : {}),
     });
     const likelihood = modelLikelihood(model, lightCurve);
-    const target = posteriorDensity(model.space, likelihood, { jacobian: true });
+    const target = unconstrainedPosterior(model.space, likelihood, { jacobian: true });
     const rng = createRng(childSeed(options.seed, k));
     const starts = startingPoints(model.space, options.starts ?? 6, rng, model.initialGuess);
     if (model.initialGuess.period !== undefined) {

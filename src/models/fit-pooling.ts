@@ -29,7 +29,7 @@ export function pooledDraws(runs: readonly PosteriorDraws[], weights: readonly n
   for (const name of names) columns[name] = new Float64Array(total);
   const chain = new Int32Array(total);
   const iteration = new Int32Array(total);
-  const logDensity = new Float64Array(total);
+  const logPosterior = new Float64Array(total);
   let offset = 0;
   let chainOffset = 0;
   runs.forEach((run, k) => {
@@ -37,12 +37,12 @@ export function pooledDraws(runs: readonly PosteriorDraws[], weights: readonly n
       for (const name of names) columns[name][offset] = run.columns[name][i];
       chain[offset] = run.chain[i] + chainOffset;
       iteration[offset] = run.iteration[i];
-      logDensity[offset] = run.logDensity[i];
+      logPosterior[offset] = run.logPosterior[i];
       offset++;
     }
     chainOffset += chainCount(run.chain);
   });
-  return { names, columns, chain, iteration, logDensity };
+  return { names, columns, chain, iteration, logPosterior };
 }
 
 /** Number of chains in a draw set: the largest chain index plus one (0 for no draws). */

@@ -37,7 +37,7 @@ export function fitWarnings(inputs: WarningInputs): string[] {
   } else if (!diagnostics.converged) {
     warnings.push(
       `The sampler stopped (${diagnostics.stopReason ?? "budget"}) before convergence: largest R-hat ${diagnostics.rhatMax.toFixed(4)}, ` +
-        `smallest ESS ${Math.round(diagnostics.essMin)}, autocorrelation time ${fmt(diagnostics.autocorrTime)} ` +
+        `smallest ESS ${Math.round(diagnostics.essMin)}, autocorrelation time ${fmt(diagnostics.autocorrelationTime)} ` +
         `(targets: R-hat < ${+(diagnostics.rhatThreshold ?? 1.01).toPrecision(5)}, bulk and tail ESS >= 400, chains at least 50 autocorrelation times long); ` +
         "treat the intervals as rough or raise the budget.",
     );

@@ -1,5 +1,5 @@
 import { CholeskyDecomposition, Matrix } from "ml-matrix";
-import type { LogDensity } from "../inference/index.js";
+import type { PosteriorTarget } from "../inference/index.js";
 
 /** The Laplace approximation of a log evidence at a mode. */
 export interface LaplaceEvidence {
@@ -16,10 +16,10 @@ export interface LaplaceEvidence {
  * H comes from central differences of the analytic gradient (step `step` in the unconstrained
  * coordinates), symmetrised.
  */
-export function laplaceLogEvidence(target: LogDensity, mode: Float64Array, step = 1e-4): LaplaceEvidence {
+export function laplaceLogEvidence(target: PosteriorTarget, mode: Float64Array, step = 1e-4): LaplaceEvidence {
   const d = mode.length;
-  const gradient = target.logDensityAndGradient;
-  const value = target.logDensity(mode);
+  const gradient = target.logPosteriorAndGradient;
+  const value = target.logPosterior(mode);
   if (d === 0) return { logEvidence: value, positiveDefinite: true };
   const hessian = new Matrix(d, d);
   const up = new Float64Array(d);
@@ -39,7 +39,7 @@ export function laplaceLogEvidence(target: LogDensity, mode: Float64Array, step 
           const x = Float64Array.from(mode);
           x[i] += a;
           x[j] += b;
-          return target.logDensity(x);
+          return target.logPosterior(x);
         };
         hessian.set(i, j, -(f(step, step) - f(step, -step) - f(-step, step) + f(-step, -step)) / (4 * step * step));
       }

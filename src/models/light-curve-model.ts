@@ -130,7 +130,7 @@ export function buildModel(name: ModelName, summary: DataSummary, structure: Mod
     kernelAt,
     processAt: (physical, lightCurve) =>
       new GaussianProcess(kernelAt(physical), lightCurve.time, {
-        yerr: lightCurve.error ?? 0,
+        errors: lightCurve.error ?? 0,
         mean: physical[meanIndex],
         jitter: jitterIndex >= 0 ? physical[jitterIndex] : 0,
       }),

@@ -1,4 +1,4 @@
-import { findMaximumPosterior, posteriorDensity, type PhysicalLikelihood } from "../inference/index.js";
+import { findMaximumPosterior, unconstrainedPosterior, type PhysicalLikelihood } from "../inference/index.js";
 import { laplaceLogEvidence } from "./laplace-evidence.js";
 import type { LightCurveModel } from "./light-curve-model.js";
 
@@ -6,7 +6,7 @@ import type { LightCurveModel } from "./light-curve-model.js";
 export interface PeriodMode {
   readonly period: number;
   /** ln posterior (unconstrained, with Jacobian) at the mode. */
-  readonly logDensity: number;
+  readonly logPosterior: number;
   /** Laplace-approximated posterior probability of the mode among those found. */
   readonly probability: number;
   /** The mode's parameters by name. */
@@ -21,25 +21,25 @@ export interface PeriodMode {
  */
 export function findPeriodModes(model: LightCurveModel, likelihood: PhysicalLikelihood, periodGuess: number): PeriodMode[] {
   const space = model.space;
-  const target = posteriorDensity(space, likelihood, { jacobian: true });
+  const target = unconstrainedPosterior(space, likelihood, { jacobian: true });
   const periodIndex = space.names.indexOf("period");
   const prior = space.free.find((p) => p.name === "period")!.prior;
   const candidates = [periodGuess, periodGuess / 2, periodGuess * 2].filter((p) => p > prior.lower && p < prior.upper);
-  const found: { period: number; logDensity: number; logEvidence: number; x: Float64Array }[] = [];
+  const found: { period: number; logPosterior: number; logEvidence: number; x: Float64Array }[] = [];
   for (const period of candidates) {
     const start = space.toUnconstrained(space.physicalFromRecord({ ...model.initialGuess, period }));
     const best = findMaximumPosterior(target, { starts: [start] });
-    if (!Number.isFinite(best.logDensity)) continue;
+    if (!Number.isFinite(best.logPosterior)) continue;
     const physical = space.toPhysical(best.x);
     const modePeriod = physical[periodIndex];
     const evidence = laplaceLogEvidence(target, best.x);
     if (!evidence.positiveDefinite) continue;
     const twin = found.find((m) => Math.abs(m.period / modePeriod - 1) < 0.02);
     if (twin) {
-      if (best.logDensity > twin.logDensity) Object.assign(twin, { period: modePeriod, logDensity: best.logDensity, logEvidence: evidence.logEvidence, x: best.x });
+      if (best.logPosterior > twin.logPosterior) Object.assign(twin, { period: modePeriod, logPosterior: best.logPosterior, logEvidence: evidence.logEvidence, x: best.x });
       continue;
     }
-    found.push({ period: modePeriod, logDensity: best.logDensity, logEvidence: evidence.logEvidence, x: best.x });
+    found.push({ period: modePeriod, logPosterior: best.logPosterior, logEvidence: evidence.logEvidence, x: best.x });
   }
   if (found.length === 0) return [];
   const top = found.reduce((best, m) => Math.max(best, m.logEvidence), -Infinity);
@@ -47,7 +47,7 @@ export function findPeriodModes(model: LightCurveModel, likelihood: PhysicalLike
   return found
     .map((m) => ({
       period: m.period,
-      logDensity: m.logDensity,
+      logPosterior: m.logPosterior,
       probability: Math.exp(m.logEvidence - top) / total,
       parameters: space.recordFromPhysical(space.toPhysical(m.x)),
     }))

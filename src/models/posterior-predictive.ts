@@ -32,7 +32,7 @@ export function posteriorPredictive(
   const means = new Float64Array(k * m);
   const sds = new Float64Array(k * m);
   rows.forEach((row, j) => {
-    const prediction = model.processAt(row, lightCurve).predict(lightCurve.value, times);
+    const prediction = model.processAt(row, lightCurve).given(lightCurve.value).at(times);
     for (let i = 0; i < m; i++) {
       means[j * m + i] = prediction.mean[i];
       sds[j * m + i] = Math.sqrt(prediction.variance[i]);

@@ -1,4 +1,4 @@
-import { findMaximumPosterior, posteriorDensity } from "../inference/index.js";
+import { findMaximumPosterior, unconstrainedPosterior } from "../inference/index.js";
 import { gammaCdf } from "../inference/distribution-functions.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { LightCurveModel } from "./light-curve-model.js";
@@ -48,7 +48,7 @@ export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurv
   for (; iteration < maxIterations; iteration++) {
     const weighted = withNoiseWeights(lightCurve, weights);
     const physical = model.space.toPhysical(point);
-    const latent = model.processAt(physical, weighted).predict(weighted.value, weighted.time);
+    const latent = model.processAt(physical, weighted).given(weighted.value).at(weighted.time);
     // The point's own precision removed from the latent posterior gives the prediction of all the other
     // points, N(mu_-i, V_-i); the E-step for lambda_i is then a scalar fixed point (the point's noise enters
     // its own posterior), iterated to convergence at fixed parameters.
@@ -81,7 +81,7 @@ export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurv
       iteration++;
       break;
     }
-    const target = posteriorDensity(model.space, modelLikelihood(model, withNoiseWeights(lightCurve, weights)), { jacobian: false });
+    const target = unconstrainedPosterior(model.space, modelLikelihood(model, withNoiseWeights(lightCurve, weights)), { jacobian: false });
     point = findMaximumPosterior(target, { starts: [point] }).x;
   }
   const outlierProbability = Float64Array.from({ length: n }, (_, i) =>

@@ -159,12 +159,12 @@ function diagnosticsTable(d: FitDiagnostics): string {
     ],
     ["R-hat bound for this number of chains", formatSignificant(d.rhatThreshold ?? RHAT_THRESHOLD, 4), ""],
     ["Smallest effective sample size", formatSignificant(d.essMin, 4), ""],
-    ["Largest integrated autocorrelation time (steps)", formatSignificant(d.autocorrTime, 3), ""],
+    ["Largest integrated autocorrelation time (steps)", formatSignificant(d.autocorrelationTime, 3), ""],
     ["Mean acceptance rate", formatSignificant(d.acceptance, 3), ""],
-    ["Log-posterior evaluations", String(d.logProbEvaluations), ""],
+    ["Likelihood evaluations (a gradient counted at its cost)", String(d.likelihoodEvaluations), ""],
     ["Wall time (s)", formatSignificant(d.seconds, 3), ""],
   ];
-  const listed = new Set(["converged", "rhatMax", "rhatThreshold", "essMin", "autocorrTime", "acceptance", "logProbEvaluations", "seconds"]);
+  const listed = new Set(["converged", "rhatMax", "rhatThreshold", "essMin", "autocorrelationTime", "acceptance", "likelihoodEvaluations", "seconds"]);
   for (const [key, value] of Object.entries(d)) {
     if (listed.has(key)) continue;
     if (typeof value === "number") known.push([key, formatSignificant(value, 4), ""]);

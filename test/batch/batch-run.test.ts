@@ -91,7 +91,7 @@ describe("runBatch", () => {
       expectRow(row, expected);
       // The parameter summaries of the fit JSON are flattened to <parameter>.<statistic> columns.
       expect(row["mean.median"]).toBe(expected["mean.median"]);
-      expect(row["diagnostics.autocorrTime"]).toBeNaN();
+      expect(row["diagnostics.autocorrelationTime"]).toBeNaN();
     }
   });
 

@@ -18,7 +18,7 @@ const fit: FitResult = {
     tau: { median: 210, mean: 230, sd: 40, "q2.5": 150, q16: 180, q84: 270, "q97.5": 330, hdi95: [140, 320] },
     sigma: { median: 0.2, mean: 0.21, sd: 0.02, "q2.5": 0.17, q16: 0.19, q84: 0.23, "q97.5": 0.25, mode: 0.2 },
   },
-  diagnostics: { converged: false, rhatMax: Infinity, essMin: 12, autocorrTime: NaN, acceptance: 0.3, logProbEvaluations: 40000, seconds: 1.5 },
+  diagnostics: { converged: false, rhatMax: Infinity, essMin: 12, autocorrelationTime: NaN, acceptance: 0.3, likelihoodEvaluations: 40000, seconds: 1.5 },
   warnings: ["the baseline is shorter than 10 tau,\nso tau is biased low"],
   derived: { sfInf: { median: 0.28, mean: 0.3, sd: 0.03, "q2.5": 0.22, q16: 0.25, q84: 0.31, "q97.5": 0.36, description: "sqrt(2) sigma" } },
 };

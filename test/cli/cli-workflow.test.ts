@@ -10,7 +10,7 @@ const CONTRACT = {
   top: ["model", "seed", "version", "data", "parameters", "diagnostics", "warnings"],
   data: ["n", "dropped", "baseline", "medianCadence", "timeColumn", "valueColumn", "errorColumn"],
   summary: ["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5"],
-  diagnostics: ["converged", "rhatMax", "essMin", "autocorrTime", "acceptance", "logProbEvaluations", "seconds"],
+  diagnostics: ["converged", "rhatMax", "essMin", "autocorrelationTime", "acceptance", "likelihoodEvaluations", "seconds"],
 };
 
 describe("command-line workflow: simulate, fit, predict --from, report", () => {

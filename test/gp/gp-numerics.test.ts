@@ -20,9 +20,9 @@ describe("log-likelihood gradient against central finite differences", () => {
     it(name, () => {
       const rng = createRng(`fd:${name}`);
       const t = seasonalTimes(rng, { seasons: 2, perSeason: 80 });
-      const yerr = randomErrors(rng, t.length);
-      const build = (k: Kernel, mean: number, jitter: number) => new GaussianProcess(k, t, { yerr, mean, jitter });
-      const y = build(kernel, 1.5, 0.03).sample(rng).map((v, i) => v + yerr[i] * rng.normal());
+      const errors = randomErrors(rng, t.length);
+      const build = (k: Kernel, mean: number, jitter: number) => new GaussianProcess(k, t, { errors, mean, jitter });
+      const y = build(kernel, 1.5, 0.03).priorDraw(rng).map((v, i) => v + errors[i] * rng.normal());
       const g = build(kernel, 1.5, 0.03).logLikelihoodGradient(y);
       const theta = kernel.parameterValues;
       for (let c = 0; c < theta.length; c++) {
@@ -48,16 +48,16 @@ describe("numerical robustness", () => {
     const minutes = Float64Array.from({ length: 3000 }, (_, i) => (i * 2 + rng.uniform()) / 1440);
     const jd = minutes.map((t) => 2_460_123.5 + t);
     const kernel = kernels.quasiPeriodic({ sigma: 0.01, period: 0.37, quality: 30, harmonicWeight: 0.2 });
-    const y = new GaussianProcess(kernel, minutes, { yerr: 0.001 }).sample(rng);
+    const y = new GaussianProcess(kernel, minutes, { errors: 0.001 }).priorDraw(rng);
     const shifted = jd.map((t) => t - jd[0]);
-    const a = new GaussianProcess(kernel, jd, { yerr: 0.001 }).logLikelihood(y);
-    const b = new GaussianProcess(kernel, shifted, { yerr: 0.001 }).logLikelihood(y);
+    const a = new GaussianProcess(kernel, jd, { errors: 0.001 }).logLikelihood(y);
+    const b = new GaussianProcess(kernel, shifted, { errors: 0.001 }).logLikelihood(y);
     expect(Math.abs(a - b) / Math.abs(b)).toBeLessThan(1e-9);
   });
 
   it("a factorisation that breaks down raises FactorizationError, never NaN", () => {
     // Two identical times with no noise make the covariance matrix singular (common practice).
-    const gp = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 1, tau: 10 }), [0, 1, 1, 2], { yerr: 0 });
+    const gp = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 1, tau: 10 }), [0, 1, 1, 2], { errors: 0 });
     expect(() => gp.logLikelihood([0, 0.1, 0.2, 0.3])).toThrow(FactorizationError);
     expect(() => gp.logLikelihoodGradient([0, 0.1, 0.2, 0.3])).toThrow(/not positive definite/);
   });
@@ -66,13 +66,13 @@ describe("numerical robustness", () => {
     const k = kernels.dampedRandomWalk({ sigma: 1, tau: 10 });
     expect(() => new GaussianProcess(k, [0, 2, 1])).toThrow(/sorted/);
     expect(() => new GaussianProcess(k, [0, NaN])).toThrow(/time\[1\]/);
-    expect(() => new GaussianProcess(k, [0, 1], { yerr: [0.1, -1] })).toThrow(/yerr\[1\]/);
-    expect(() => new GaussianProcess(k, [0, 1]).logLikelihood([0, Infinity])).toThrow(/y\[1\]/);
+    expect(() => new GaussianProcess(k, [0, 1], { errors: [0.1, -1] })).toThrow(/errors\[1\]/);
+    expect(() => new GaussianProcess(k, [0, 1]).logLikelihood([0, Infinity])).toThrow(/values\[1\]/);
     // Values are checked within the recursion's pass, yet the error still names the bad value.
-    const several = new GaussianProcess(k, [0, 1, 2, 3], { yerr: 0.1 });
-    expect(() => several.logLikelihood([0, 0.1, NaN, 0.3])).toThrow(/y\[2\] is not finite/);
-    expect(() => several.logLikelihood([0, 0.1, 0.2, -Infinity])).toThrow(/y\[3\] is not finite/);
-    expect(() => several.meanMarginal([NaN, 0.1, 0.2, 0.3], { mean: 0, sd: 1 })).toThrow(/y\[0\] is not finite/);
+    const several = new GaussianProcess(k, [0, 1, 2, 3], { errors: 0.1 });
+    expect(() => several.logLikelihood([0, 0.1, NaN, 0.3])).toThrow(/values\[2\] is not finite/);
+    expect(() => several.logLikelihood([0, 0.1, 0.2, -Infinity])).toThrow(/values\[3\] is not finite/);
+    expect(() => several.meanMarginal([NaN, 0.1, 0.2, 0.3], { mean: 0, sd: 1 })).toThrow(/values\[0\] is not finite/);
     expect(() => several.logLikelihood([0, 0.1, 0.2])).toThrow(/3 values for 4 times/);
     expect(() => new GaussianProcess(kernels.periodicSquaredExponential({ sigma: 1, period: 2, scale: 3, gamma: 1 }), [0, 1])).toThrow(
       /DenseGaussianProcess/,
@@ -92,7 +92,7 @@ describe("draws", () => {
     const m = t.length;
     const sums = new Float64Array(m * m);
     for (let d = 0; d < n; d++) {
-      const x = gp.sample(rng);
+      const x = gp.priorDraw(rng);
       for (let i = 0; i < m; i++) for (let j = 0; j < m; j++) sums[i * m + j] += x[i] * x[j];
     }
     let worst = 0;
@@ -110,16 +110,17 @@ describe("draws", () => {
     const rng = createRng("conditional-draws");
     const kernel = kernels.oscillator({ sigma: 0.3, period: 20, quality: 2 });
     const t = seasonalTimes(rng, { seasons: 2, perSeason: 25 });
-    const yerr = randomErrors(rng, t.length);
-    const gp = new GaussianProcess(kernel, t, { yerr, mean: 2 });
-    const y = gp.sample(rng).map((v, i) => v + yerr[i] * rng.normal());
+    const errors = randomErrors(rng, t.length);
+    const gp = new GaussianProcess(kernel, t, { errors, mean: 2 });
+    const y = gp.priorDraw(rng).map((v, i) => v + errors[i] * rng.normal());
     const tNew = Float64Array.from([-30, 100, 250, 300, 500, 800]);
-    const { mean, variance } = gp.predict(y, tNew);
+    const given = gp.given(y);
+    const { mean, variance } = given.at(tNew);
     const n = 4000;
     const s1 = new Float64Array(tNew.length);
     const s2 = new Float64Array(tNew.length);
     for (let d = 0; d < n; d++) {
-      const x = gp.sampleConditional(y, tNew, rng);
+      const x = given.draw(rng, tNew);
       for (let i = 0; i < x.length; i++) {
         s1[i] += x[i];
         s2[i] += x[i] * x[i];
@@ -136,6 +137,6 @@ describe("draws", () => {
 
   it("the same seed gives the same draws bit for bit", () => {
     const gp = new GaussianProcess(kernels.matern32({ sigma: 1, scale: 3 }), [0, 1, 2, 5, 9]);
-    expect(Array.from(gp.sample(createRng(7)))).toEqual(Array.from(gp.sample(createRng(7))));
+    expect(Array.from(gp.priorDraw(createRng(7)))).toEqual(Array.from(gp.priorDraw(createRng(7))));
   });
 });

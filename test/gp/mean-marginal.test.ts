@@ -11,11 +11,11 @@ import { randomErrors, seasonalTimes } from "../helpers/seasonal-times.js";
  * with precision 1^T K^-1 1 + 1/s^2 and mean (m0/s^2 + 1^T K^-1 y) / precision (Rybicki & Press 1992,
  * ApJ 398, 169, sec. 2; any textbook on Bayesian linear regression).
  */
-function denseReference(kernel: Kernel, t: Float64Array, yerr: Float64Array, y: Float64Array, m0: number, s: number) {
+function denseReference(kernel: Kernel, t: Float64Array, errors: Float64Array, y: Float64Array, m0: number, s: number) {
   const n = t.length;
   const k = new Matrix(n, n);
   for (let i = 0; i < n; i++)
-    for (let j = 0; j < n; j++) k.set(i, j, kernel.covarianceAt(t[i] - t[j]) + (i === j ? yerr[i] * yerr[i] : 0));
+    for (let j = 0; j < n; j++) k.set(i, j, kernel.covarianceAt(t[i] - t[j]) + (i === j ? errors[i] * errors[i] : 0));
   const logNormal = (cov: Matrix, r: number[]) => {
     const chol = new CholeskyDecomposition(cov);
     const l = chol.lowerTriangularMatrix;
@@ -38,7 +38,7 @@ function denseReference(kernel: Kernel, t: Float64Array, yerr: Float64Array, y: 
 describe("constant mean integrated out (GaussianProcess.meanMarginal)", () => {
   const rng = createRng("mean-marginal");
   const t = seasonalTimes(rng, { seasons: 3, perSeason: 60 });
-  const yerr = randomErrors(rng, t.length);
+  const errors = randomErrors(rng, t.length);
   const cases: Array<[string, Kernel]> = [
     ["damped random walk (written-out recursion)", kernels.dampedRandomWalk({ sigma: 0.3, tau: 150 })],
     ["quasi-periodic + damped random walk", kernels.quasiPeriodic({ sigma: 0.1, period: 23, quality: 4, harmonicWeight: 0.3 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 }))],
@@ -46,11 +46,11 @@ describe("constant mean integrated out (GaussianProcess.meanMarginal)", () => {
     ["product of oscillators (factorisation fallback)", kernels.oscillator({ sigma: 0.5, period: 40, quality: 3 }).times(kernels.oscillator({ sigma: 1, period: 90, quality: 2 }))],
   ];
   it.each(cases)("%s: marginal likelihood and the mean's posterior agree with dense algebra to 1e-9", (_, kernel) => {
-    const gp = new GaussianProcess(kernel, t, { yerr });
-    const y = gp.sample(rng).map((v, i) => v + 19.3 + yerr[i] * rng.normal());
+    const gp = new GaussianProcess(kernel, t, { errors });
+    const y = gp.priorDraw(rng).map((v, i) => v + 19.3 + errors[i] * rng.normal());
     const prior = { mean: 19, sd: 2.5 };
     const result = gp.meanMarginal(y, prior);
-    const reference = denseReference(kernel, t, yerr, y, prior.mean, prior.sd);
+    const reference = denseReference(kernel, t, errors, y, prior.mean, prior.sd);
     expect(Math.abs(result.logLikelihood - reference.value) / Math.abs(reference.value)).toBeLessThan(1e-9);
     expect(Math.abs(result.meanPosterior.mean - reference.mean)).toBeLessThan(1e-9 * Math.abs(reference.mean));
     expect(Math.abs(result.meanPosterior.sd - reference.sd) / reference.sd).toBeLessThan(1e-9);
@@ -59,8 +59,8 @@ describe("constant mean integrated out (GaussianProcess.meanMarginal)", () => {
   it("equals the log-likelihood at the posterior mean plus the Gaussian integral over mu (flat prior)", () => {
     // For a flat prior, integral of N(y | mu 1, K) d mu = N(y | mu_hat 1, K) sqrt(2 pi / a), a = 1^T K^-1 1.
     const kernel = kernels.dampedRandomWalk({ sigma: 0.25, tau: 80 });
-    const gp = new GaussianProcess(kernel, t, { yerr });
-    const y = gp.sample(rng).map((v) => v + 18.2);
+    const gp = new GaussianProcess(kernel, t, { errors });
+    const y = gp.priorDraw(rng).map((v) => v + 18.2);
     const { logLikelihood, meanPosterior } = gp.meanMarginal(y, { mean: 0, sd: Infinity });
     const atMean = gp.withKernel(kernel, { mean: meanPosterior.mean }).logLikelihood(y);
     const a = 1 / (meanPosterior.sd * meanPosterior.sd);

@@ -121,12 +121,12 @@ describe("Nelder-Mead", () => {
 describe("maximum a posteriori from several starts", () => {
   it("keeps the highest of two local maxima of a two-mode density", () => {
     // ln p = ln(0.3 N(x; -2, 0.5) + 0.7 N(x; 3, 0.5)): the global maximum is the mode near 3.
-    const logDensity = (x: Float64Array): number => {
+    const logPosterior = (x: Float64Array): number => {
       const a = 0.3 * Math.exp(-0.5 * ((x[0]! + 2) / 0.5) ** 2);
       const b = 0.7 * Math.exp(-0.5 * ((x[0]! - 3) / 0.5) ** 2);
       return Math.log(a + b);
     };
-    const target = { dimension: 1, logDensity };
+    const target = { dimension: 1, logPosterior };
     const result = findMaximumPosterior(target, { starts: [Float64Array.of(-2.5), Float64Array.of(2)] });
     expect(result.method).toBe("nelder-mead");
     expect(result.x[0]).toBeCloseTo(3, 4);

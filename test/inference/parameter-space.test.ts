@@ -3,7 +3,7 @@ import logisticLogPdf from "@stdlib/stats/base/dists/logistic/logpdf";
 import normalLogPdf from "@stdlib/stats/base/dists/normal/logpdf";
 import { createRng } from "../../src/random/rng.js";
 import { createParameterSpace, withFixedParameters, withFreeParameter } from "../../src/inference/parameter-space.js";
-import { posteriorDensity, type PhysicalLikelihood } from "../../src/inference/posterior-density.js";
+import { unconstrainedPosterior, type PhysicalLikelihood } from "../../src/inference/unconstrained-posterior.js";
 import { logNormalPrior, logUniformPrior, normalPrior, uniformPrior } from "../../src/inference/priors.js";
 
 const space = createParameterSpace([
@@ -37,36 +37,36 @@ describe("parameter space", () => {
 
   it("the prior in u of a log-normal parameter under x = exp(u) is the normal N(mu, sigma) (change of variables)", () => {
     const one = createParameterSpace([{ name: "tau", prior: logNormalPrior(2, 0.5) }]);
-    const target = posteriorDensity(one, { logLikelihood: () => 0 });
-    for (const u of [0.5, 2, 3.7]) expect(target.logDensity(Float64Array.of(u))).toBeCloseTo(normalLogPdf(u, 2, 0.5), 12);
+    const target = unconstrainedPosterior(one, { logLikelihood: () => 0 });
+    for (const u of [0.5, 2, 3.7]) expect(target.logPosterior(Float64Array.of(u))).toBeCloseTo(normalLogPdf(u, 2, 0.5), 12);
   });
 
   it("the prior in u of a uniform parameter under the logit transform is the standard logistic (change of variables)", () => {
     const one = createParameterSpace([{ name: "harmonicWeight", prior: uniformPrior(0, 1) }]);
-    const target = posteriorDensity(one, { logLikelihood: () => 0 });
-    for (const u of [-4, 0, 2.2]) expect(target.logDensity(Float64Array.of(u))).toBeCloseTo(logisticLogPdf(u, 0, 1), 12);
+    const target = unconstrainedPosterior(one, { logLikelihood: () => 0 });
+    for (const u of [-4, 0, 2.2]) expect(target.logPosterior(Float64Array.of(u))).toBeCloseTo(logisticLogPdf(u, 0, 1), 12);
   });
 
   it("without the Jacobian the density is likelihood times prior in physical units", () => {
-    const target = posteriorDensity(space, likelihood, { jacobian: false });
+    const target = unconstrainedPosterior(space, likelihood, { jacobian: false });
     const physical = space.physicalFromRecord({ tau: 150, sigma: 0.4, mean: 17.5 });
     const expected = likelihood.logLikelihood(physical) + space.logPrior(physical);
-    expect(target.logDensity(space.toUnconstrained(physical))).toBeCloseTo(expected, 12);
+    expect(target.logPosterior(space.toUnconstrained(physical))).toBeCloseTo(expected, 12);
   });
 
   it.each([true, false])("gradient in u (jacobian %s) matches central differences", (jacobian) => {
-    const target = posteriorDensity(space, likelihood, { jacobian });
+    const target = unconstrainedPosterior(space, likelihood, { jacobian });
     const u = space.toUnconstrained(space.physicalFromRecord({ tau: 90, sigma: 0.7, mean: 18.9 }));
     const g = new Float64Array(3);
-    const value = target.logDensityAndGradient!(u, g);
-    expect(value).toBeCloseTo(target.logDensity(u), 12);
+    const value = target.logPosteriorAndGradient!(u, g);
+    expect(value).toBeCloseTo(target.logPosterior(u), 12);
     for (let i = 0; i < 3; i++) {
       const h = 1e-6;
       const up = Float64Array.from(u);
       const down = Float64Array.from(u);
       up[i] = up[i]! + h;
       down[i] = down[i]! - h;
-      expect(g[i]).toBeCloseTo((target.logDensity(up) - target.logDensity(down)) / (2 * h), 5);
+      expect(g[i]).toBeCloseTo((target.logPosterior(up) - target.logPosterior(down)) / (2 * h), 5);
     }
   });
 

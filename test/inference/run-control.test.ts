@@ -38,8 +38,8 @@ describe.each(["ensemble", "nuts"] as const)("%s run control", (kind) => {
     expect(run.stopReason).toBe("budget");
     expect(run.diagnostics.converged).toBe(false);
     // The budget is checked before each iteration, so it is exceeded by at most one iteration.
-    expect(run.diagnostics.logProbEvaluations).toBeGreaterThanOrEqual(3000);
-    expect(run.diagnostics.logProbEvaluations).toBe(counts.values - before.values + 2 * (counts.gradients - before.gradients));
+    expect(run.diagnostics.likelihoodEvaluations).toBeGreaterThanOrEqual(3000);
+    expect(run.diagnostics.likelihoodEvaluations).toBe(counts.values - before.values + 2 * (counts.gradients - before.gradients));
   });
 
   it("reports monotone progress and stops when cancelled", () => {

@@ -6,7 +6,7 @@ import { createParameterSpace } from "../../src/inference/parameter-space.js";
 import { posteriorDraws, posteriorDrawsToCsv } from "../../src/inference/posterior-draws.js";
 import { logUniformPrior, normalPrior } from "../../src/inference/priors.js";
 import { samplePosterior, type PosteriorSample } from "../../src/inference/sample-posterior.js";
-import type { PhysicalLikelihood } from "../../src/inference/posterior-density.js";
+import type { PhysicalLikelihood } from "../../src/inference/unconstrained-posterior.js";
 
 // Normal data with known sigma and a normal prior on the mean: the posterior of the mean is
 // N(mu_n, tau_n^2) with 1/tau_n^2 = 1/tau_0^2 + n/sigma^2 and mu_n = tau_n^2 (mu_0/tau_0^2 + n ybar/sigma^2)
@@ -49,7 +49,7 @@ describe.each(["nuts", "ensemble"] as const)("samplePosterior with %s", (sampler
     expect(fit.diagnostics.rhatMax).toBeLessThan(fit.diagnostics.rhatThreshold);
     expect(fit.diagnostics.rhatThreshold).toBe(rhatThreshold(1.01, fit.run.sampler.chainCount));
     expect(fit.diagnostics.essMin).toBeGreaterThanOrEqual(400);
-    expect(fit.diagnostics.logProbEvaluations).toBeGreaterThan(fit.diagnostics.optimizerEvaluations);
+    expect(fit.diagnostics.likelihoodEvaluations).toBeGreaterThan(fit.diagnostics.optimizerEvaluations);
   });
 
   it("finds the conjugate posterior mode and quantiles of the mean (Gelman et al. eq. 2.11-2.12)", () => {
@@ -79,7 +79,7 @@ describe.each(["nuts", "ensemble"] as const)("samplePosterior with %s", (sampler
     const draws = posteriorDraws(space, fit.run, 10);
     const csv = posteriorDrawsToCsv(draws);
     const lines = csv.trim().split("\n");
-    expect(lines[0]).toBe("chain,iteration,mean,tau,errorScale,log_density");
+    expect(lines[0]).toBe("chain,iteration,mean,tau,errorScale,log_posterior");
     expect(lines.length - 1).toBe(draws.chain.length);
     expect(Number(lines[1]!.split(",")[2])).toBe(draws.columns.mean![0]);
   });

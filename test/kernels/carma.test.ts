@@ -80,10 +80,10 @@ describe("CARMA kernel", () => {
   it("agrees with the dense engine and with finite differences in the gradient", () => {
     const rng = createRng("carma");
     const t = seasonalTimes(rng, { seasons: 2, perSeason: 50 });
-    const yerr = randomErrors(rng, t.length, 0.01, 0.03);
-    const gp = new GaussianProcess(kernel, t, { yerr });
-    const y = gp.sample(rng).map((v, i) => v + yerr[i] * rng.normal());
-    const dense = new DenseGaussianProcess(kernel, t, { yerr });
+    const errors = randomErrors(rng, t.length, 0.01, 0.03);
+    const gp = new GaussianProcess(kernel, t, { errors });
+    const y = gp.priorDraw(rng).map((v, i) => v + errors[i] * rng.normal());
+    const dense = new DenseGaussianProcess(kernel, t, { errors });
     expect(Math.abs(gp.logLikelihood(y) - dense.logLikelihood(y))).toBeLessThan(1e-9 * Math.abs(dense.logLikelihood(y)));
     const g = gp.logLikelihoodGradient(y);
     const theta = kernel.parameterValues;
@@ -94,8 +94,8 @@ describe("CARMA kernel", () => {
       up[c] += h;
       down[c] -= h;
       const fd =
-        (new GaussianProcess(kernel.withParameters(up), t, { yerr }).logLikelihood(y) -
-          new GaussianProcess(kernel.withParameters(down), t, { yerr }).logLikelihood(y)) /
+        (new GaussianProcess(kernel.withParameters(up), t, { errors }).logLikelihood(y) -
+          new GaussianProcess(kernel.withParameters(down), t, { errors }).logLikelihood(y)) /
         (2 * h);
       expect(Math.abs(g.kernel[c] - fd)).toBeLessThan(1e-5 * Math.max(1, Math.abs(fd)));
     }

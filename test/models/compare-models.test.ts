@@ -9,7 +9,7 @@ import { createRng } from "../../src/random/rng.js";
 function simulate(kernel: Kernel, seed: string) {
   const rng = createRng(seed);
   const time = seasonalGroundCadence({ seasons: 2, revisitInterval: 2 }, rng);
-  const truth = new GaussianProcess(kernel, time, { mean: 17 }).sample(rng);
+  const truth = new GaussianProcess(kernel, time, { mean: 17 }).priorDraw(rng);
   return observeMagnitudes(time, truth, { depth5Sigma: 22 }, rng, seed);
 }
 

@@ -11,7 +11,7 @@ import { createRng } from "../../src/random/rng.js";
 function simulatedQuasar(seed: string, withErrors: boolean): LightCurve {
   const rng = createRng(seed);
   const time = seasonalGroundCadence({ seasons: 3, revisitInterval: 5 }, rng);
-  const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.25, tau: 300 }), time, { mean: 19.4 }).sample(rng);
+  const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.25, tau: 300 }), time, { mean: 19.4 }).priorDraw(rng);
   const error = new Float64Array(time.length).fill(0.03);
   return {
     time,
@@ -67,7 +67,7 @@ describe("model with the constant mean integrated out", () => {
     const theta = collapsed.space.physicalFromRecord(guess);
     const count = 20000;
     const columns = Object.fromEntries(collapsed.space.names.map((n, i) => [n, new Float64Array(count).fill(theta[i]!)]));
-    const draws = { names: collapsed.space.names, columns, chain: new Int32Array(count), iteration: Int32Array.from({ length: count }, (_, i) => i), logDensity: new Float64Array(count) };
+    const draws = { names: collapsed.space.names, columns, chain: new Int32Array(count), iteration: Int32Array.from({ length: count }, (_, i) => i), logPosterior: new Float64Array(count) };
     const restored = restoreMean(model, collapsed, draws, createRng(5));
     expect(restored.names).toEqual(model.space.names);
     const mu = restored.columns.mean!;

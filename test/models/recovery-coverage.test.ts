@@ -24,7 +24,7 @@ describe("damped-random-walk recovery on seasonal-gap cadences", () => {
       const sigma = 0.1 + 0.2 * rng.uniform();
       const mean = 18 + 2 * rng.uniform();
       const time = seasonalGroundCadence({ seasons: 3, revisitInterval: 6 }, rng);
-      const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma, tau }), time, { mean }).sample(rng);
+      const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma, tau }), time, { mean }).priorDraw(rng);
       const lightCurve = observeMagnitudes(time, truth, { depth5Sigma: 22.5 }, rng, `coverage ${k}`);
       const result = fitLightCurve(lightCurve, { model: "drw", seed: k });
       for (const [name, value] of [["tau", tau], ["sigma", sigma], ["mean", mean]] as const) {

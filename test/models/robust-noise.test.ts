@@ -13,7 +13,7 @@ describe("Student-t noise by expectation-maximisation (Lange, Little & Taylor 19
     const rng = createRng("robust");
     const time = seasonalGroundCadence({ seasons: 3, revisitInterval: 4 }, rng);
     const n = time.length;
-    const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 60 }), time, { mean: 19 }).sample(rng);
+    const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 60 }), time, { mean: 19 }).priorDraw(rng);
     const error = new Float64Array(n).fill(0.02);
     const value = Float64Array.from(truth, (v) => v + 0.02 * rng.normal());
     const outliers = [10, 40, 41, 77, Math.floor(n / 2), n - 5];

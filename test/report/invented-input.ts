@@ -220,9 +220,9 @@ export function inventedReportInput(options: InventedOptions = {}): ReportInput 
       converged: true,
       rhatMax: 1.006,
       essMin: 812,
-      autocorrTime: 23.4,
+      autocorrelationTime: 23.4,
       acceptance: 0.41,
-      logProbEvaluations: 96000,
+      likelihoodEvaluations: 96000,
       seconds: 4.2,
     },
     warnings: options.warnings ?? [

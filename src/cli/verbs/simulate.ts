@@ -87,7 +87,7 @@ export const verb: CliVerb = {
     }
     const mean = numberOption(values, "mean", 20)!;
     const depth5Sigma = numberOption(values, "depth", 24)!;
-    const truth = new GaussianProcess(kernel, time, { mean }).sample(rng);
+    const truth = new GaussianProcess(kernel, time, { mean }).priorDraw(rng);
     const lightCurve = observeMagnitudes(time, truth, { depth5Sigma }, rng, `simulated: ${expression}, seed ${seed}`);
     writeOutput(formatLightCurveCsv(lightCurve, { comments: [`horologium simulate --kernel "${expression}" --seed ${seed}`, "times in days; magnitudes with Ivezic et al. 2019 errors"] }), textOption(values, "out"), io);
     return 0;

@@ -2,13 +2,13 @@ import { Matrix, inverse } from "ml-matrix";
 import normalCdf from "@stdlib/stats/base/dists/normal/cdf";
 import normalPdf from "@stdlib/stats/base/dists/normal/pdf";
 import normalQuantile from "@stdlib/stats/base/dists/normal/quantile";
-import type { DifferentiableLogDensity } from "../../../src/inference/log-density.js";
+import type { DifferentiablePosteriorTarget } from "../../../src/inference/posterior-target.js";
 import { simpsonRule } from "./simpson-rule.js";
 
 /** A sampling target whose marginal quantiles and densities are known exactly. */
 export interface KnownTarget {
   readonly name: string;
-  readonly density: DifferentiableLogDensity;
+  readonly density: DifferentiablePosteriorTarget;
   /** Exact p-quantile of coordinate i. */
   quantile(i: number, p: number): number;
   /** Exact marginal density of coordinate i at x. */
@@ -37,7 +37,7 @@ export function correlatedGaussian(): KnownTarget {
   for (let i = 0; i < d; i++) for (let j = 0; j < d; j++) covariance.set(i, j, s[i]! * s[j]! * 0.7 ** Math.abs(i - j));
   const precision = inverse(covariance).to2DArray();
   const residual = new Float64Array(d);
-  const logDensityAndGradient = (x: Float64Array, g: Float64Array): number => {
+  const logPosteriorAndGradient = (x: Float64Array, g: Float64Array): number => {
     for (let i = 0; i < d; i++) residual[i] = x[i]! - mu[i]!;
     let q = 0;
     for (let i = 0; i < d; i++) {
@@ -51,7 +51,7 @@ export function correlatedGaussian(): KnownTarget {
   const scratch = new Float64Array(d);
   return {
     name: "correlated 5-D Gaussian",
-    density: { dimension: d, logDensity: (x) => logDensityAndGradient(x, scratch), logDensityAndGradient },
+    density: { dimension: d, logPosterior: (x) => logPosteriorAndGradient(x, scratch), logPosteriorAndGradient },
     quantile: (i, p) => normalQuantile(p, mu[i]!, s[i]!),
     marginalDensity: (i, x) => normalPdf(x, mu[i]!, s[i]!),
   };
@@ -66,7 +66,7 @@ export function correlatedGaussian(): KnownTarget {
 export function banana(b = 0.15): KnownTarget {
 
   const shift = (x1: number): number => b * (x1 * x1 - 9);
-  const logDensityAndGradient = (x: Float64Array, g: Float64Array): number => {
+  const logPosteriorAndGradient = (x: Float64Array, g: Float64Array): number => {
     const r = x[1]! - shift(x[0]!);
     g[0] = -x[0]! / 9 + r * 2 * b * x[0]!;
     g[1] = -r;
@@ -77,7 +77,7 @@ export function banana(b = 0.15): KnownTarget {
   const x2Pdf = (q: number): number => simpsonRule((x1) => normalPdf(x1, 0, 3) * normalPdf(q - shift(x1), 0, 1), -30, 30, 6000);
   return {
     name: "banana",
-    density: { dimension: 2, logDensity: (x) => logDensityAndGradient(x, scratch), logDensityAndGradient },
+    density: { dimension: 2, logPosterior: (x) => logPosteriorAndGradient(x, scratch), logPosteriorAndGradient },
     quantile: (i, p) => (i === 0 ? normalQuantile(p, 0, 3) : invertCdf(x2Cdf, p, -20, 60)),
     marginalDensity: (i, x) => (i === 0 ? normalPdf(x, 0, 3) : x2Pdf(x)),
   };
@@ -92,7 +92,7 @@ export function twoModeMixture(): KnownTarget {
   const means = [[-2, -1], [2, 1]];
   const sds = [[0.7, 0.8], [0.9, 0.6]];
   const logWeights = weights.map(Math.log);
-  const logDensityAndGradient = (x: Float64Array, g: Float64Array): number => {
+  const logPosteriorAndGradient = (x: Float64Array, g: Float64Array): number => {
     const terms = [0, 1].map((k) => {
       let t = logWeights[k]!;
       for (let i = 0; i < 2; i++) {
@@ -115,7 +115,7 @@ export function twoModeMixture(): KnownTarget {
     weights[0]! * normalCdf(q, means[0]![i]!, sds[0]![i]!) + weights[1]! * normalCdf(q, means[1]![i]!, sds[1]![i]!);
   return {
     name: "two-mode mixture",
-    density: { dimension: 2, logDensity: (x) => logDensityAndGradient(x, scratch), logDensityAndGradient },
+    density: { dimension: 2, logPosterior: (x) => logPosteriorAndGradient(x, scratch), logPosteriorAndGradient },
     quantile: (i, p) => invertCdf((q) => cdf(i, q), p, -20, 20),
     marginalDensity: (i, x) =>
       weights[0]! * normalPdf(x, means[0]![i]!, sds[0]![i]!) + weights[1]! * normalPdf(x, means[1]![i]!, sds[1]![i]!),

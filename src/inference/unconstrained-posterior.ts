@@ -1,4 +1,4 @@
-import type { LogDensity } from "./log-density.js";
+import type { PosteriorTarget } from "./posterior-target.js";
 import type { ParameterSpace } from "./parameter-space.js";
 
 /**
@@ -15,8 +15,8 @@ export interface PhysicalLikelihood {
   logLikelihoodAndGradient?(physical: Float64Array, gradientOut: Float64Array): number;
 }
 
-/** Options of {@link posteriorDensity}. */
-export interface PosteriorDensityOptions {
+/** Options of {@link unconstrainedPosterior}. */
+export interface UnconstrainedPosteriorOptions {
   /**
    * Include ln |dx/du| (default true). Sampling needs it so that the draws of x follow the posterior;
    * a maximum a posteriori in the physical parameters leaves it out.
@@ -30,17 +30,17 @@ export interface PosteriorDensityOptions {
  * with gradient d/du_i = (d ln L/dx_i + d ln prior_i/dx_i) dx_i/du_i + [d ln |dx_i/du_i| / du_i]
  * (the chain rule). NaN from the likelihood counts as -Infinity (an impossible point).
  */
-export function posteriorDensity(
+export function unconstrainedPosterior(
   space: ParameterSpace,
   likelihood: PhysicalLikelihood,
-  options: PosteriorDensityOptions = {},
-): LogDensity {
+  options: UnconstrainedPosteriorOptions = {},
+): PosteriorTarget {
   const jacobian = options.jacobian ?? true;
   const free = space.free;
   const physical = new Float64Array(space.names.length);
   const physicalGradient = new Float64Array(space.names.length);
 
-  const logDensity = (u: Float64Array): number => {
+  const logPosterior = (u: Float64Array): number => {
     space.toPhysical(u, physical);
     const prior = space.logPrior(physical);
     if (!(prior > -Infinity)) return -Infinity;
@@ -49,10 +49,10 @@ export function posteriorDensity(
     return logL + prior + (jacobian ? space.logJacobian(u) : 0);
   };
 
-  const target: LogDensity = { dimension: space.dimension, logDensity };
+  const target: PosteriorTarget = { dimension: space.dimension, logPosterior };
   const gradientFn = likelihood.logLikelihoodAndGradient;
   if (gradientFn !== undefined) {
-    target.logDensityAndGradient = (u: Float64Array, gradientOut: Float64Array): number => {
+    target.logPosteriorAndGradient = (u: Float64Array, gradientOut: Float64Array): number => {
       space.toPhysical(u, physical);
       const prior = space.logPrior(physical);
       if (!(prior > -Infinity)) {

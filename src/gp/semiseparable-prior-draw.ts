@@ -1,0 +1,24 @@
+import { formVariance, type SemiseparableForm } from "../linalg/semiseparable-form.js";
+import { SemiseparableFactorization } from "../linalg/semiseparable-factorization.js";
+import type { Rng } from "../random/rng.js";
+
+/**
+ * Diagonal added to the noise-free covariance before drawing, relative to k(0): keeps repeated times
+ * factorisable and is far below any photometric error (common practice).
+ */
+export const DRAW_JITTER = 1e-10;
+
+/**
+ * A draw of the latent process at sorted `time` from the prior: mean + L D^{1/2} xi with xi standard normal
+ * and L D L^T the factorisation of the kernel matrix (plus {@link DRAW_JITTER} k(0) on the diagonal).
+ * O(N R^2).
+ */
+export function semiseparablePriorDraw(form: SemiseparableForm, time: Float64Array, mean: number, rng: Rng): Float64Array {
+  const jitter = DRAW_JITTER * formVariance(form);
+  const factor = new SemiseparableFactorization(form, time, new Float64Array(time.length).fill(jitter));
+  const xi = new Float64Array(time.length);
+  for (let i = 0; i < xi.length; i++) xi[i] = rng.normal();
+  const draw = factor.correlate(xi);
+  for (let i = 0; i < draw.length; i++) draw[i] += mean;
+  return draw;
+}
