@@ -102,19 +102,11 @@ export class GaussianProcess {
    * jitter, by reverse mode through the recursion (O(N R^2)).
    */
   logLikelihoodGradient(values: ArrayLike<number>): GradientResult {
-    const result = semiseparableLogLikelihoodGradient(
-      this.form,
-      this.inputs.time,
-      this.inputs.noiseVariance,
-      residualOf(values, this.inputs),
+    const { time, noiseVariance, mean } = this.inputs;
+    const result = evaluateValues(values, this.inputs, () =>
+      semiseparableLogLikelihoodGradient(this.form, time, noiseVariance, values, { mean, pointwise: false }),
     );
-    let meanBar = 0;
-    let noiseBar = 0;
-    for (let i = 0; i < result.residual.length; i++) {
-      meanBar -= result.residual[i];
-      noiseBar += result.noiseVariance[i];
-    }
-    return { value: result.value, kernel: result.kernel, mean: meanBar, jitter: 2 * this.inputs.jitter * noiseBar };
+    return { value: result.value, kernel: result.kernel, mean: -result.residualSum, jitter: 2 * this.inputs.jitter * result.noiseVarianceSum };
   }
 
   /** K^{-1} b with K = kernel matrix + noise (factorised once, then O(N R) per solve). */

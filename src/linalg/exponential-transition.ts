@@ -35,6 +35,11 @@ export class ExponentialTransition implements TransitionBlock {
     for (let k = 0; k < this.rateDerivative.length; k++) out[offset + k] = -dt * value * this.rateDerivative[k];
   }
 
+  /** Adds rateBar d rate / d theta_k to kernelBar[k] for every kernel parameter the rate depends on. */
+  addRateGradient(rateBar: number, kernelBar: Float64Array): void {
+    for (let k = 0; k < this.rateDerivative.length; k++) kernelBar[this.parameterIndex[k]] += rateBar * this.rateDerivative[k];
+  }
+
   reindexed(map: (index: number) => number): TransitionBlock {
     return new ExponentialTransition(
       this.rate,

@@ -91,6 +91,21 @@ export class OscillatorTransition implements TransitionBlock {
     }
   }
 
+  /**
+   * Adds the gradient of a function of (c, w0), taken with c = w0 / (2Q) and w0 independent (`halfWidthBar`,
+   * `w0Bar`), to kernelBar for every kernel parameter the block depends on:
+   * dc = dw0 / (2Q) - w0 dQ / (2 Q^2).
+   */
+  addNativeGradient(halfWidthBar: number, w0Bar: number, kernelBar: Float64Array): void {
+    const q = this.quality;
+    const w0 = this.w0;
+    for (const dependence of this.dependencies) {
+      const [dW0, dQ] = dependence.derivatives;
+      const dC = dW0 / (2 * q) - (w0 * dQ) / (2 * q * q);
+      kernelBar[dependence.index] += halfWidthBar * dC + w0Bar * dW0;
+    }
+  }
+
   reindexed(map: (index: number) => number): TransitionBlock {
     return new OscillatorTransition(
       this.w0,

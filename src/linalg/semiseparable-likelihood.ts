@@ -1,4 +1,5 @@
 import { FactorizationError } from "./factorization-error.js";
+import { recordAfterProjection, recordBeforeTransition, type TapeRecorder } from "./gradient-general-loop.js";
 import { absorbPivot } from "./pivot-product.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import { absorbPoint, projectState } from "./state-update.js";
@@ -48,13 +49,17 @@ export function semiseparableLogLikelihood(
   return logLikelihood;
 }
 
-/** The recursion over typed arrays and `TransitionLayout`, for any blocks, chunk by chunk. */
-function generalLoop(
+/**
+ * The recursion over typed arrays and `TransitionLayout`, for any blocks, chunk by chunk (with a `recorder`,
+ * the gradient's forward pass).
+ */
+export function generalLoop(
   form: SemiseparableForm,
   time: ArrayLike<number>,
   noiseVariance: ArrayLike<number>,
   residual: ArrayLike<number>,
   mean: number,
+  recorder?: TapeRecorder,
 ): RecursionTotals {
   const n = time.length;
   const layout = new TransitionLayout(form);
@@ -64,13 +69,17 @@ function generalLoop(
   const u = new Float64Array(r);
   const scalars = initialScalars();
   for (let begin = 0; begin < n; begin += RECURSION_CHUNK) {
-    advance(layout, form.observation, form.projection, s, f, u, scalars, time, noiseVariance, residual, mean, begin, Math.min(n, begin + RECURSION_CHUNK));
+    advance(layout, form.observation, form.projection, s, f, u, scalars, time, noiseVariance, residual, mean, begin, Math.min(n, begin + RECURSION_CHUNK), recorder);
   }
   return recursionTotals(scalars);
 }
 
-/** Points begin .. end - 1 of the recursion; s, f, u and the scalars carry the state between calls. */
-function advance(
+/**
+ * Points begin .. end - 1 of the recursion; s, f, u and the scalars carry the state between calls. With a
+ * `recorder`, the step also writes the gradient's tape (the gradient's forward pass, semiseparable-gradient.ts):
+ * one forward step for the likelihood and the gradient.
+ */
+export function advance(
   layout: TransitionLayout,
   p: Float64Array,
   q: Float64Array,
@@ -84,6 +93,7 @@ function advance(
   mean: number,
   begin: number,
   end: number,
+  recorder?: TapeRecorder,
 ): void {
   const r = layout.dimension;
   let variance = 0;
@@ -96,7 +106,8 @@ function advance(
     if (k > 0) {
       // S <- Phi (S + u u^T / D) Phi^T ; f <- Phi (f + u z / D)
       absorbPoint(s, f, u, 0, previousInverse, previousZ, r);
-      layout.computeTransitions(time[k] - time[k - 1]);
+      if (recorder) recordBeforeTransition(recorder, layout, k, s, f, time[k] - time[k - 1]);
+      else layout.computeTransitions(time[k] - time[k - 1]);
       layout.applyCongruence(s, 0);
       layout.applyToVector(f, 0);
     }
@@ -110,6 +121,7 @@ function advance(
     previousZ = z;
     quadratic += z * z * previousInverse;
     absorbPivot(pivot, scalars, SLOT.product, SLOT.exponent);
+    if (recorder) recordAfterProjection(recorder, k, s, f, u, previousInverse, z);
   }
   scalars[SLOT.previousInverse] = previousInverse;
   scalars[SLOT.previousZ] = previousZ;

@@ -1,9 +1,9 @@
-import { cosineAndSineSource, decayFactorSource, EXPONENTIAL_TABLE_NAMES, EXPONENTIAL_TABLES } from "./elementary-functions.js";
+import { EXPONENTIAL_TABLE_NAMES, EXPONENTIAL_TABLES } from "./elementary-functions.js";
 import { ExponentialTransition } from "./exponential-transition.js";
 import { FactorizationError } from "./factorization-error.js";
-import { constantPool } from "./generated-constants.js";
-import { hyperbolicSeriesSource, OscillatorTransition } from "./oscillator-transition.js";
-import { absorbPivotSource, logDeterminantOf } from "./pivot-product.js";
+import { OscillatorTransition } from "./oscillator-transition.js";
+import { logDeterminantOf } from "./pivot-product.js";
+import { COLUMN_SCALAR_NAMES, recursionSource, SCALAR_NAMES, SCALAR_SLOTS, type BlockKind } from "./recursion-source.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import type { TransitionBlock } from "./transition-block.js";
 
@@ -32,6 +32,7 @@ export type UnrolledAdvance = (
   mean: number,
   begin: number,
   end: number,
+  tape?: Float64Array,
 ) => void;
 
 /** Largest state dimension written out (the code grows as R^2). */
@@ -48,18 +49,7 @@ export const RECURSION_CHUNK = 2048;
  * Slots of the running scalars carried from chunk to chunk, for the written-out code and the general loop
  * of semiseparable-likelihood.ts alike (the last three only with a constant column).
  */
-export const SLOT = {
-  previousInverse: 0,
-  previousZ: 1,
-  quadratic: 2,
-  exponent: 3,
-  product: 4,
-  previousW: 5,
-  columnQuadratic: 6,
-  crossQuadratic: 7,
-} as const;
-const SCALAR_NAMES = ["previousInverse", "previousZ", "quadratic", "exponent", "product"] as const;
-const COLUMN_SCALAR_NAMES = ["previousW", "columnQuadratic", "crossQuadratic"] as const;
+export const SLOT = SCALAR_SLOTS;
 
 /** Length of the `state` array of a recursion of dimension `r`: S (r x r), f, u and, with a constant column, g. */
 function stateLength(r: number, constantColumn: boolean): number {
@@ -103,33 +93,31 @@ export function runUnrolled(
   values: ArrayLike<number>,
   mean: number,
   constantColumn = false,
+  tape?: Float64Array,
 ): RecursionTotals {
   const n = time.length;
   const r = form.observation.length;
   const state = new Float64Array(stateLength(r, constantColumn));
   const scalars = initialScalars();
   for (let begin = 0; begin < n; begin += RECURSION_CHUNK) {
-    advance(form.blocks, form.observation, form.projection, state, scalars, time, noiseVariance, values, mean, begin, Math.min(n, begin + RECURSION_CHUNK));
+    advance(form.blocks, form.observation, form.projection, state, scalars, time, noiseVariance, values, mean, begin, Math.min(n, begin + RECURSION_CHUNK), tape);
   }
   return recursionTotals(scalars);
 }
 
-/**
- * How a block enters the written-out code: exponential and oscillator blocks have their transitions
- * inlined (the same formulas as their `transition` methods); any other block of size 1 or 2 is called
- * through `transition`.
- */
-type BlockKind = "exponential" | "oscillator" | "generic1" | "generic2";
+/** The written-out kind of every block, or undefined when a block has none (larger than 2 x 2). */
+export function blockKindsOf(blocks: readonly TransitionBlock[]): BlockKind[] | undefined {
+  const kinds = blocks.map(blockKind);
+  return kinds.every((kind) => kind !== undefined) ? (kinds as BlockKind[]) : undefined;
+}
 
 function blockKind(block: TransitionBlock): BlockKind | undefined {
   if (block instanceof ExponentialTransition) return "exponential";
   if (block instanceof OscillatorTransition) return "oscillator";
-  if (block.size === 1) return "generic1";
-  if (block.size === 2) return "generic2";
+  if (block.size === 1) return "called1";
+  if (block.size === 2) return "called2";
   return undefined;
 }
-
-const SIZE: Record<BlockKind, number> = { exponential: 1, oscillator: 2, generic1: 1, generic2: 2 };
 
 /**
  * A compiled recursion for these blocks, or undefined when the layout is not supported (a block larger
@@ -143,18 +131,19 @@ const SIZE: Record<BlockKind, number> = { exponential: 1, oscillator: 2, generic
  */
 export function unrolledRecursion(
   blocks: readonly TransitionBlock[],
-  options: { readonly constantColumn?: boolean } = {},
+  options: { readonly constantColumn?: boolean; readonly record?: boolean } = {},
 ): UnrolledAdvance | undefined {
-  const kinds = blocks.map(blockKind);
-  if (kinds.some((k) => k === undefined)) return undefined;
+  const kinds = blockKindsOf(blocks);
+  if (!kinds) return undefined;
   const withColumn = options.constantColumn === true;
-  const key = kinds.join(",") + (withColumn ? "+ones" : "");
+  const record = options.record === true;
+  const key = kinds.join(",") + (withColumn ? "+ones" : "") + (record ? "+tape" : "");
   if (compiled.has(key)) return compiled.get(key);
   let advance: UnrolledAdvance | undefined;
   const dimension = blocks.reduce((r, b) => r + b.size, 0);
   if (dimension <= MAX_UNROLLED_DIMENSION) {
     try {
-      const { body, constants } = recursionSource(kinds as BlockKind[], withColumn);
+      const { body, constants } = recursionSource(kinds, withColumn, record);
       // The tables arrive as one object and are unpacked into the closure's locals (no spread call).
       const factory = new Function(
         "FactorizationError",
@@ -163,7 +152,7 @@ export function unrolledRecursion(
         `const { ${EXPONENTIAL_TABLE_NAMES.join(", ")} } = tables;\nreturn function advance(${PARAMETERS}) {\n${body}\n};`,
       );
       advance = factory(FactorizationError, constants, EXPONENTIAL_TABLES) as UnrolledAdvance;
-      primeFeedback(advance, blocks, dimension, withColumn);
+      primeFeedback(advance, blocks, dimension, withColumn, record);
     } catch {
       advance = undefined; // no run-time compilation on this host
     }
@@ -186,175 +175,16 @@ const PRIMING_CALLS = 32;
  * point and twice the time (measured with --trace-opt/--trace-gc on the engine benchmark's light curves:
  * 1 scavenge against about 1100 per 2e7 points, 43 against 92 ns per point for R = 1).
  */
-function primeFeedback(advance: UnrolledAdvance, blocks: readonly TransitionBlock[], r: number, withColumn: boolean): void {
+function primeFeedback(advance: UnrolledAdvance, blocks: readonly TransitionBlock[], r: number, withColumn: boolean, record: boolean): void {
   const ones = new Float64Array(r).fill(1);
   const state = new Float64Array(stateLength(r, withColumn));
   const scalars = initialScalars();
   const none = new Float64Array(0);
-  for (let call = 0; call < PRIMING_CALLS; call++) advance(blocks, ones, ones, state, scalars, none, none, none, 0.5, 0, 0);
+  const tape = record ? none : undefined;
+  for (let call = 0; call < PRIMING_CALLS; call++) advance(blocks, ones, ones, state, scalars, none, none, none, 0.5, 0, 0, tape);
 }
 
 /** Compiled recursions by layout (a cache of pure functions of the layout: same input, same code). */
 const compiled = new Map<string, UnrolledAdvance | undefined>();
 
-const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, end";
-
-/**
- * The body of the generated function (see {@link unrolledRecursion}) and the values of the numeric constants
- * it reads from its `constants` array (generated-constants.ts).
- */
-export function recursionSource(kinds: readonly BlockKind[], withColumn = false): { body: string; constants: Float64Array } {
-  const pool = constantPool("K");
-  const constant = pool.write;
-  const blockSizes = kinds.map((kind) => SIZE[kind]);
-  const starts: number[] = [];
-  let r = 0;
-  for (const m of blockSizes) {
-    starts.push(r);
-    r += m;
-  }
-  const range = (n: number): number[] => Array.from({ length: n }, (_, i) => i);
-  const s = (i: number, j: number): string => `s${i}_${j}`;
-  const lines: string[] = [];
-  const emit = (line: string): void => {
-    lines.push(line);
-  };
-
-  // Constants and state.
-  emit(`"use strict";`);
-  // Numbers that arrive as JavaScript values (object fields, arguments) are multiplied by 1 here, once: that
-  // makes them doubles in registers, where a use inside the loop would check and unbox them at every point.
-  kinds.forEach((kind, b) => {
-    emit(`const block${b} = blocks[${b}];`);
-    if (kind === "exponential") emit(`const rate${b} = block${b}.rate * 1;`);
-    if (kind === "oscillator") {
-      emit(`const c${b} = block${b}.halfWidth * 1; const lambda${b} = block${b}.lambda * 1; const w${b} = block${b}.w0 * 1;`);
-      // dampedHyperbolicValues' per-block constants: the frequency (lambda < 0) or the two real rates (lambda > 0).
-      emit(`const omega${b} = lambda${b} < 0 ? Math.sqrt(-lambda${b}) : 0; const root${b} = lambda${b} > 0 ? Math.sqrt(lambda${b}) : 0;`);
-      emit(`const fastRate${b} = c${b} + root${b}; const slowRate${b} = (w${b} * w${b}) / fastRate${b};`);
-    }
-  });
-  emit(`const meanValue = mean * 1; const first = begin | 0; const last = end | 0;`);
-  // A guard for callers: the arrays must cover the range.
-  emit(`if (time.length < last || noiseVariance.length < last || residual.length < last) throw new RangeError("advance: arrays shorter than the range");`);
-  // Scratch for the transitions that are called rather than written out.
-  if (kinds.some((kind) => kind === "generic1" || kind === "generic2")) emit(`const phi = new Float64Array(${blockSizes.reduce((a, m) => a + m * m, 0)});`);
-  for (const i of range(r)) emit(`const p${i} = p[${i}]; const q${i} = q[${i}];`);
-  emit(`let variance = 0; ${range(r).map((i) => `variance += p${i} * q${i};`).join(" ")}`);
-  for (const i of range(r)) for (const j of range(r)) emit(`let ${s(i, j)} = state[${i * r + j}];`);
-  for (const i of range(r)) emit(`let f${i} = state[${r * r + i}]; let u${i} = state[${r * r + r + i}];`);
-  SCALAR_NAMES.forEach((name) => emit(`let ${name} = scalars[${SLOT[name]}];`));
-  if (withColumn) {
-    for (const i of range(r)) emit(`let g${i} = state[${r * r + 2 * r + i}];`);
-    COLUMN_SCALAR_NAMES.forEach((name) => emit(`let ${name} = scalars[${SLOT[name]}];`));
-  }
-
-  emit(`let failedAt = -1; let failedPivot = 0;`);
-  // The pooled constants are declared here, before the loop, once the loop has been written.
-  const constantsAt = lines.length;
-  // The previous time is carried in a local: one array load per point instead of two.
-  emit(`let previousTime = first > 0 ? time[first - 1] : 0;`);
-  emit(`for (let k = first; k < last; k++) {`);
-  emit(`const tk = time[k];`);
-  emit(`if (k > 0) {`);
-  // S <- S + u u^T / D ; f <- f + u z / D (row by row, as the general loop)
-  for (const i of range(r)) {
-    emit(`{ const ui = u${i} * previousInverse;`);
-    for (const j of range(r)) emit(`${s(i, j)} += ui * u${j};`);
-    emit(`f${i} += ui * previousZ;${withColumn ? ` g${i} += ui * previousW;` : ""} }`);
-  }
-  emit(`const dt = tk - previousTime;`);
-  let phiOffset = 0;
-  const phiNames: string[][] = [];
-  kinds.forEach((kind, b) => {
-    const m = blockSizes[b]!;
-    const names = range(m * m).map((e) => `a${b}_${e}`);
-    if (kind === "exponential") {
-      // ExponentialTransition.transition, with decayFactor written out (no call: see decayFactorSource).
-      emit(`let ${names[0]}; ${decayFactorSource(names[0]!, `-rate${b} * dt`, constant)}`);
-    } else if (kind === "oscillator") {
-      // OscillatorTransition.transition: dampedHyperbolicValues written out, all three branches (a call left
-      // for any of them made V8 box its double arguments at every step).
-      emit(`let ec${b}; let es${b}; const x${b} = lambda${b} * dt * dt;`);
-      const series = hyperbolicSeriesSource(`x${b}`, constant);
-      emit(`if (x${b} > -1 && x${b} < 1) { let e; ${decayFactorSource("e", `-c${b} * dt`, constant)}`);
-      emit(`ec${b} = e * ${series.cosh}; es${b} = e * (dt * ${series.sinh}); }`);
-      emit(`else if (lambda${b} < 0) { let e; ${decayFactorSource("e", `-c${b} * dt`, constant)}`);
-      emit(`let co; let si; ${cosineAndSineSource("co", "si", `omega${b} * dt`, constant)}`);
-      emit(`ec${b} = e * co; es${b} = e * (si / omega${b}); }`);
-      emit(`else { let slow; ${decayFactorSource("slow", `-slowRate${b} * dt`, constant)}`);
-      emit(`let fast; ${decayFactorSource("fast", `-fastRate${b} * dt`, constant)}`);
-      emit(`ec${b} = 0.5 * (slow + fast); es${b} = (slow - fast) / (2 * root${b}); }`);
-      emit(`const ${names[0]} = ec${b} + es${b} * c${b}; const ${names[1]} = es${b} * w${b};`);
-      emit(`const ${names[2]} = -es${b} * w${b}; const ${names[3]} = ec${b} - es${b} * c${b};`);
-    } else {
-      emit(`block${b}.transition(dt, phi, ${phiOffset});`);
-      names.forEach((name, e) => emit(`const ${name} = phi[${phiOffset + e}];`));
-    }
-    phiNames.push(names);
-    phiOffset += m * m;
-  });
-  // S <- Phi S Phi^T block pair by block pair (TransitionLayout.smallBlockCongruence, not transposed).
-  blockSizes.forEach((ma, a) => {
-    const ia = starts[a]!;
-    const A = phiNames[a]!;
-    blockSizes.forEach((mb, b) => {
-      const jb = starts[b]!;
-      const B = phiNames[b]!;
-      if (ma === 1 && mb === 1) {
-        emit(`${s(ia, jb)} = ${B[0]} * (${A[0]} * ${s(ia, jb)});`);
-      } else if (ma === 1) {
-        emit(`{ const y0 = ${A[0]} * ${s(ia, jb)}; const y1 = ${A[0]} * ${s(ia, jb + 1)};`);
-        emit(`${s(ia, jb)} = ${B[0]} * y0 + ${B[1]} * y1; ${s(ia, jb + 1)} = ${B[2]} * y0 + ${B[3]} * y1; }`);
-      } else if (mb === 1) {
-        emit(`{ const x0 = ${s(ia, jb)}; const x1 = ${s(ia + 1, jb)};`);
-        emit(`${s(ia, jb)} = ${B[0]} * (${A[0]} * x0 + ${A[1]} * x1); ${s(ia + 1, jb)} = ${B[0]} * (${A[2]} * x0 + ${A[3]} * x1); }`);
-      } else {
-        emit(`{ const x00 = ${s(ia, jb)}; const x01 = ${s(ia, jb + 1)}; const x10 = ${s(ia + 1, jb)}; const x11 = ${s(ia + 1, jb + 1)};`);
-        emit(`const y00 = ${A[0]} * x00 + ${A[1]} * x10; const y01 = ${A[0]} * x01 + ${A[1]} * x11;`);
-        emit(`const y10 = ${A[2]} * x00 + ${A[3]} * x10; const y11 = ${A[2]} * x01 + ${A[3]} * x11;`);
-        emit(`${s(ia, jb)} = ${B[0]} * y00 + ${B[1]} * y01; ${s(ia, jb + 1)} = ${B[2]} * y00 + ${B[3]} * y01;`);
-        emit(`${s(ia + 1, jb)} = ${B[0]} * y10 + ${B[1]} * y11; ${s(ia + 1, jb + 1)} = ${B[2]} * y10 + ${B[3]} * y11; }`);
-      }
-    });
-  });
-  // f <- Phi f (TransitionLayout.applyToVector).
-  blockSizes.forEach((m, b) => {
-    const i = starts[b]!;
-    const A = phiNames[b]!;
-    for (const v of withColumn ? ["f", "g"] : ["f"]) {
-      if (m === 1) emit(`${v}${i} *= ${A[0]};`);
-      else emit(`{ const x0 = ${v}${i}; const x1 = ${v}${i + 1}; ${v}${i} = ${A[0]} * x0 + ${A[1]} * x1; ${v}${i + 1} = ${A[2]} * x0 + ${A[3]} * x1; }`);
-    }
-  });
-  emit(`}`);
-  // u = q - S p, D = d + variance - p^T S p, z = r - p^T f.
-  // Sums start from their first term (projectState): no 0 + on the critical path.
-  for (const i of range(r)) {
-    emit(`const sp${i} = ${range(r).map((j) => `${s(i, j)} * p${j}`).join(" + ")}; u${i} = q${i} - sp${i};`);
-  }
-  emit(`const pSp = ${range(r).map((i) => `p${i} * sp${i}`).join(" + ")};`);
-  emit(`const pf = ${range(r).map((i) => `p${i} * f${i}`).join(" + ")};`);
-  if (withColumn) emit(`const pg = ${range(r).map((i) => `p${i} * g${i}`).join(" + ")};`);
-  emit(`const pivot = noiseVariance[k] + variance - pSp;`);
-  emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
-  emit(`const z = (residual[k] - meanValue) - pf;`);
-  emit(`previousInverse = 1 / pivot; previousZ = z; quadratic += z * z * previousInverse;`);
-  if (withColumn) {
-    emit(`const w = 1 - pg; columnQuadratic += w * w * previousInverse; crossQuadratic += z * w * previousInverse; previousW = w;`);
-  }
-  emit(absorbPivotSource("pivot", constant));
-  emit(`previousTime = tk;`);
-  emit(`}`);
-
-  for (const i of range(r)) for (const j of range(r)) emit(`state[${i * r + j}] = ${s(i, j)};`);
-  for (const i of range(r)) emit(`state[${r * r + i}] = f${i}; state[${r * r + r + i}] = u${i};`);
-  SCALAR_NAMES.forEach((name) => emit(`scalars[${SLOT[name]}] = ${name};`));
-  if (withColumn) {
-    for (const i of range(r)) emit(`state[${r * r + 2 * r + i}] = g${i};`);
-    COLUMN_SCALAR_NAMES.forEach((name) => emit(`scalars[${SLOT[name]}] = ${name};`));
-  }
-  emit(`if (failedAt >= 0) throw new FactorizationError(failedAt, failedPivot);`);
-  lines.splice(constantsAt, 0, pool.declarations("constants"));
-  return { body: lines.join("\n"), constants: Float64Array.from(pool.values) };
-}
+const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, end, tape";
