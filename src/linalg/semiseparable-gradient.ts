@@ -15,10 +15,10 @@ export interface LikelihoodGradient {
   readonly value: number;
   /** d log L / d theta_k for each kernel parameter of the form. */
   readonly kernel: Float64Array;
-  /** d log L / d noiseVariance_n for each point (chain to errors or jitter); absent with `pointwise: false`. */
-  readonly noiseVariance?: Float64Array;
-  /** d log L / d residual_n for each point (the mean's gradient is minus their sum); absent with `pointwise: false`. */
-  readonly residual?: Float64Array;
+  /** d log L / d noiseVariance_n for each point (chain to errors or jitter); empty with `pointwise: false`. */
+  readonly noiseVariance: Float64Array;
+  /** d log L / d residual_n for each point (the mean's gradient is minus their sum); empty with `pointwise: false`. */
+  readonly residual: Float64Array;
   /** sum_n d log L / d noiseVariance_n (a jitter's gradient is 2 jitter times this). */
   readonly noiseVarianceSum: number;
   /** sum_n d log L / d residual_n (a constant mean's gradient is minus this). */
@@ -77,8 +77,8 @@ export function semiseparableLogLikelihoodGradient(
   return {
     value,
     kernel: kernelBar,
-    noiseVariance: noiseBar,
-    residual: residualBar,
+    noiseVariance: noiseBar ?? new Float64Array(0),
+    residual: residualBar ?? new Float64Array(0),
     noiseVarianceSum: adjoint[layout.noiseBarSum],
     residualSum: adjoint[layout.residualBarSum],
   };

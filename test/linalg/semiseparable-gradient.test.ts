@@ -65,8 +65,8 @@ describe("log-likelihood gradient", () => {
       expect(Number.isFinite(written.value)).toBe(true);
       expect(written.value).toBe(general.value);
       expect(Array.from(written.kernel)).toEqual(Array.from(general.kernel));
-      expect(Array.from(written.residual!)).toEqual(Array.from(general.residual!));
-      expect(Array.from(written.noiseVariance!)).toEqual(Array.from(general.noiseVariance!));
+      expect(Array.from(written.residual)).toEqual(Array.from(general.residual));
+      expect(Array.from(written.noiseVariance)).toEqual(Array.from(general.noiseVariance));
       expect(written.residualSum).toBe(general.residualSum);
       expect(written.noiseVarianceSum).toBe(general.noiseVarianceSum);
       // The value is the likelihood's, to the last bit.
@@ -125,11 +125,11 @@ describe("log-likelihood gradient", () => {
     const form = kernels.quasiPeriodic({ sigma: 0.1, period: 7.3, quality: 5, harmonicWeight: 0.35 }).semiseparableForm()!;
     const full = semiseparableLogLikelihoodGradient(form, time, noise, values, { mean: MEAN });
     const sums = semiseparableLogLikelihoodGradient(form, time, noise, values, { mean: MEAN, pointwise: false });
-    expect(sums.residual).toBeUndefined();
-    expect(sums.noiseVariance).toBeUndefined();
+    expect(sums.residual.length).toBe(0);
+    expect(sums.noiseVariance.length).toBe(0);
     expect(Array.from(sums.kernel)).toEqual(Array.from(full.kernel));
     expect(sums.residualSum).toBe(full.residualSum);
-    expect(full.residual!.reduce((a, b) => a + b, 0)).toBeCloseTo(full.residualSum, 10);
+    expect(full.residual.reduce((a, b) => a + b, 0)).toBeCloseTo(full.residualSum, 10);
   });
 
   it("throws a FactorizationError naming the point where the pivot is not positive", () => {
