@@ -26,8 +26,8 @@ export interface EngineData {
 
 const drw = { sigma: 0.2, tau: 45 };
 const oscillator = { sigma: 0.1, period: 20, quality: 4 };
-const rotation = { sigma: 0.05, period: 7.3, quality: 6, harmonicWeight: 0.3 };
-const slowRotation = { sigma: 0.03, period: 31, quality: 3, harmonicWeight: 0.2 };
+const rotation = { sigma: 0.05, period: 7.3, decayTime: 14, harmonicWeight: 0.3 };
+const slowRotation = { sigma: 0.03, period: 31, decayTime: 30, harmonicWeight: 0.2 };
 
 /** Numbers are written with String(), the shortest round-trip form, so C's strtod reads the same double. */
 const term = (kind: string, values: readonly number[]): string => [kind, ...values.map(String)].join(":");
@@ -56,15 +56,15 @@ export function engineCases(): EngineCase[] {
       components: 4,
       label: "quasi-periodic",
       kernel: kernels.quasiPeriodic(rotation),
-      nativeTerms: [term("qp", [rotation.sigma, rotation.period, rotation.quality, rotation.harmonicWeight])],
+      nativeTerms: [term("qp", [rotation.sigma, rotation.period, rotation.decayTime, rotation.harmonicWeight])],
     },
     {
       components: 8,
       label: "quasi-periodic + quasi-periodic",
       kernel: kernels.quasiPeriodic(rotation).plus(kernels.quasiPeriodic(slowRotation)),
       nativeTerms: [
-        term("qp", [rotation.sigma, rotation.period, rotation.quality, rotation.harmonicWeight]),
-        term("qp", [slowRotation.sigma, slowRotation.period, slowRotation.quality, slowRotation.harmonicWeight]),
+        term("qp", [rotation.sigma, rotation.period, rotation.decayTime, rotation.harmonicWeight]),
+        term("qp", [slowRotation.sigma, slowRotation.period, slowRotation.decayTime, slowRotation.harmonicWeight]),
       ],
     },
   ];

@@ -96,29 +96,29 @@ export function dampedRandomWalkFit(n = 250, seed = 2024): SimulatedFit {
   };
 }
 
-/** Quasi-periodic parameters: period (days), quality, harmonicWeight, sigma (relative flux), mean. */
+/** Quasi-periodic parameters: period (days), decayTime (days), harmonicWeight, sigma (relative flux), mean. */
 export function quasiPeriodicSpace(): ParameterSpace {
   return createParameterSpace([
     { name: "period", prior: logUniformPrior(0.5, 40) },
-    { name: "quality", prior: logUniformPrior(0.55, 200) },
+    { name: "decayTime", prior: logUniformPrior(0.5, 400) },
     { name: "harmonicWeight", prior: uniformPrior(0, 1) },
     { name: "sigma", prior: logUniformPrior(1e-4, 0.5) },
     { name: "mean", prior: normalPrior(1, 0.1) },
   ]);
 }
 
-/** ln L of the quasi-periodic model, x = (period, quality, harmonicWeight, sigma, mean). */
+/** ln L of the quasi-periodic model, x = (period, decayTime, harmonicWeight, sigma, mean). */
 export function quasiPeriodicLikelihood(time: Float64Array, value: Float64Array, error: Float64Array): PhysicalLikelihood {
   const process = (x: Float64Array): GaussianProcess =>
     new GaussianProcess(
-      kernels.quasiPeriodic({ sigma: x[3]!, period: x[0]!, quality: x[1]!, harmonicWeight: x[2]! }),
+      kernels.quasiPeriodic({ sigma: x[3]!, period: x[0]!, decayTime: x[1]!, harmonicWeight: x[2]! }),
       time,
       { errors: error, mean: x[4]! },
     );
   return {
     logLikelihood: (x) => process(x).logLikelihood(value),
     logLikelihoodAndGradient: (x, g) => {
-      // Engine order: sigma, period, quality, harmonicWeight.
+      // Engine order: sigma, period, decayTime, harmonicWeight.
       const r = process(x).logLikelihoodGradient(value);
       g[0] = r.kernel[1]!;
       g[1] = r.kernel[2]!;
@@ -138,10 +138,10 @@ export function quasiPeriodicFit(n = 1000, seed = 2025): SimulatedFit {
   const rng = createRng(seed);
   const all = continuousSpaceCadence({ start: 0, duration: (n * 1.1) / 24, interval: 1 / 24 }, rng);
   const time = all.slice(0, n);
-  const truth = { period: 6.3, quality: 12, harmonicWeight: 0.3, sigma: 0.01, mean: 1 };
+  const truth = { period: 6.3, decayTime: 24, harmonicWeight: 0.3, sigma: 0.01, mean: 1 };
   const error = Float64Array.from(time, () => 0.002);
   const latent = new GaussianProcess(
-    kernels.quasiPeriodic({ sigma: truth.sigma, period: truth.period, quality: truth.quality, harmonicWeight: truth.harmonicWeight }),
+    kernels.quasiPeriodic({ sigma: truth.sigma, period: truth.period, decayTime: truth.decayTime, harmonicWeight: truth.harmonicWeight }),
     time,
     { mean: truth.mean },
   ).priorDraw(rng);
@@ -154,6 +154,6 @@ export function quasiPeriodicFit(n = 1000, seed = 2025): SimulatedFit {
     value,
     error,
     truth,
-    initial: { period: 6, quality: 5, harmonicWeight: 0.5, sigma: 0.01, mean: 1 },
+    initial: { period: 6, decayTime: 10, harmonicWeight: 0.5, sigma: 0.01, mean: 1 },
   };
 }

@@ -28,7 +28,7 @@ writeFileSync(
 
 const starRng = createRng("lanternfield-star");
 const starTimes = seasonalGroundCadence({ start: 59200, seasons: 3, revisitInterval: 1 }, starRng);
-const starKernel = kernels.quasiPeriodic({ sigma: 0.03, period: 7.43, quality: 12, harmonicWeight: 0.35 });
+const starKernel = kernels.quasiPeriodic({ sigma: 0.03, period: 7.43, decayTime: 28, harmonicWeight: 0.35 });
 const starTruth = new GaussianProcess(starKernel, starTimes, { mean: 15.2 }).priorDraw(starRng);
 const star = observeMagnitudes(starTimes, starTruth, { depth5Sigma: 22.5 }, starRng, "LDS V-2291");
 writeFileSync(
@@ -36,7 +36,7 @@ writeFileSync(
   formatLightCurveCsv(star, {
     comments: [
       "Lanternfield Deep Survey (an invented survey): spotted star LDS V-2291 (invented), r band",
-      "simulated: quasi-periodic rotation, period 7.43 d, quality 12, harmonic weight 0.35, sigma 0.03 mag",
+      "simulated: quasi-periodic rotation, period 7.43 d, decay time 28 d, harmonic weight 0.35, sigma 0.03 mag",
     ],
   }),
 );

@@ -34,7 +34,7 @@
  * TERM (a sum of terms is the sum of the kernels):
  *   drw:SIGMA:TAU                    sigma^2 exp(-|t| / tau)                        R = 1
  *   osc:SIGMA:PERIOD:QUALITY         stochastically driven damped oscillator        R = 2
- *   qp:SIGMA:PERIOD:QUALITY:WEIGHT   quasi-periodic (two oscillators, Q > 1/2)      R = 4
+ *   qp:SIGMA:PERIOD:DECAY:WEIGHT     quasi-periodic (damped oscillations at P, P/2)  R = 4
  *
  * DATAFILE (little-endian): 8 bytes magic "HORODAT1", uint64 n, float64 mean, then n float64 times,
  * n float64 errors (1 sigma), n float64 values.
@@ -135,16 +135,18 @@ static void build_form(form_t *form, const term_t *terms, int count) {
       require_positive("quality", quality);
       add_oscillator(form, TWO_PI / period, quality, sigma * sigma);
     } else if (strcmp(term->kind, "qp") == 0) {
-      double sigma = term->value[0], period = term->value[1], quality = term->value[2], weight = term->value[3];
+      double sigma = term->value[0], period = term->value[1], decay = term->value[2], weight = term->value[3];
       require_positive("sigma", sigma);
       require_positive("period", period);
-      if (!(quality > 0.5)) die("quality must exceed 1/2", "quality");
+      require_positive("decayTime", decay);
       if (!(weight >= 0 && weight <= 1)) die("harmonicWeight must be in [0, 1]", "harmonicWeight");
-      double eta = sqrt(1 - 1 / (4 * quality * quality));
-      double w = TWO_PI / (period * eta);
+      /* Each term exp(-t / decay) [cos(w t) + sin(w t) / (w decay)] is an oscillator with
+         w0 = sqrt(w^2 + 1 / decay^2) and Q = w0 decay / 2 (src/kernels/quasi-periodic.ts). */
+      double w = TWO_PI / period, rate = 1 / decay;
+      double w0 = sqrt(w * w + rate * rate), w0h = sqrt(4 * w * w + rate * rate);
       double variance = sigma * sigma;
-      add_oscillator(form, w, quality, variance * (1 - weight));
-      add_oscillator(form, 2 * w, quality, variance * weight);
+      add_oscillator(form, w0, w0 * decay / 2, variance * (1 - weight));
+      add_oscillator(form, w0h, w0h * decay / 2, variance * weight);
     } else {
       die("unknown kernel term", term->kind);
     }

@@ -22,7 +22,7 @@ export const DIAGNOSTIC_KEYS = [
 const MODEL_PARAMETERS: Readonly<Record<string, readonly string[]>> = {
   drw: ["tau", "sigma", "mean"],
   oscillator: ["period", "quality", "sigma", "mean"],
-  "quasi-periodic": ["period", "quality", "harmonicWeight", "sigma", "mean"],
+  "quasi-periodic": ["period", "decayTime", "harmonicWeight", "sigma", "mean"],
 };
 
 /**

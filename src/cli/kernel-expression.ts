@@ -5,13 +5,13 @@ import { UsageError } from "../errors/usage-error.js";
 export const EXPRESSION_FAMILIES: Readonly<Record<string, string>> = {
   drw: "sigma, tau",
   oscillator: "sigma, period, quality",
-  "quasi-periodic": "sigma, period, quality, harmonicWeight",
+  "quasi-periodic": "sigma, period, decayTime, harmonicWeight",
   matern32: "sigma, scale",
   carma: "sigma, period<k>, quality<k>, tau<k>, ma<j>",
 };
 
 /**
- * Parses a kernel expression such as `quasi-periodic(sigma=0.01,period=11.3,quality=8,harmonicWeight=0.3)+drw(sigma=0.05,tau=400)`:
+ * Parses a kernel expression such as `quasi-periodic(sigma=0.01,period=11.3,decayTime=30,harmonicWeight=0.3)+drw(sigma=0.05,tau=400)`:
  * families with named parameters, combined with `+` and `*` (`*` binds tighter). Throws a UsageError naming
  * the problem; parameter values are checked by the kernels themselves (RangeError naming the parameter).
  */
@@ -53,8 +53,8 @@ function parseFamily(text: string): Kernel {
       need("sigma", "period", "quality");
       return kernels.oscillator({ sigma: values.sigma, period: values.period, quality: values.quality });
     case "quasi-periodic":
-      need("sigma", "period", "quality", "harmonicWeight");
-      return kernels.quasiPeriodic({ sigma: values.sigma, period: values.period, quality: values.quality, harmonicWeight: values.harmonicWeight });
+      need("sigma", "period", "decayTime", "harmonicWeight");
+      return kernels.quasiPeriodic({ sigma: values.sigma, period: values.period, decayTime: values.decayTime, harmonicWeight: values.harmonicWeight });
     case "matern32":
       need("sigma", "scale");
       return kernels.matern32({ sigma: values.sigma, scale: values.scale });

@@ -25,7 +25,7 @@ export type {
  * naming the parameter and value.
  *
  * @example
- * const rotation = kernels.quasiPeriodic({ sigma: 0.02, period: 11.3, quality: 8, harmonicWeight: 0.3 });
+ * const rotation = kernels.quasiPeriodic({ sigma: 0.02, period: 11.3, decayTime: 30, harmonicWeight: 0.3 });
  * const trend = kernels.dampedRandomWalk({ sigma: 0.05, tau: 400 });
  * const k = rotation.plus(trend);
  */
@@ -34,7 +34,7 @@ export const kernels = {
   dampedRandomWalk: (parameters: DampedRandomWalkParameters) => new DampedRandomWalkKernel(parameters),
   /** Stochastically driven damped harmonic oscillator. */
   oscillator: (parameters: OscillatorParameters) => new OscillatorKernel(parameters),
-  /** Rotation: oscillators at period and period / 2 sharing a quality factor. */
+  /** Rotation: a damped oscillation at period and one at period / 2 sharing one decay time. */
   quasiPeriodic: (parameters: QuasiPeriodicParameters) => new QuasiPeriodicKernel(parameters),
   /** sigma^2 (1 + sqrt(3)|t|/scale) exp(-sqrt(3)|t|/scale). */
   matern32: (parameters: Matern32Parameters) => new Matern32Kernel(parameters),

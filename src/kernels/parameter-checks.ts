@@ -16,11 +16,3 @@ export function requireWithin(kernel: string, name: string, value: number, min: 
   }
   return value;
 }
-
-/** Throws a RangeError unless the value is finite and strictly greater than `bound`. */
-export function requireAbove(kernel: string, name: string, value: number, bound: number): number {
-  if (typeof value !== "number" || !Number.isFinite(value) || !(value > bound)) {
-    throw new RangeError(`${kernel}: ${name} must be a finite number > ${bound}, got ${String(value)}`);
-  }
-  return value;
-}

@@ -23,10 +23,10 @@ export function oscillatorTerm(): KernelTerm {
   };
 }
 
-/** The quasi-periodic rotation kernel with parameters sigma, period, quality, harmonicWeight. */
+/** The quasi-periodic rotation kernel with parameters sigma, period, decayTime, harmonicWeight. */
 export function quasiPeriodicTerm(): KernelTerm {
   return {
-    names: ["sigma", "period", "quality", "harmonicWeight"],
-    build: ([sigma, period, quality, harmonicWeight]) => kernels.quasiPeriodic({ sigma, period, quality, harmonicWeight }),
+    names: ["sigma", "period", "decayTime", "harmonicWeight"],
+    build: ([sigma, period, decayTime, harmonicWeight]) => kernels.quasiPeriodic({ sigma, period, decayTime, harmonicWeight }),
   };
 }

@@ -58,19 +58,22 @@ export interface LightCurveModel {
  *   baseline (Kozlowski 2017, A&A 597, A128: timescales beyond a tenth of the baseline are biased, so the
  *   prior must allow them for the warning to be meaningful);
  * - periods: log-uniform from twice the smallest spacing to the baseline (oscillator) or half of it
- *   (quasi-periodic, which needs two cycles to see a repeat); quality: log-uniform on [0.05, 1000] for the
- *   oscillator, [0.55, 1000] for rotation (Q > 1/2); harmonicWeight: uniform on [0, 1];
+ *   (quasi-periodic, which needs two cycles to see a repeat: the range the fit's periodogram searches,
+ *   {@link periodSearchRange}); quality: log-uniform on [0.05, 1000] for the oscillator;
+ * - decayTime (quasi-periodic): log-uniform from the shortest period of that range to ten baselines, so
+ *   that it reaches from a pattern that forgets itself within one cycle to one coherent over the whole
+ *   light curve (then the data give only a lower limit, and the warnings say so); harmonicWeight: uniform on [0, 1];
  * - mean: normal around the median with ten times the spread; jitter: log-uniform from 1e-4 to 2 times the spread.
  */
 export function buildModel(name: ModelName, summary: DataSummary, structure: ModelStructure = {}): LightCurveModel {
-  const { spread, baseline, medianCadence, minimumSpacing, median } = summary;
+  const { spread, baseline, medianCadence, median } = summary;
   const amplitude = () => logUniformPrior(1e-3 * spread, 10 * spread);
   const timescale = () => logUniformPrior(medianCadence / 10, 10 * baseline);
   const terms: KernelTerm[] = [];
   const specs: ParameterSpec[] = [];
   const guess: Record<string, number> = {};
   const signal = Math.sqrt(Math.max(spread * spread - summary.medianError ** 2, 0.01 * spread * spread));
-  const shortestPeriod = Math.max(2 * minimumSpacing, baseline * 1e-6);
+  const shortestPeriod = periodSearchRange(summary).shortest;
   const clampPeriod = (value: number | undefined, upper: number) =>
     value !== undefined && value > shortestPeriod && value < upper ? value : Math.sqrt(shortestPeriod * upper);
   if (name === "drw") {
@@ -86,14 +89,19 @@ export function buildModel(name: ModelName, summary: DataSummary, structure: Mod
     );
     Object.assign(guess, { period: clampPeriod(structure.periodGuess, baseline), quality: 2, sigma: signal });
   } else if (name === "quasi-periodic") {
+    const range = periodSearchRange(summary);
+    const decayPrior = logUniformPrior(range.shortest, 10 * baseline);
+    const period = clampPeriod(structure.periodGuess, range.longest);
     terms.push(quasiPeriodicTerm());
     specs.push(
-      { name: "period", prior: logUniformPrior(shortestPeriod, baseline / 2) },
-      { name: "quality", prior: logUniformPrior(0.55, 1000) },
+      { name: "period", prior: logUniformPrior(range.shortest, range.longest) },
+      { name: "decayTime", prior: decayPrior },
       { name: "harmonicWeight", prior: uniformPrior(0, 1) },
       { name: "sigma", prior: amplitude() },
     );
-    Object.assign(guess, { period: clampPeriod(structure.periodGuess, baseline / 2), quality: 5, harmonicWeight: 0.3, sigma: signal });
+    // The first start only (the optimiser moves it): a pattern that stays coherent for a few cycles.
+    const decayTime = Math.min(Math.max(3 * period, decayPrior.lower * 1.01), decayPrior.upper / 1.01);
+    Object.assign(guess, { period, decayTime, harmonicWeight: 0.3, sigma: signal });
   } else {
     throw new RangeError(`unknown model "${String(name)}" (choose ${MODEL_NAMES.join(", ")})`);
   }
@@ -135,6 +143,15 @@ export function buildModel(name: ModelName, summary: DataSummary, structure: Mod
         jitter: jitterIndex >= 0 ? physical[jitterIndex] : 0,
       }),
   };
+}
+
+/**
+ * The periods a periodic model considers, in the input time unit: from twice the smallest spacing (at least
+ * a millionth of the baseline) to half the baseline (two cycles), the range over which the fit searches the
+ * periodogram for its first guess. The oscillator's prior reaches to the full baseline.
+ */
+export function periodSearchRange(summary: DataSummary): { readonly shortest: number; readonly longest: number } {
+  return { shortest: Math.max(2 * summary.minimumSpacing, summary.baseline * 1e-6), longest: summary.baseline / 2 };
 }
 
 /**

@@ -11,6 +11,7 @@ const KNOWN: Readonly<Record<string, { label: string; kind: UnitKind; descriptio
   mean: { label: "mean", kind: "value", description: "mean level" },
   period: { label: "P", kind: "time", description: "period" },
   quality: { label: "Q", kind: "none", description: "quality factor" },
+  decayTime: { label: "τ_decay", kind: "time", description: "decay time" },
   harmonicWeight: { label: "harmonic weight", kind: "none", description: "weight of the first harmonic" },
   backgroundTau: { label: "τ_bg", kind: "time", description: "background timescale" },
   backgroundSigma: { label: "σ_bg", kind: "value", description: "background amplitude" },

@@ -1,7 +1,5 @@
 import { formatMeasurement, formatSignificant } from "./format-measurement.js";
 import { parameterDisplay, timeUnitOf } from "./parameter-display.js";
-import { pooledDraws } from "./pooled-draws.js";
-import { quantileSorted } from "./quantile.js";
 import type { ReportInput } from "./report-input.js";
 
 /**
@@ -19,7 +17,7 @@ export const RHAT_THRESHOLD = 1.01;
 const MODEL_NAMES: Readonly<Record<string, string>> = {
   drw: "a damped random walk",
   oscillator: "a stochastically driven damped harmonic oscillator",
-  "quasi-periodic": "a quasi-periodic model (two oscillators at the period and half the period)",
+  "quasi-periodic": "a quasi-periodic model (damped oscillations at the period and half the period sharing one decay time)",
 };
 
 /**
@@ -63,13 +61,7 @@ export function plainSummary(input: ReportInput): string[] {
           : `, long enough for an unbiased estimate of it.`),
     );
   }
-  const coherence = coherenceTime(input);
-  if (coherence !== undefined) {
-    sentences.push(
-      `The signal stays coherent for about ${coherence} ${timeUnit} (quality × period / π), ` +
-        `so the pattern of the variability lasts about that long before it changes.`,
-    );
-  }
+  sentences.push(...rotationSentences(input));
   const quality = result.parameters["quality"];
   if (result.model === "oscillator" && quality !== undefined && quality.median < 0.5) {
     sentences.push("The quality factor is below 1/2: the variability is overdamped and shows no preferred period.");
@@ -93,7 +85,7 @@ export function plainSummary(input: ReportInput): string[] {
 function headlineParameters(model: string): string[] {
   if (model === "drw") return ["tau", "sigma"];
   if (model === "oscillator") return ["period", "quality", "sigma"];
-  if (model === "quasi-periodic") return ["period", "quality", "sigma"];
+  if (model === "quasi-periodic") return ["period", "decayTime", "sigma"];
   return [];
 }
 
@@ -107,19 +99,29 @@ function describe(input: ReportInput, name: string, terse = false): string {
 }
 
 /**
- * The coherence time quality × period / π of a quasi-periodic signal (DESIGN.md, quasiPeriodic kernel),
- * from the draws when they hold both parameters (so the interval is that of the product), else undefined.
+ * For a quasi-periodic fit: how long the pattern stays coherent (the decay time, in rotations) and, when
+ * the first harmonic carries most of the variance, that the light curve mostly repeats every P / 2 (the
+ * fit's derived `dominantPeriod`).
  */
-function coherenceTime(input: ReportInput): string | undefined {
-  const { result, draws } = input;
-  if (result.model !== "quasi-periodic") return undefined;
-  if (draws.chains["quality"] === undefined || draws.chains["period"] === undefined) return undefined;
-  const q = pooledDraws(draws, "quality");
-  const p = pooledDraws(draws, "period");
-  if (q.length !== p.length || q.length === 0) return undefined;
-  const product = q.map((qi, i) => (qi * p[i]!) / Math.PI).sort();
-  const median = quantileSorted(product, 0.5);
-  return formatMeasurement(median, median - quantileSorted(product, 0.16), quantileSorted(product, 0.84) - median);
+function rotationSentences(input: ReportInput): string[] {
+  const { result } = input;
+  const decay = result.parameters["decayTime"];
+  const period = result.parameters["period"];
+  if (result.model !== "quasi-periodic" || decay === undefined || period === undefined) return [];
+  const unit = timeUnitOf(input);
+  const coherence = formatMeasurement(decay.median, decay.median - decay.q16, decay.q84 - decay.median);
+  const sentences = [
+    `The pattern stays coherent for about ${coherence} ${unit} (the decay time), ` +
+      `${formatSignificant(decay.median / period.median, 2)} periods, before it changes.`,
+  ];
+  const weight = result.parameters["harmonicWeight"];
+  if (weight !== undefined && weight.median >= 0.5) {
+    sentences.push(
+      `Most of the variance is in the first harmonic: the light curve repeats mostly every P/2 = ` +
+        `${formatSignificant(period.median / 2)} ${unit} (the dominant period).`,
+    );
+  }
+  return sentences;
 }
 
 function joinList(items: string[]): string {

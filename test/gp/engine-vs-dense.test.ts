@@ -12,12 +12,12 @@ const families: Array<[string, Kernel]> = [
   ["oscillator Q > 1/2", kernels.oscillator({ sigma: 0.2, period: 37, quality: 6 })],
   ["oscillator Q < 1/2", kernels.oscillator({ sigma: 0.2, period: 90, quality: 0.3 })],
   ["oscillator Q = 1/2", kernels.oscillator({ sigma: 0.2, period: 60, quality: 0.5 })],
-  ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, quality: 4, harmonicWeight: 0.35 })],
+  ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.35 })],
   ["matern32", kernels.matern32({ sigma: 0.15, scale: 15 })],
   [
     "quasi-periodic plus damped random walk",
     kernels
-      .quasiPeriodic({ sigma: 0.1, period: 23.4, quality: 4, harmonicWeight: 0.35 })
+      .quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.35 })
       .plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 })),
   ],
   [
@@ -70,7 +70,7 @@ describe("semiseparable engine against dense linear algebra", () => {
   it("agrees at N = 2000 with months-long gaps", () => {
     const rng = createRng("dense:large");
     const kernel = kernels
-      .quasiPeriodic({ sigma: 0.1, period: 13.1, quality: 10, harmonicWeight: 0.2 })
+      .quasiPeriodic({ sigma: 0.1, period: 13.1, decayTime: 42, harmonicWeight: 0.2 })
       .plus(kernels.dampedRandomWalk({ sigma: 0.05, tau: 200 }));
     const t = seasonalTimes(rng, { seasons: 5, perSeason: 400 });
     const errors = randomErrors(rng, t.length, 0.005, 0.03);

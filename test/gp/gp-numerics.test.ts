@@ -9,7 +9,7 @@ const families: Array<[string, Kernel]> = [
   ["damped random walk", kernels.dampedRandomWalk({ sigma: 0.3, tau: 40 })],
   ["oscillator", kernels.oscillator({ sigma: 0.2, period: 17, quality: 3 })],
   ["overdamped oscillator", kernels.oscillator({ sigma: 0.2, period: 17, quality: 0.2 })],
-  ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 9.4, quality: 5, harmonicWeight: 0.3 })],
+  ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 9.4, decayTime: 15, harmonicWeight: 0.3 })],
   ["matern32", kernels.matern32({ sigma: 0.15, scale: 6 })],
   ["product", kernels.oscillator({ sigma: 0.5, period: 12, quality: 2 }).times(kernels.dampedRandomWalk({ sigma: 0.4, tau: 60 }))],
 ];
@@ -47,7 +47,7 @@ describe("numerical robustness", () => {
     const rng = createRng("julian");
     const minutes = Float64Array.from({ length: 3000 }, (_, i) => (i * 2 + rng.uniform()) / 1440);
     const jd = minutes.map((t) => 2_460_123.5 + t);
-    const kernel = kernels.quasiPeriodic({ sigma: 0.01, period: 0.37, quality: 30, harmonicWeight: 0.2 });
+    const kernel = kernels.quasiPeriodic({ sigma: 0.01, period: 0.37, decayTime: 3.5, harmonicWeight: 0.2 });
     const y = new GaussianProcess(kernel, minutes, { errors: 0.001 }).priorDraw(rng);
     const shifted = jd.map((t) => t - jd[0]);
     const a = new GaussianProcess(kernel, jd, { errors: 0.001 }).logLikelihood(y);
@@ -84,7 +84,7 @@ describe("draws", () => {
   it("the sample covariance of prior draws matches the kernel (fixed seed)", () => {
     // Reference: for n Gaussian draws the sample covariance of entries (i, j) has standard error
     // sqrt((K_ii K_jj + K_ij^2) / n) (Anderson 2003, An Introduction to Multivariate Statistical Analysis, 3.4).
-    const kernel = kernels.quasiPeriodic({ sigma: 1, period: 5, quality: 4, harmonicWeight: 0.3 }).plus(kernels.dampedRandomWalk({ sigma: 0.5, tau: 20 }));
+    const kernel = kernels.quasiPeriodic({ sigma: 1, period: 5, decayTime: 6.4, harmonicWeight: 0.3 }).plus(kernels.dampedRandomWalk({ sigma: 0.5, tau: 20 }));
     const t = Float64Array.from([0, 0.5, 1.3, 2, 4.1, 7, 7.2, 15, 40, 41]);
     const gp = new GaussianProcess(kernel, t);
     const rng = createRng("prior-draws");

@@ -41,7 +41,7 @@ describe("constant mean integrated out (GaussianProcess.meanMarginal)", () => {
   const errors = randomErrors(rng, t.length);
   const cases: Array<[string, Kernel]> = [
     ["damped random walk (written-out recursion)", kernels.dampedRandomWalk({ sigma: 0.3, tau: 150 })],
-    ["quasi-periodic + damped random walk", kernels.quasiPeriodic({ sigma: 0.1, period: 23, quality: 4, harmonicWeight: 0.3 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 }))],
+    ["quasi-periodic + damped random walk", kernels.quasiPeriodic({ sigma: 0.1, period: 23, decayTime: 29, harmonicWeight: 0.3 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 }))],
     ["oscillator x damped random walk (generic block)", kernels.oscillator({ sigma: 0.5, period: 40, quality: 3 }).times(kernels.dampedRandomWalk({ sigma: 0.4, tau: 200 }))],
     ["product of oscillators (factorisation fallback)", kernels.oscillator({ sigma: 0.5, period: 40, quality: 3 }).times(kernels.oscillator({ sigma: 1, period: 90, quality: 2 }))],
   ];

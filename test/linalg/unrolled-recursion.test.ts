@@ -14,10 +14,12 @@ const layouts: Array<[string, Kernel]> = [
   ["oscillator Q > 1/2 [2]", kernels.oscillator({ sigma: 0.2, period: 37, quality: 6 })],
   ["oscillator Q < 1/2 [2]", kernels.oscillator({ sigma: 0.2, period: 90, quality: 0.3 })],
   ["matern32 [2]", kernels.matern32({ sigma: 0.15, scale: 15 })],
-  ["quasi-periodic [2, 2]", kernels.quasiPeriodic({ sigma: 0.1, period: 7.3, quality: 5, harmonicWeight: 0.35 })],
+  ["quasi-periodic [2, 2]", kernels.quasiPeriodic({ sigma: 0.1, period: 7.3, decayTime: 12, harmonicWeight: 0.35 })],
+  // A coherence time of a fifth of the period: Q = 0.53 for the fundamental, the transitions' power-series branch.
+  ["quasi-periodic, short decay time [2, 2]", kernels.quasiPeriodic({ sigma: 0.1, period: 40, decayTime: 8, harmonicWeight: 0.6 })],
   [
     "quasi-periodic + damped random walk [2, 2, 1]",
-    kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, quality: 4, harmonicWeight: 0.2 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 400 })),
+    kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.2 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 400 })),
   ],
   ["CARMA(3, 1) [2, 1]", kernels.carma({ sigma: 0.2, oscillations: [{ period: 30, quality: 2 }], timescales: [80], movingAverage: [5] })],
   [

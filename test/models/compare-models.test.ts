@@ -19,7 +19,7 @@ function simulate(kernel: Kernel, seed: string) {
  */
 describe("model comparison by Bayesian evidence", () => {
   it("finds the period of a spotted star and none in a quasar", () => {
-    const star = simulate(kernels.quasiPeriodic({ sigma: 0.05, period: 6.2, quality: 15, harmonicWeight: 0.3 }), "compare-star");
+    const star = simulate(kernels.quasiPeriodic({ sigma: 0.05, period: 6.2, decayTime: 30, harmonicWeight: 0.3 }), "compare-star");
     const periodic = compareModels(star, ["drw", "quasi-periodic"], { seed: 1 });
     expect(periodic.ranking[0].model).toBe("quasi-periodic");
     expect(Math.abs(periodic.ranking[0].maximum.period / 6.2 - 1)).toBeLessThan(0.05);

@@ -44,22 +44,25 @@ describe("plainSummary", () => {
     expect(text).toContain("The sampler did not converge (largest R-hat 1.234, target below 1.01");
     expect(text).toContain("There are 2 warnings");
   });
-  it("reports a quasi-periodic period and the coherence time quality × period / π from the draws", () => {
-    const n = 400;
-    // Quality fixed at 10 and period at 2 pi days give a coherence time of exactly 20 days (DESIGN.md definition).
-    const quality = new Float64Array(n).fill(10);
-    const period = Float64Array.from({ length: n }, (_, i) => 2 * Math.PI * (1 + 0.001 * Math.sin(i)));
-    const input = withResult(
-      {
-        model: "quasi-periodic",
-        parameters: { period: summary(6.2832, 6.2, 6.35), quality: summary(10, 9, 11) },
+  it("reports a quasi-periodic period, its decay time in periods and a dominant first harmonic", () => {
+    const input = withResult({
+      model: "quasi-periodic",
+      parameters: {
+        period: summary(6.2832, 6.2, 6.35),
+        decayTime: summary(31.4, 25, 40),
+        harmonicWeight: summary(0.7, 0.6, 0.8),
+        sigma: summary(0.02, 0.018, 0.023),
       },
-      { draws: { names: ["period", "quality"], chains: { period: [period], quality: [quality] } } },
-    );
+    });
     const text = plainSummary(input).join(" ");
     expect(text).toContain("Fitted model: a quasi-periodic model");
     expect(text).toContain("The period P is 6.28 +0.07/−0.08 d");
-    expect(text).toMatch(/coherent for about 20\.0\d* [±+]/);
+    expect(text).toContain("the decay time τ_decay is");
+    // 31.4 / 6.2832 = 5.0 periods; harmonicWeight 0.7 > 1/2 puts most of the variance at P / 2 = 3.14 d.
+    expect(text).toMatch(/coherent for about 31 \+9\/−6 d \(the decay time\), 5 periods/);
+    expect(text).toContain("repeats mostly every P/2 = 3.14 d");
+    const fundamental = withResult({ model: "quasi-periodic", parameters: { period: summary(6.3, 6.2, 6.4), decayTime: summary(30, 25, 40), harmonicWeight: summary(0.2, 0.1, 0.3) } });
+    expect(plainSummary(fundamental).join(" ")).not.toContain("P/2");
   });
   it("mentions dropped rows and a missing error column", () => {
     const input = withResult({ data: { ...base.result.data, dropped: 1, errorColumn: null } });

@@ -17,7 +17,7 @@ Ivezic et al. 2019 (ApJ 873, 111, eq. 5) relation for a chosen 5-sigma depth. Wr
 the columns time,mag,mag_err (times in days).
 
 Kernel expressions combine families with + and * (for example a rotating star with a slow trend):
-  quasi-periodic(sigma=0.02,period=11.3,quality=8,harmonicWeight=0.3)+drw(sigma=0.05,tau=400)
+  quasi-periodic(sigma=0.02,period=11.3,decayTime=30,harmonicWeight=0.3)+drw(sigma=0.05,tau=400)
 Families and parameters:
 ${Object.entries(EXPRESSION_FAMILIES).map(([name, params]) => `  ${name.padEnd(16)} ${params}`).join("\n")}
 
