@@ -36,14 +36,14 @@ One 150-night observing season, a visit planned every night, 30% lost to weather
 midnight. The single-visit 5σ depth is r = 21.5 mag, so the errors at r ≈ 16.2 are about 6 mmag
 (Ivezic et al. 2019, eqs. 4-5; close to the 5 mmag systematic floor).
 
-The truth: the quasi-periodic kernel (two stochastically driven oscillators at P and P/2 sharing one
-quality factor; see `docs/choosing-a-kernel.md`) with P = 9.4 d; quality Q = 12, so a coherence time
-Q P / π ≈ 36 d (spots last about four rotations); 60% of the variance in the first harmonic (two spot
-groups on opposite hemispheres); amplitude σ = 15 mmag.
+The truth: the quasi-periodic kernel (damped oscillations at P and P/2 that share one decay time; see
+`docs/choosing-a-kernel.md`) with P = 9.4 d; a decay time of 36 d (the spot pattern lasts about four
+rotations); 60% of the variance in the first harmonic (two spot groups on opposite hemispheres), so the
+light curve mostly repeats every P/2 = 4.7 d, the *dominant* period; amplitude σ = 15 mmag.
 */
 const MJD0 = 60000;
-const truth = { period: 9.4, quality: 12, harmonicWeight: 0.6, sigma: 0.015, mean: 16.2 };
-const kernel = kernels.quasiPeriodic({ sigma: truth.sigma, period: truth.period, quality: truth.quality, harmonicWeight: truth.harmonicWeight });
+const truth = { period: 9.4, decayTime: 36, harmonicWeight: 0.6, sigma: 0.015, mean: 16.2 };
+const kernel = kernels.quasiPeriodic({ sigma: truth.sigma, period: truth.period, decayTime: truth.decayTime, harmonicWeight: truth.harmonicWeight });
 const observingSeason = (rng: Rng) => seasonalGroundCadence({ start: 60420, seasons: 1, seasonLength: 150, revisitInterval: 1 }, rng);
 const depth = { depth5Sigma: 21.5 };
 
@@ -54,7 +54,7 @@ const latent = jointDraw(kernel, truth.mean, time, grid, rng);
 const star = observeMagnitudes(time, latent.atObserved, depth, rng, "LDS V-1187 (invented)");
 const baseline = star.time[star.time.length - 1]! - star.time[0]!;
 console.log(`${star.time.length} visits over ${baseline.toFixed(0)} d; median error ${(1000 * quantile(star.error!, 0.5)).toFixed(1)} mmag`);
-console.log(`true coherence time Q P / pi = ${((truth.quality * truth.period) / Math.PI).toFixed(0)} d`);
+console.log(`true decay time ${truth.decayTime} d = ${(truth.decayTime / truth.period).toFixed(1)} rotations`);
 
 /* md
 ## The periodogram
@@ -117,9 +117,10 @@ const p = result.parameters;
 table(
   [
     row("period P", p.period!, "d", truth.period),
-    row("quality Q", p.quality!, "", truth.quality, 2),
-    row("coherence time Q P / π", derived.coherenceTime!, "d", Number(((truth.quality * truth.period) / Math.PI).toFixed(1)), 2),
+    row("decay time", p.decayTime!, "d", truth.decayTime, 2),
     row("harmonic weight", p.harmonicWeight!, "", truth.harmonicWeight, 2),
+    row("dominant period (P/2 when the harmonic weight is 1/2 or more)", derived.dominantPeriod!, "d", truth.harmonicWeight < 0.5 ? truth.period : truth.period / 2),
+    row("quality of the fundamental √((π τ_decay / P)² + 1/4)", derived.quality!, "", Number(Math.sqrt((Math.PI * truth.decayTime / truth.period) ** 2 + 0.25).toFixed(1)), 2),
     row("σ", p.sigma!, "mag", truth.sigma, 2),
   ],
   "Posterior summaries of the rotation model beside the invented truth.",
@@ -190,7 +191,7 @@ figure({
 ## Folding on each answer
 
 Folding the light curve on a period stacks the rotations on top of each other. The spots change too much
-over the season for a clean fold (the coherence time is about a month), and single visits are noisy, so
+over the season for a clean fold (the decay time is about a month), and single visits are noisy, so
 we fold the first 40 nights only and draw, besides the measurements, the posterior-predictive mean of the
 latent light curve, one line per cycle. On the posterior period the first cycles repeat one shape, with two
 dips of different depth from the two spot groups, until the spots evolve and the shape drifts. On the
@@ -383,7 +384,7 @@ console.log(comparison.verdict);
   guess. For a spotted star with two spot groups, its highest peak is often half the rotation period or
   that half period's one-day alias (count them in the table above).
 - The Gaussian-process posterior, with its search over P, P/2 and 2P, names the rotation period far more
-  often, gives it an interval that accounts for spot evolution, and measures the evolution (the coherence
-  time) and the light curve's shape (the harmonic weight) as well.
+  often, gives it an interval that accounts for spot evolution, and measures the evolution (the decay
+  time) and the light curve's shape (the harmonic weight, and with it the dominant period) as well.
 - Model comparison by evidence, not the false-alarm probability, is what tells periodic from red noise.
 */

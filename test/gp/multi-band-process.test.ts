@@ -13,14 +13,14 @@ const families: Array<[string, Kernel]> = [
   ["damped random walk", kernels.dampedRandomWalk({ sigma: 0.3, tau: 120 })],
   ["oscillator Q > 1/2", kernels.oscillator({ sigma: 0.2, period: 37, quality: 6 })],
   ["oscillator Q < 1/2", kernels.oscillator({ sigma: 0.2, period: 90, quality: 0.3 })],
-  ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, quality: 4, harmonicWeight: 0.35 })],
+  ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.35 })],
   ["matern32", kernels.matern32({ sigma: 0.15, scale: 15 })],
   ["carma(2,1)", kernels.carma({ sigma: 0.2, oscillations: [{ period: 60, quality: 0.9 }], movingAverage: [4] })],
   ["carma(3,0)", kernels.carma({ sigma: 0.2, oscillations: [{ period: 45, quality: 2 }], timescales: [200] })],
   [
     "quasi-periodic plus damped random walk",
     kernels
-      .quasiPeriodic({ sigma: 0.1, period: 23.4, quality: 4, harmonicWeight: 0.35 })
+      .quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.35 })
       .plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 })),
   ],
   [
