@@ -1,10 +1,12 @@
 /**
  * The body of a batch worker thread: loads the fit module once, then fits the objects the pool sends,
- * one at a time, answering each with the object's flattened result row or the reason it failed. A fit
+ * one at a time, answering each with the object's flattened result row or the reason it failed (a fit
+ * result is checked key by key, parseFitResult). A fit
  * that throws is reported, not fatal; a fit that crashes the thread is noticed by the pool.
  */
 import { parentPort, workerData } from "node:worker_threads";
 import type { FitResult } from "../models/fit-result.js";
+import { parseFitResult } from "../models/parse-fit-result.js";
 import type { FitRequest, FitWorkerData, FitWorkerMessage } from "./fit-worker-protocol.js";
 import { okRow } from "./result-row.js";
 
@@ -30,7 +32,9 @@ if (fit) {
   const fitObject = fit;
   port.on("message", async (request: FitRequest) => {
     try {
-      const result = await fitObject(request.lightCurve, request.options);
+      // Every key is checked, so that a fit module returning a malformed result fails the object with a
+      // reason naming the field instead of writing a row with holes.
+      const result = parseFitResult(await fitObject(request.lightCurve, request.options), `the result of ${moduleUrl}`);
       send({ kind: "fitted", row: okRow(request.objectId, request.options.seed, result) });
     } catch (error) {
       send({ kind: "fit-failed", reason: messageOf(error) });

@@ -32,25 +32,23 @@ export function okRow(objectId: string, seed: number, fit: FitResult): ResultRow
     object_id: objectId,
     status: "ok",
     reason: null,
-    model: String(fit.model),
+    model: fit.model,
     seed,
   };
-  const data = (fit.data ?? {}) as unknown as Record<string, unknown>;
-  for (const key of DATA_KEYS) row[`data.${key}`] = scalarCell(data[key]);
-  const summaries = { ...(fit.parameters ?? {}), ...summaryRecord(fit.derived) };
-  for (const [name, summary] of Object.entries(summaries)) {
+  for (const key of DATA_KEYS) row[`data.${key}`] = fit.data[key];
+  for (const [name, summary] of [...Object.entries(fit.parameters), ...Object.entries(fit.derived)]) {
     for (const [statistic, value] of Object.entries(summary)) {
-      if (typeof value === "number" || typeof value === "boolean") row[`${name}.${statistic}`] = value;
+      if (typeof value === "number") row[`${name}.${statistic}`] = value;
       else if (isInterval(value)) {
         row[`${name}.${statistic}.lower`] = value[0];
         row[`${name}.${statistic}.upper`] = value[1];
       }
     }
   }
-  for (const [key, value] of Object.entries(fit.diagnostics ?? {})) {
-    if (isScalar(value)) row[`diagnostics.${key}`] = value;
+  for (const [key, value] of Object.entries(fit.diagnostics)) {
+    if (typeof value === "number" || typeof value === "boolean" || typeof value === "string") row[`diagnostics.${key}`] = value;
   }
-  row.warnings = JSON.stringify((fit.warnings ?? []).map((warning) => singleLine(String(warning))));
+  row.warnings = JSON.stringify(fit.warnings.map(singleLine));
   return row;
 }
 
@@ -64,26 +62,8 @@ export function singleLine(text: string): string {
   return text.replace(/[\r\n\t]+/g, " ").trim();
 }
 
-/** The summaries of an optional `derived` record of the fit JSON (name to summary object), else none. */
-function summaryRecord(derived: unknown): Record<string, Record<string, unknown>> {
-  if (derived === null || typeof derived !== "object") return {};
-  const out: Record<string, Record<string, unknown>> = {};
-  for (const [name, summary] of Object.entries(derived)) {
-    if (summary !== null && typeof summary === "object" && !Array.isArray(summary)) out[name] = summary as Record<string, unknown>;
-  }
-  return out;
-}
-
 function isInterval(value: unknown): value is [number, number] {
   return Array.isArray(value) && value.length === 2 && value.every((bound) => typeof bound === "number");
-}
-
-function isScalar(value: unknown): value is string | number | boolean {
-  return typeof value === "number" || typeof value === "boolean" || typeof value === "string";
-}
-
-function scalarCell(value: unknown): ResultCell {
-  return isScalar(value) ? value : null;
 }
 
 /**

@@ -8,13 +8,12 @@ const fmt = (x: number) => (Math.abs(x) >= 1e5 || (Math.abs(x) < 1e-3 && x !== 0
  */
 export function fitSummaryText(result: FitResult, label?: string): string {
   const lines: string[] = [];
-  const band = (result.data as { band?: string }).band;
-  lines.push(`${label ?? String((result.data as { source?: string }).source ?? "light curve")}${band ? ` [band ${band}]` : ""}: ${result.model} model, ${result.data.n} points over ${fmt(result.data.baseline)} time units`);
+  const band = result.data.band;
+  lines.push(`${label ?? result.data.source}${band ? ` [band ${band}]` : ""}: ${result.model} model, ${result.data.n} points over ${fmt(result.data.baseline)} time units`);
   const row = (name: string, s: { median: number; q16: number; q84: number }) =>
     `  ${name.padEnd(16)} ${fmt(s.median).padStart(11)}  (+${fmt(s.q84 - s.median)} / -${fmt(s.median - s.q16)})`;
   for (const [name, s] of Object.entries(result.parameters)) lines.push(row(name, s));
-  const derived = (result.derived ?? {}) as Record<string, { median: number; q16: number; q84: number }>;
-  for (const [name, s] of Object.entries(derived)) lines.push(row(name, s));
+  for (const [name, s] of Object.entries(result.derived)) lines.push(row(name, s));
   const d = result.diagnostics;
   lines.push(
     `  ${d.converged ? "converged" : "NOT converged"}: R-hat max ${d.rhatMax.toFixed(4)}, ESS min ${Math.round(d.essMin)}, ` +

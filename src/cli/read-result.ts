@@ -2,8 +2,13 @@ import { readFileSync } from "node:fs";
 import { resolve } from "node:path";
 import { InputError } from "../errors/input-error.js";
 import type { FitResult } from "../models/fit-result.js";
+import { parseFitResult } from "../models/parse-fit-result.js";
 
-/** Reads a fit-result JSON file (one result; for a multi-band file the result of `band`). */
+/**
+ * Reads a fit-result JSON file written by `horologium fit`: one result, or for a multi-band file the result
+ * of `band`. Every key is checked ({@link parseFitResult}); a malformed file, an older format or a missing
+ * band ends in one InputError naming the file (and the field).
+ */
 export function readFitResult(path: string, cwd: string, band?: string): FitResult {
   let text: string;
   try {
@@ -17,17 +22,14 @@ export function readFitResult(path: string, cwd: string, band?: string): FitResu
   } catch (error) {
     throw new InputError(`not valid JSON (${(error as Error).message})`, { file: path });
   }
-  const candidates = (Array.isArray(parsed) ? parsed : [parsed]) as Record<string, unknown>[];
-  for (const [k, candidate] of candidates.entries()) {
-    for (const key of ["model", "data", "parameters", "diagnostics"])
-      if (!candidate || typeof candidate !== "object" || !(key in candidate))
-        throw new InputError(`result ${k} has no "${key}" field: not a horologium fit result`, { file: path });
-  }
-  if (candidates.length === 1) return candidates[0] as unknown as FitResult;
-  const chosen = candidates.find((c) => (c.data as { band?: string }).band === band);
+  if (!Array.isArray(parsed)) return parseFitResult(parsed, path);
+  if (parsed.length === 0) throw new InputError("an empty list: no fit result", { file: path });
+  const results = parsed.map((candidate, k) => parseFitResult(candidate, path, parsed.length > 1 ? `result ${k + 1}` : undefined));
+  if (results.length === 1) return results[0]!;
+  const chosen = results.find((result) => result.data.band === band);
   if (!chosen) {
-    const bands = candidates.map((c) => (c.data as { band?: string }).band).join(", ");
+    const bands = results.map((result) => result.data.band).join(", ");
     throw new InputError(`the file holds results for bands ${bands}; choose one with --band`, { file: path });
   }
-  return chosen as unknown as FitResult;
+  return chosen;
 }

@@ -1,19 +1,12 @@
-import type { PosteriorSample, SamplerKind, StopReason } from "../inference/index.js";
+import type { PosteriorSample } from "../inference/index.js";
 import type { FitDiagnostics } from "./fit-result.js";
-
-/** The diagnostics of a fit: the fit-result keys plus the sampler and why it stopped. */
-export interface CombinedDiagnostics extends FitDiagnostics {
-  readonly rhatThreshold: number;
-  readonly sampler: SamplerKind;
-  readonly stopReason: StopReason;
-}
 
 /**
  * The diagnostics stage of a fit: the runs of all modes combined by their worst figures (largest
  * R-hat and autocorrelation time, smallest ESS and R-hat bound), the mean acceptance, the summed
  * evaluations, and converged only when every run converged. `seconds` is the whole fit's wall time.
  */
-export function combinedDiagnostics(runs: readonly PosteriorSample[], seconds: number): CombinedDiagnostics {
+export function combinedDiagnostics(runs: readonly PosteriorSample[], seconds: number): FitDiagnostics {
   // The reducer is called with (a, b) only: Math.max as a reduce callback would also see the index and
   // the array (NaN), and every multi-mode fit would report NaN.
   const worst = (pick: (run: PosteriorSample) => number, better: (a: number, b: number) => number) =>

@@ -2,10 +2,9 @@ import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { PosteriorDraws } from "../inference/index.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
 import type { DataSummary } from "./data-summary.js";
-import type { CombinedDiagnostics } from "./fit-diagnostics.js";
 import type { FitOptions } from "./fit-options.js";
 import { evenlySpacedIndices } from "./fit-pooling.js";
-import type { FitResult } from "./fit-result.js";
+import { RESULT_FORMAT_VERSION, type FitDiagnostics, type FitResult, type RobustNoiseSummary, type StoredPosteriorSample } from "./fit-result.js";
 import type { PosteriorSummaries } from "./fit-summaries.js";
 import { fitWarnings } from "./fit-warnings.js";
 import type { LightCurveModel } from "./light-curve-model.js";
@@ -19,7 +18,7 @@ export interface ResultParts {
   readonly summary: DataSummary;
   readonly model: LightCurveModel;
   readonly summaries: PosteriorSummaries;
-  readonly diagnostics: CombinedDiagnostics;
+  readonly diagnostics: FitDiagnostics;
   readonly modes: readonly PeriodMode[];
   readonly periodogramPeriod?: number;
   readonly robust?: RobustNoise;
@@ -40,6 +39,7 @@ export function assembleFitResult(parts: ResultParts): FitResult {
   const { options, lightCurve, summary, model, summaries, diagnostics, modes, robust } = parts;
   const provenance = lightCurve.provenance;
   return {
+    formatVersion: RESULT_FORMAT_VERSION,
     model: options.model,
     seed: options.seed,
     version: HOROLOGIUM_VERSION,
@@ -69,7 +69,7 @@ export function assembleFitResult(parts: ResultParts): FitResult {
       ...(robust ? { robust: true } : {}),
     },
     ...(robust ? { robust: robustSection(robust) } : {}),
-    priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, ...p.prior.settings }])),
+    priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, settings: p.prior.settings }])),
     maximumPosterior: parts.maximumPosterior,
     ...(modes.length > 0 ? { periodModes: modes.map((m) => ({ period: m.period, probability: m.probability })) } : {}),
     ...(parts.periodogramPeriod !== undefined ? { periodogramPeriod: parts.periodogramPeriod } : {}),
@@ -86,7 +86,7 @@ function likelyOutlierCount(robust: RobustNoise): number {
   return count;
 }
 
-function robustSection(robust: RobustNoise) {
+function robustSection(robust: RobustNoise): RobustNoiseSummary {
   return {
     noise: `Student-t, ${robust.degreesOfFreedom} degrees of freedom (scale mixture of Gaussians, EM weights)`,
     degreesOfFreedom: robust.degreesOfFreedom,
@@ -104,7 +104,7 @@ function robustWarnings(robust: RobustNoise): string[] {
 }
 
 /** At most `count` draws spread evenly over the pooled draws, for predictions and reports from the JSON. */
-function thinnedSample(draws: PosteriorDraws, count: number) {
+function thinnedSample(draws: PosteriorDraws, count: number): StoredPosteriorSample {
   const picks = Array.from(evenlySpacedIndices(draws.chain.length, count));
   return {
     names: draws.names,

@@ -1,31 +1,61 @@
 import type { ParameterSummary } from "../inference/posterior-summary.js";
 import type { SamplerDiagnostics } from "../inference/sampler-diagnostics.js";
+import type { StopReason } from "../inference/run-sampler.js";
+import type { SamplerKind } from "../inference/sample-posterior.js";
+import type { PhotometricUnit } from "../lightcurve/light-curve.js";
+import type { ModelName } from "./light-curve-model.js";
 
 export type { ParameterSummary };
 
 /**
- * The fit result: the stable JSON contract of `horologium fit` (see DESIGN.md). Keys may be added;
- * none of these may be renamed or removed.
+ * The format of the fit-result JSON this version writes and reads (`formatVersion`). Raise it whenever a
+ * key is renamed, removed or changes meaning, so that a reader can tell an older file from a malformed
+ * one (docs/architecture.md, "Result JSON"). Format 2 is the first that carries the key; files without it
+ * were written by earlier versions (priors flattened, diagnostics keys since renamed).
+ */
+export const RESULT_FORMAT_VERSION = 2;
+
+/**
+ * The fit result: the JSON contract of `horologium fit` (docs/architecture.md, "Result JSON"). Every key
+ * is declared here; a producer that adds one declares it, and {@link parseFitResult} checks it.
  */
 export interface FitResult {
-  /** "drw", "oscillator" or "quasi-periodic". */
-  readonly model: string;
+  /** {@link RESULT_FORMAT_VERSION} of the format the file was written in. */
+  readonly formatVersion: typeof RESULT_FORMAT_VERSION;
+  readonly model: ModelName;
+  /** The seed of every random choice of the fit (the same seed gives the same result, bit for bit). */
   readonly seed: number | string;
   /** The Horologium version that produced the result. */
   readonly version: string;
   readonly data: FitDataSummary;
-  /** Posterior summary of each parameter, by name (for example `tau`, `sigma`, `mean`). */
-  readonly parameters: Record<string, ParameterSummary>;
+  /** Posterior summary of each parameter, by name (for example `tau`, `sigma`, `mean`), physical units. */
+  readonly parameters: Readonly<Record<string, FitParameterSummary>>;
+  /** Posterior summaries of quantities computed from the parameters (SF_inf, rest-frame tau, ...). */
+  readonly derived: Readonly<Record<string, DerivedSummary>>;
   readonly diagnostics: FitDiagnostics;
   /** Plain-language warnings about what the data do not constrain. */
-  readonly warnings: string[];
-  /** Anything else a model reports (derived quantities, the band, options). */
-  readonly [extra: string]: unknown;
+  readonly warnings: readonly string[];
+  /** The choices of the fit that change the model, to rebuild it from the result. */
+  readonly options: FitChoices;
+  /** The Student-t noise, present when the fit was asked for robust noise. */
+  readonly robust?: RobustNoiseSummary;
+  /** The prior of each free parameter. */
+  readonly priors: Readonly<Record<string, PriorDescription>>;
+  /** The parameters at the maximum of the posterior found by the optimiser, physical units. */
+  readonly maximumPosterior: Readonly<Record<string, number>>;
+  /** Periodic models: the modes in the period that were weighed (P, P/2, 2P of the periodogram peak). */
+  readonly periodModes?: readonly PeriodModeSummary[];
+  /** Periodic models: the period of the highest periodogram peak, the first guess. */
+  readonly periodogramPeriod?: number;
+  /** Evenly thinned posterior draws, for predictions and reports made from the file alone. */
+  readonly posteriorSample: StoredPosteriorSample;
 }
 
 /** What was fitted. */
 export interface FitDataSummary {
+  /** Points used. */
   readonly n: number;
+  /** Rows dropped because a cell was missing (empty, NaN, null). */
   readonly dropped: number;
   /** Last time minus first time, in the input time unit. */
   readonly baseline: number;
@@ -33,13 +63,76 @@ export interface FitDataSummary {
   readonly medianCadence: number;
   readonly timeColumn: string;
   readonly valueColumn: string;
+  /** The error column, or null when the file has none (a white-noise term was then fitted). */
   readonly errorColumn: string | null;
-  readonly [extra: string]: unknown;
+  /** The file the light curve was read from (or a label for built-in or simulated data). */
+  readonly source: string;
+  readonly unit: PhotometricUnit;
+  /** The band, when the light curve was one band of a multi-band file. */
+  readonly band?: string;
 }
 
-/**
- * Sampler convergence and cost (the keys of {@link SamplerDiagnostics}, which the inference layer owns).
- */
+/** The summary of one parameter in a result: {@link ParameterSummary} and the 95% highest-density interval. */
+export interface FitParameterSummary extends ParameterSummary {
+  /** Shortest interval holding 95% of the draws, [lower, upper]. */
+  readonly hdi95: readonly [number, number];
+}
+
+/** The summary of a derived quantity: its statistics and what it is, in words. */
+export interface DerivedSummary extends FitParameterSummary {
+  readonly description: string;
+}
+
+/** Sampler convergence and cost ({@link SamplerDiagnostics}, which the inference layer owns) and how the run ended. */
 export interface FitDiagnostics extends SamplerDiagnostics {
-  readonly [extra: string]: unknown;
+  /** The sampler that drew the posterior. */
+  readonly sampler: SamplerKind;
+  /** "converged", "budget" (out of evaluations) or "cancelled". */
+  readonly stopReason: StopReason;
+}
+
+/** The choices of a fit that shape the model (absent keys: not chosen). */
+export interface FitChoices {
+  readonly background?: "drw";
+  readonly redshift?: number;
+  /** A white-noise term was fitted. */
+  readonly jitter?: boolean;
+  /** Student-t noise instead of Gaussian. */
+  readonly robust?: boolean;
+}
+
+/** The robust noise of a fit: the Student-t as a scale mixture of Gaussians, with per-point weights. */
+export interface RobustNoiseSummary {
+  /** The noise model, in words. */
+  readonly noise: string;
+  readonly degreesOfFreedom: number;
+  /** Points whose outlier probability exceeds 1/2. */
+  readonly likelyOutliers: number;
+  /** Per-point precision weights (the error is divided by sqrt(weight)), in the order of the light curve. */
+  readonly weights: readonly number[];
+  /** Per-point probability that the point's scatter exceeds twice its error bar. */
+  readonly outlierProbability: readonly number[];
+}
+
+/** A prior, for readers: its family and the family's settings (for example `{ lower, upper }`). */
+export interface PriorDescription {
+  /** "uniform", "log-uniform", "normal", "half-normal", "log-normal" or "truncated <family>". */
+  readonly family: string;
+  readonly settings: Readonly<Record<string, number>>;
+}
+
+/** One mode in the period and its posterior probability (Laplace approximation). */
+export interface PeriodModeSummary {
+  readonly period: number;
+  readonly probability: number;
+}
+
+/** The thinned posterior draws stored in a fit result (`posteriorSample`). */
+export interface StoredPosteriorSample {
+  /** Parameter names, in the order of each row. */
+  readonly names: readonly string[];
+  /** Chain (or walker) of each row. */
+  readonly chain: readonly number[];
+  /** Physical parameter vectors. */
+  readonly rows: readonly (readonly number[])[];
 }

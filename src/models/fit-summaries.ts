@@ -1,15 +1,12 @@
 import { summarizeDraws, type PosteriorDraws, type PosteriorSummary } from "../inference/index.js";
 import { derivedQuantities } from "./derived-quantities.js";
-import type { ParameterSummary } from "./fit-result.js";
+import type { DerivedSummary, FitParameterSummary } from "./fit-result.js";
 import type { ModelName } from "./light-curve-model.js";
-
-/** A parameter's summary in the result: the fit-result keys plus the 95% highest-density interval. */
-export type CompactSummary = ParameterSummary & { readonly hdi95: readonly [number, number] };
 
 /** Posterior summaries of a fit's parameters and derived quantities. */
 export interface PosteriorSummaries {
-  readonly parameters: Record<string, CompactSummary>;
-  readonly derived: Record<string, CompactSummary & { readonly description: string }>;
+  readonly parameters: Record<string, FitParameterSummary>;
+  readonly derived: Record<string, DerivedSummary>;
 }
 
 /**
@@ -23,9 +20,9 @@ export function posteriorSummaries(
   model: ModelName,
   redshift?: number,
 ): PosteriorSummaries {
-  const parameters: Record<string, CompactSummary> = {};
+  const parameters: Record<string, FitParameterSummary> = {};
   for (const name of names) parameters[name] = compactSummary(summarizeDraws(draws.columns[name]));
-  const derived: Record<string, CompactSummary & { description: string }> = {};
+  const derived: Record<string, DerivedSummary> = {};
   for (const quantity of derivedQuantities(model, redshift)) {
     const values = new Float64Array(draws.chain.length);
     const record: Record<string, number> = {};
@@ -39,6 +36,6 @@ export function posteriorSummaries(
 }
 
 /** The fit-result summary keys plus the 95% highest-density interval. */
-function compactSummary(s: PosteriorSummary): CompactSummary {
+function compactSummary(s: PosteriorSummary): FitParameterSummary {
   return { median: s.median, mean: s.mean, sd: s.sd, "q2.5": s["q2.5"], q16: s.q16, q84: s.q84, "q97.5": s["q97.5"], hdi95: s.hdi95 };
 }

@@ -1,25 +1,16 @@
-import type { FitResult } from "./fit-result.js";
+import type { FitResult, StoredPosteriorSample } from "./fit-result.js";
 
-/** The thinned posterior draws stored in a fit result (`posteriorSample`), for predictions and reports. */
-export interface StoredPosteriorSample {
-  /** Parameter names, in the order of each row. */
-  readonly names: readonly string[];
-  /** Chain (or walker) of each row. */
-  readonly chain: readonly number[];
-  /** Physical parameter vectors. */
-  readonly rows: readonly (readonly number[])[];
-}
-
-/** The stored draws of a result, checked for shape; throws a RangeError naming what is wrong. */
+/**
+ * The stored draws of a result, checked against the model that will use them (the shape was checked when the
+ * file was read, by parseFitResult): throws a RangeError naming what does not fit.
+ */
 export function storedPosteriorSample(result: FitResult, expectedNames: readonly string[]): StoredPosteriorSample {
-  const sample = result.posteriorSample as StoredPosteriorSample | undefined;
-  if (!sample || !Array.isArray(sample.rows) || !Array.isArray(sample.names) || sample.rows.length === 0)
-    throw new RangeError("the result has no posteriorSample (posterior draws); refit with this version of horologium");
+  const sample = result.posteriorSample;
+  if (sample.rows.length === 0) throw new RangeError("the result's posteriorSample holds no draws (the run stopped before sampling)");
   if (sample.names.join(",") !== expectedNames.join(","))
     throw new RangeError(`the result's posteriorSample has parameters ${sample.names.join(", ")}, the model needs ${expectedNames.join(", ")}`);
   for (const [k, row] of sample.rows.entries())
-    if (!Array.isArray(row) || row.length !== sample.names.length || !row.every(Number.isFinite))
-      throw new RangeError(`posteriorSample row ${k} is not ${sample.names.length} finite numbers`);
+    if (!row.every(Number.isFinite)) throw new RangeError(`posteriorSample row ${k} holds a value that is not a finite number`);
   return sample;
 }
 

@@ -193,4 +193,11 @@ describe("runBatch", () => {
       runBatch(options("broken.csv", inventedIds(2), { fitModule: fixtureModule("unloadable-fit.mjs") })),
     ).rejects.toThrow(/cannot load the fit module .*unloadable-fit\.mjs: it does not export a function fitLightCurve/);
   });
+
+  it("records an object as failed, naming the field, when the fit module returns a malformed result", async () => {
+    const summary = await runBatch(options("malformed.csv", inventedIds(2), { fitModule: fixtureModule("malformed-fit.mjs") }));
+    expect(summary).toMatchObject({ ok: 0, failed: 2 });
+    for (const row of await rows(join(folder, "malformed.csv")))
+      expect(row.reason).toMatch(/^the result of .*malformed-fit\.mjs: field "data" must be an object, got nothing/);
+  });
 });

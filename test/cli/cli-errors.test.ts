@@ -1,6 +1,7 @@
 import { writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
+import { inventedFitResult } from "../helpers/invented-fit-result.js";
 import { runInProcess } from "./run-cli-in-process.js";
 
 /** Every input or usage problem ends in exactly one line on stderr, exit code 2, and no stack trace. */
@@ -46,7 +47,13 @@ describe("command-line errors", () => {
       "t.csv": "time\n1\nsoon\n",
     });
     await expectOneLineError(["predict", "lc.csv", "--from", "r.json", "--grid", "0:1:1"], /r\.json: not valid JSON/, { "lc.csv": GOOD, "r.json": "{oops" });
-    await expectOneLineError(["predict", "lc.csv", "--from", "r.json", "--grid", "0:1:1"], /r\.json: result 0 has no "data" field/, { "lc.csv": GOOD, "r.json": '{"model":"drw"}' });
+    await expectOneLineError(["predict", "lc.csv", "--from", "r.json", "--grid", "0:1:1"], /r\.json: not a horologium fit result/, { "lc.csv": GOOD, "r.json": '{"model":"drw"}' });
+    // A result of the first format (no formatVersion), and one with a field of the wrong type.
+    const older = JSON.stringify({ model: "drw", seed: 1, parameters: {}, diagnostics: { autocorrTime: 3 } });
+    await expectOneLineError(["predict", "lc.csv", "--from", "r.json", "--grid", "0:1:1"], /r\.json: written by an older version of horologium/, { "lc.csv": GOOD, "r.json": older });
+    await expectOneLineError(["report", "r.json"], /r\.json: written by an older version of horologium/, { "r.json": older });
+    const malformed = JSON.stringify({ ...inventedFitResult(), data: { ...inventedFitResult().data, n: "thirty" } });
+    await expectOneLineError(["predict", "lc.csv", "--from", "r.json", "--grid", "0:1:1"], /r\.json: field "data\.n" must be a non-negative integer, got "thirty"/, { "lc.csv": GOOD, "r.json": malformed });
   });
 
   it("simulate: kernel expression problems name the parameter", async () => {

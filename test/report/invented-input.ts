@@ -5,7 +5,8 @@
  */
 import { CholeskyDecomposition, Matrix } from "ml-matrix";
 import type { LightCurve } from "../../src/lightcurve/light-curve.js";
-import type { FitResult, ParameterSummary } from "../../src/models/fit-result.js";
+import type { FitParameterSummary, FitResult } from "../../src/models/fit-result.js";
+import { inventedFitResult } from "../helpers/invented-fit-result.js";
 import { createRng, type Rng } from "../../src/random/rng.js";
 import type { ReportInput } from "../../src/report/report-input.js";
 
@@ -110,7 +111,7 @@ function classicalPeriodogram(time: Float64Array, y: Float64Array, frequency: Fl
   });
 }
 
-function summarise(values: Float64Array): ParameterSummary {
+function summarise(values: Float64Array): FitParameterSummary {
   const s = Float64Array.from(values).sort();
   const q = (p: number) => {
     const pos = (s.length - 1) * p;
@@ -122,7 +123,7 @@ function summarise(values: Float64Array): ParameterSummary {
   for (const v of s) mean += v / s.length;
   let variance = 0;
   for (const v of s) variance += (v - mean) ** 2 / (s.length - 1);
-  return { median: q(0.5), mean, sd: Math.sqrt(variance), "q2.5": q(0.025), q16: q(0.16), q84: q(0.84), "q97.5": q(0.975) };
+  return { median: q(0.5), mean, sd: Math.sqrt(variance), "q2.5": q(0.025), q16: q(0.16), q84: q(0.84), "q97.5": q(0.975), hdi95: [q(0.025), q(0.975)] };
 }
 
 /** Builds the invented input; the same options give the same input, bit for bit. */
@@ -202,11 +203,12 @@ export function inventedReportInput(options: InventedOptions = {}): ReportInput 
 
   const parameters = { tau: summarise(pooled("tau")), sigma: summarise(pooled("sigma")), mean: summarise(pooled("mean")) };
   const ratio = (last - first) / parameters.tau.median;
+  const base = inventedFitResult();
   const result: FitResult = {
-    model: "drw",
+    ...base,
     seed: options.seed ?? 2024,
-    version: "0.1.0",
     data: {
+      ...base.data,
       n,
       dropped: 2,
       baseline: last - first,
@@ -216,15 +218,7 @@ export function inventedReportInput(options: InventedOptions = {}): ReportInput 
       errorColumn: withErrors ? "mag_err" : null,
     },
     parameters,
-    diagnostics: {
-      converged: true,
-      rhatMax: 1.006,
-      essMin: 812,
-      autocorrelationTime: 23.4,
-      acceptance: 0.41,
-      likelihoodEvaluations: 96000,
-      seconds: 4.2,
-    },
+    diagnostics: { ...base.diagnostics, rhatMax: 1.006 },
     warnings: options.warnings ?? [
       `The baseline is only ${ratio.toFixed(1)} times the timescale tau; timescales are biased low unless the baseline is at least about 10 tau.`,
     ],

@@ -1,13 +1,15 @@
 import { describe, expect, it } from "vitest";
-import type { ParameterSummary } from "../../src/models/fit-result.js";
+import type { FitParameterSummary } from "../../src/models/fit-result.js";
 import { plainSummary } from "../../src/report/plain-summary.js";
 import type { ReportInput } from "../../src/report/report-input.js";
 import { inventedReportInput } from "./invented-input.js";
 
 const base = inventedReportInput({ chains: 2, steps: 50 });
 
-function summary(median: number, q16: number, q84: number): ParameterSummary {
-  return { median, mean: median, sd: (q84 - q16) / 2, "q2.5": q16 - (median - q16), q16, q84, "q97.5": q84 + (q84 - median) };
+function summary(median: number, q16: number, q84: number): FitParameterSummary {
+  const q2 = q16 - (median - q16);
+  const q97 = q84 + (q84 - median);
+  return { median, mean: median, sd: (q84 - q16) / 2, "q2.5": q2, q16, q84, "q97.5": q97, hdi95: [q2, q97] };
 }
 
 function withResult(patch: Partial<ReportInput["result"]>, extra: Partial<ReportInput> = {}): ReportInput {

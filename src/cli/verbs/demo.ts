@@ -59,7 +59,7 @@ export const verb: CliVerb = {
       // Forecast: from the last epoch to the end of the next observing season (across the gap).
       const last = lightCurve.time[lightCurve.time.length - 1];
       const grid = Float64Array.from({ length: 121 }, (_, i) => last + 3 * i);
-      const rows = (fit.result.posteriorSample as { rows: number[][] }).rows;
+      const rows = fit.result.posteriorSample.rows;
       // 200 draws spread over every chain (the stored sample is ordered chain by chain).
       const forecast = posteriorPredictive(fit.model, lightCurve, evenlySpacedItems(rows, 200), grid);
       writeOutput(predictionCsv(forecast), join(out, "quasar-forecast.csv"), io);
@@ -79,9 +79,9 @@ export const verb: CliVerb = {
     say(`\n2. Spotted star LDS V-2291: ${star.time.length} epochs over ${(star.time[star.time.length - 1] - star.time[0]).toFixed(0)} d\n`);
     await fitAll([star], { model: "quasi-periodic", seed }, { ...io, stderr: quiet ? () => undefined : io.stdout }, quiet, async (lightCurve, fit) => {
       writeOutput(JSON.stringify(fit.result, null, 2) + "\n", join(out, "spotted-star-result.json"), io);
-      const modes = (fit.result.periodModes ?? []) as { period: number; probability: number }[];
-      if (modes.length > 0)
-        say(`   period modes checked (periodogram peak ${Number(fit.result.periodogramPeriod).toFixed(3)} d and its aliases): ${modes.map((m) => `${m.period.toFixed(3)} d (${(100 * m.probability).toFixed(1)}%)`).join(", ")}\n`);
+      const modes = fit.result.periodModes ?? [];
+      if (modes.length > 0 && fit.result.periodogramPeriod !== undefined)
+        say(`   period modes checked (periodogram peak ${fit.result.periodogramPeriod.toFixed(3)} d and its aliases): ${modes.map((m) => `${m.period.toFixed(3)} d (${(100 * m.probability).toFixed(1)}%)`).join(", ")}\n`);
       if (values["no-report"] !== true) {
         const written = await writeReport(reportInputFromFit(lightCurve, fit.result, fit.model), join(out, "spotted-star-report"));
         say(`   report: ${written.html}\n`);

@@ -114,7 +114,7 @@ export const verb: CliVerb = {
       if (!quiet) io.stderr(fitSummaryText(fit.result));
       model = fit.model;
       lightCurve = fit.conditioning;
-      rows = (fit.result.posteriorSample as { rows: number[][] }).rows;
+      rows = fit.result.posteriorSample.rows;
     }
     const curve = posteriorPredictive(model, lightCurve, evenlySpacedItems(rows, drawCount), times);
     writeOutput(predictionCsv(curve), textOption(values, "out"), io);

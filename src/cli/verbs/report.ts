@@ -44,15 +44,14 @@ export const verb: CliVerb = {
     const { values, positionals } = parsed;
     const resultPath = singleInput(positionals, "RESULT.json");
     const result = readFitResult(resultPath, io.cwd, textOption(values, "band"));
-    const data = result.data as unknown as { source?: string; timeColumn: string; valueColumn: string; errorColumn: string | null; band?: string; unit?: "mag" | "flux" };
+    const data = result.data;
     const dataPath = textOption(values, "data") ?? data.source;
-    if (!dataPath) throw new InputError("the result names no data file; give one with --data", { file: resultPath });
     const set = await readLightCurves(resolve(io.cwd, dataPath), {
       timeColumn: data.timeColumn,
       valueColumn: data.valueColumn,
       errorColumn: data.errorColumn,
       ...(data.band !== undefined ? { band: data.band } : {}),
-      ...(data.unit ? { unit: data.unit } : {}),
+      unit: data.unit,
     });
     const lightCurve = set.lightCurves[0];
     if (lightCurve.time.length !== result.data.n)
