@@ -1,4 +1,5 @@
 import { InputError } from "../errors/input-error.js";
+import { UnrecognisedColumnError } from "../errors/unrecognised-column-error.js";
 import type { PhotometricUnit } from "./light-curve.js";
 
 /**
@@ -150,9 +151,11 @@ function findExplicit(names: readonly string[], choice: string, role: string, so
 }
 
 function missingColumn(role: string, recognised: readonly string[], flag: string, names: readonly string[], source: string): InputError {
-  return new InputError(
+  return new UnrecognisedColumnError(
     `no ${role} column recognised (looked for ${recognised.join("/")}; columns: ${listNames(names)}); name one with ${flag}`,
     { file: source },
+    role,
+    names,
   );
 }
 

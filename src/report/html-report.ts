@@ -28,19 +28,26 @@ export function reportWarnings(input: ReportInput): string[] {
   return warnings;
 }
 
+/** Options of {@link htmlReport}. */
+export interface HtmlReportOptions {
+  /** Whether the figures are also saved as SVG and PNG in `figures/` beside the page, as `writeReport` does (default true). */
+  readonly figureFiles?: boolean;
+}
+
 /**
  * The report as one self-contained HTML page: styles inline, figures as inline SVG, no script and no
  * network access (a Content-Security-Policy forbids any), so it opens from a file, an e-mail or an archive.
  * Order: warnings, plain-language summary, parameter table, figures, diagnostics, data.
  */
-export function htmlReport(input: ReportInput, figures: readonly DrawnFigure[]): string {
+export function htmlReport(input: ReportInput, figures: readonly DrawnFigure[], options: HtmlReportOptions = {}): string {
+  const files = options.figureFiles ?? true;
   const { result, lightCurve } = input;
   const title = input.title ?? `${lightCurve.provenance.source}${lightCurve.band ? `, band ${lightCurve.band}` : ""}`;
   const warnings = reportWarnings(input);
   const byId = new Map(figures.map((f) => [f.figure.id, f]));
   const figure = (id: string) => {
     const drawn = byId.get(id);
-    return drawn === undefined ? "" : figureHtml(drawn);
+    return drawn === undefined ? "" : figureHtml(drawn, files);
   };
   const others = figures.filter((f) => !["light-curve", "corner", "spectrum", "traces"].includes(f.figure.id));
 
@@ -73,7 +80,7 @@ ${figure("light-curve")}
 ${figure("corner")}
 ${figure("spectrum")}
 ${figure("traces")}
-${others.map(figureHtml).join("\n")}
+${others.map((f) => figureHtml(f, files)).join("\n")}
 <section id="diagnostics">
 <h2>Sampler diagnostics</h2>
 ${diagnosticsTable(result.diagnostics)}
@@ -82,7 +89,7 @@ ${diagnosticsTable(result.diagnostics)}
 <h2>Data</h2>
 ${dataTable(input)}
 </section>
-<footer>Made by Horologium ${escapeHtml(result.version)}. Each figure is also saved as SVG and PNG in <code>figures/</code> beside this page.</footer>
+<footer>Made by Horologium ${escapeHtml(result.version)}.${files ? " Each figure is also saved as SVG and PNG in <code>figures/</code> beside this page." : ""}</footer>
 </main>
 </body>
 </html>
@@ -102,13 +109,13 @@ ${items}
 </section>`;
 }
 
-function figureHtml(drawn: DrawnFigure): string {
+function figureHtml(drawn: DrawnFigure, files: boolean): string {
   const { figure } = drawn;
   const id = `figure-${figure.id}`;
   return `<figure id="${escapeHtml(id)}">
 <h2>${escapeHtml(figure.title)}</h2>
 <div class="figure-body">${inlineSvg(drawn.svg, id, figure.title)}</div>
-<figcaption>${escapeHtml(figure.caption)} <span class="files">Files: <code>figures/${escapeHtml(figure.id)}.svg</code>, <code>figures/${escapeHtml(figure.id)}.png</code>.</span></figcaption>
+<figcaption>${escapeHtml(figure.caption)}${files ? ` <span class="files">Files: <code>figures/${escapeHtml(figure.id)}.svg</code>, <code>figures/${escapeHtml(figure.id)}.png</code>.</span>` : ""}</figcaption>
 </figure>`;
 }
 

@@ -1,8 +1,9 @@
 import { Resvg } from "@resvg/resvg-js";
-import { parse as parseVega, View } from "vega";
-import { compile } from "vega-lite";
 import { FIGURE_FONT } from "./figure-style.js";
 import type { ReportFigure } from "./report-figure.js";
+import { renderSvg } from "./render-svg.js";
+
+export { renderSvg };
 
 /** A figure drawn: its SVG text, its PNG bytes and the pixel size of each. */
 export interface RenderedFigure {
@@ -46,15 +47,4 @@ export async function renderFigure(figure: ReportFigure, options: RenderOptions 
     pngWidth: image.width,
     pngHeight: image.height,
   };
-}
-
-/** The SVG text of a figure, rendered headless by Vega from the compiled Vega-Lite specification. */
-export async function renderSvg(figure: ReportFigure): Promise<string> {
-  const vegaSpec = compile(figure.spec).spec;
-  const view = new View(parseVega(vegaSpec), { renderer: "none" });
-  try {
-    return await view.toSVG();
-  } finally {
-    view.finalize();
-  }
 }

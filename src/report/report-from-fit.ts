@@ -61,7 +61,7 @@ export function reportInputFromFit(
   return {
     result,
     lightCurve,
-    prediction: { time: prediction.time, mean: prediction.mean, sd: prediction.sd },
+    prediction,
     draws,
     periodogram: { frequency: periodogram.frequency, power: periodogram.power, label: "Lomb-Scargle power" },
     psdBand: { frequency: frequencies, median: band(0.5), lower: band(0.16), upper: band(0.84), mass: 0.68 },

@@ -15,6 +15,9 @@ export interface PredictiveCurve {
   readonly mean: NumericColumn;
   /** Posterior-predictive standard deviation of the latent curve. */
   readonly sd: NumericColumn;
+  /** The 2.5% and 97.5% quantiles of the predictive mixture, when the producer has them (for the CSV download). */
+  readonly lower95?: NumericColumn;
+  readonly upper95?: NumericColumn;
 }
 
 /**

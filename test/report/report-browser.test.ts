@@ -1,27 +1,11 @@
-import { existsSync } from "node:fs";
 import { mkdtemp, rm } from "node:fs/promises";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { pathToFileURL } from "node:url";
-import { chromium, type Browser } from "playwright-core";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { writeReport, type WrittenReport } from "../../src/report/write-report.js";
+import { launchChromium, skipWithoutChromium, watchPage, type HeadlessBrowser } from "../helpers/headless-chromium.js";
 import { inventedReportInput } from "./invented-input.js";
-
-/** Debian's Chromium, installed by .ci/setup-browser.sh. */
-const CHROMIUM = "/usr/bin/chromium";
-const CHROMIUM_ARGS = [
-  "--headless",
-  "--no-sandbox",
-  "--disable-gpu",
-  "--disable-quic",
-  "--no-first-run",
-  "--disable-background-networking",
-  "--disable-component-update",
-  "--disable-sync",
-];
-// On a developer machine without Chromium the test is skipped; in CI a missing browser is a failure.
-const skip = !existsSync(CHROMIUM) && !process.env["CI"];
 
 interface FigureCheck {
   readonly id: string | null;
@@ -32,28 +16,23 @@ interface FigureCheck {
   readonly texts: string[];
 }
 
-describe.skipIf(skip)("the HTML report in headless Chromium", () => {
+describe.skipIf(skipWithoutChromium)("the HTML report in headless Chromium", () => {
   let dir = "";
-  let browser: Browser | undefined;
+  let chromium: HeadlessBrowser | undefined;
   let written: WrittenReport;
-  const consoleErrors: string[] = [];
-  const outsideRequests: string[] = [];
+  let consoleErrors: string[] = [];
+  let outsideRequests: string[] = [];
   let figures: FigureCheck[] = [];
   let warningsVisible = false;
 
   beforeAll(async () => {
-    if (!existsSync(CHROMIUM)) throw new Error(`${CHROMIUM} is missing; .ci/setup-browser.sh installs Debian's chromium`);
     dir = await mkdtemp(join(tmpdir(), "horologium-browser-"));
     written = await writeReport(inventedReportInput({ chains: 4, steps: 200 }), dir);
-    browser = await chromium.launch({ executablePath: CHROMIUM, args: CHROMIUM_ARGS, headless: true });
-    const page = await browser.newPage({ viewport: { width: 1100, height: 900 } });
-    page.on("console", (message) => {
-      if (message.type() === "error") consoleErrors.push(message.text());
-    });
-    page.on("pageerror", (error) => consoleErrors.push(`page error: ${error.message}`));
-    page.on("request", (request) => {
-      if (!request.url().startsWith("file:")) outsideRequests.push(request.url());
-    });
+    chromium = await launchChromium();
+    const page = await chromium.context.newPage();
+    const watch = watchPage(page, "file:");
+    consoleErrors = watch.consoleErrors;
+    outsideRequests = watch.offOriginRequests;
     await page.goto(pathToFileURL(written.html).href, { waitUntil: "load" });
     figures = await page.evaluate(() =>
       Array.from(document.querySelectorAll("figure svg")).map((svg) => {
@@ -80,7 +59,7 @@ describe.skipIf(skip)("the HTML report in headless Chromium", () => {
   });
 
   afterAll(async () => {
-    await browser?.close();
+    await chromium?.close();
     if (dir) await rm(dir, { recursive: true, force: true });
   });
 

@@ -11,7 +11,7 @@ import { UsageError } from "../../errors/usage-error.js";
 import { parseVerbArguments, seedOption, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 import { fitAll } from "./fit.js";
-import { predictionCsv } from "./predict.js";
+import { predictionCsv } from "../../models/prediction-csv.js";
 
 const HELP = `Usage: horologium demo [--out DIR] [--seed N] [--no-report] [--quiet]
 

@@ -4,6 +4,7 @@ import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
 import type { FitOptions } from "../../models/fit-options.js";
 import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
 import { posteriorPredictive } from "../../models/posterior-predictive.js";
+import { predictionCsv } from "../../models/prediction-csv.js";
 import { evenlySpacedItems, storedPosteriorSample } from "../../models/posterior-sample.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { UsageError } from "../../errors/usage-error.js";
@@ -55,14 +56,6 @@ const OPTIONS = {
   robust: { type: "boolean" },
   quiet: { type: "boolean" },
 } as const;
-
-/** Formats a predictive curve as CSV with full double precision. */
-export function predictionCsv(curve: { time: ArrayLike<number>; mean: ArrayLike<number>; sd: ArrayLike<number>; lower95: ArrayLike<number>; upper95: ArrayLike<number> }): string {
-  const lines = ["time,mean,sd,lower95,upper95"];
-  for (let i = 0; i < curve.time.length; i++)
-    lines.push([curve.time[i], curve.mean[i], curve.sd[i], curve.lower95[i], curve.upper95[i]].map(String).join(","));
-  return lines.join("\n") + "\n";
-}
 
 /** `horologium predict`. */
 export const verb: CliVerb = {

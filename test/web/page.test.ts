@@ -1,0 +1,141 @@
+import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import type { Page } from "playwright-core";
+import { build } from "vite";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { launchChromium, skipWithoutChromium, watchPage, type HeadlessBrowser, type PageWatch } from "../helpers/headless-chromium.js";
+import { serveFolder, type StaticServer } from "../helpers/static-server.js";
+
+/**
+ * The browser page end to end: built with the project's Vite configuration (as `npm run build:web`
+ * does), served by a plain static server, driven in Debian's headless Chromium. A small light curve and
+ * a small sampling budget keep each fit to seconds.
+ */
+const ROOT = new URL("../../", import.meta.url).pathname;
+
+/** The first 120 observations of the demo quasar (an invented object), to keep the fit short. */
+async function smallLightCurve(): Promise<string> {
+  const lines = (await readFile(join(ROOT, "demo/lds-j0412-2731-quasar.csv"), "utf8")).split("\n");
+  const header = lines.findIndex((line) => line.startsWith("time,"));
+  return [...lines.slice(0, header + 121)].join("\n") + "\n";
+}
+
+describe.skipIf(skipWithoutChromium)("the browser page", () => {
+  let dir = "";
+  let server: StaticServer;
+  let chromium: HeadlessBrowser;
+
+  beforeAll(async () => {
+    dir = await mkdtemp(join(tmpdir(), "horologium-web-"));
+    const site = join(dir, "site");
+    await build({ configFile: join(ROOT, "web/vite.config.ts"), logLevel: "silent", build: { outDir: site, emptyOutDir: true } });
+    server = await serveFolder(site);
+    chromium = await launchChromium();
+    const csv = await smallLightCurve();
+    await writeFile(join(dir, "lds-j0412-small.csv"), csv);
+    await writeFile(join(dir, "unnamed-columns.csv"), csv.replace("time,mag,mag_err", "epoch,brightness,unc"));
+    await writeFile(join(dir, "broken.csv"), "time,mag,mag_err\n60000.1,19.2,0.02\n60001.3,abc,0.02\n60002.2,19.3,0.02\n");
+  });
+
+  afterAll(async () => {
+    await chromium?.close();
+    await server?.close();
+    if (dir) await rm(dir, { recursive: true, force: true });
+  });
+
+  async function openPage(): Promise<{ page: Page; watch: PageWatch }> {
+    const page = await chromium.context.newPage();
+    const watch = watchPage(page, server.origin);
+    await page.goto(`${server.origin}/index.html`, { waitUntil: "load" });
+    return { page, watch };
+  }
+
+  async function fit(page: Page, file: string, model = "drw"): Promise<string> {
+    await page.setInputFiles('input[type="file"]', join(dir, file));
+    await page.selectOption('select[name="model"]', model);
+    await page.locator("details summary").click();
+    await page.fill('input[name="max-evaluations"]', "30000");
+    await page.click('button[type="submit"]');
+    await page.waitForFunction(() => ["done", "error", "columns"].includes(document.body.dataset["fitState"] ?? ""), undefined, {
+      timeout: 100_000,
+    });
+    return page.evaluate(() => document.body.dataset["fitState"] ?? "");
+  }
+
+  it("fits a light curve, draws the report's figures and offers the result JSON", async () => {
+    const { page, watch } = await openPage();
+    expect(await page.locator("#privacy").textContent()).toMatch(/no request to any host but the one that served it/);
+    expect(await fit(page, "lds-j0412-small.csv")).toBe("done");
+
+    const report = page.frameLocator("#report-frame");
+    const figures = await report.locator("figure svg").evaluateAll((svgs) =>
+      svgs.map((svg) => ({
+        id: svg.getAttribute("data-figure"),
+        width: svg.getBoundingClientRect().width,
+        marks: svg.querySelectorAll("g.role-mark > *").length,
+      })),
+    );
+    expect(figures.map((f) => f.id)).toEqual(expect.arrayContaining(["figure-light-curve", "figure-corner", "figure-traces"]));
+    for (const figure of figures) {
+      expect(figure.width, figure.id ?? "").toBeGreaterThan(100);
+      expect(figure.marks, figure.id ?? "").toBeGreaterThan(2);
+    }
+    expect(await report.locator("#parameters table tbody tr").count()).toBeGreaterThanOrEqual(3);
+
+    const link = page.locator('a[download$=".json"]');
+    expect(await link.getAttribute("download")).toBe("lds-j0412-small-drw.json");
+    const [download] = await Promise.all([page.waitForEvent("download"), link.click()]);
+    const result = JSON.parse(await readFile(await download.path(), "utf8")) as Record<string, any>;
+    // The fit-result contract of docs/ (stable keys).
+    expect(result["model"]).toBe("drw");
+    expect(result["seed"]).toBe(1);
+    expect(typeof result["version"]).toBe("string");
+    expect(result["data"]).toMatchObject({ n: 120, dropped: 0, timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err" });
+    expect(Object.keys(result["parameters"])).toEqual(expect.arrayContaining(["tau", "sigma", "mean"]));
+    for (const summary of Object.values(result["parameters"]) as Record<string, number>[]) {
+      for (const key of ["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5"]) expect(Number.isFinite(summary[key]), key).toBe(true);
+      expect(summary["q2.5"]).toBeLessThanOrEqual(summary["q97.5"]!);
+    }
+    expect(Object.keys(result["diagnostics"])).toEqual(expect.arrayContaining(["converged", "rhatMax", "essMin", "acceptance", "seconds"]));
+    expect(Array.isArray(result["warnings"])).toBe(true);
+
+    const [predictions] = await Promise.all([page.waitForEvent("download"), page.locator('a[download$="-predictions.csv"]').click()]);
+    const csv = (await readFile(await predictions.path(), "utf8")).trim().split("\n");
+    expect(csv[0]).toBe("time,mean,sd,lower95,upper95");
+    expect(csv.length).toBeGreaterThan(100);
+
+    expect(watch.consoleErrors).toEqual([]);
+    expect(watch.offOriginRequests).toEqual([]);
+    if (process.env["HOROLOGIUM_SCREENSHOTS"]) await page.screenshot({ path: join(process.env["HOROLOGIUM_SCREENSHOTS"], "web-page.png"), fullPage: true });
+    await page.close();
+  });
+
+  it("shows the one-line reading error for a bad file", async () => {
+    const { page, watch } = await openPage();
+    expect(await fit(page, "broken.csv")).toBe("error");
+    const message = await page.locator("#error").textContent();
+    expect(message).toMatch(/^broken\.csv:3: column "mag": /);
+    expect(message).not.toMatch(/internal error|\n/);
+    expect(await page.locator("#results").isHidden()).toBe(true);
+    expect(watch.consoleErrors).toEqual([]);
+    expect(watch.offOriginRequests).toEqual([]);
+    await page.close();
+  });
+
+  it("asks which column is which when the names are not recognised, then fits", async () => {
+    const { page, watch } = await openPage();
+    expect(await fit(page, "unnamed-columns.csv")).toBe("columns");
+    expect(await page.locator("#columns").isVisible()).toBe(true);
+    expect(await page.locator("#time-col option").allTextContents()).toEqual(["epoch", "brightness", "unc"]);
+    await page.selectOption("#value-col", "brightness");
+    await page.selectOption("#error-col", "unc");
+    await page.click('button[type="submit"]');
+    await page.waitForFunction(() => ["done", "error"].includes(document.body.dataset["fitState"] ?? ""), undefined, { timeout: 100_000 });
+    expect(await page.locator("#error").textContent()).toBe("");
+    expect(await page.evaluate(() => document.body.dataset["fitState"])).toBe("done");
+    expect(watch.consoleErrors).toEqual([]);
+    expect(watch.offOriginRequests).toEqual([]);
+    await page.close();
+  });
+});
