@@ -20,13 +20,14 @@ export const LAYER_ORDER: readonly (readonly string[])[] = [
   ["batch"],
   ["cli"],
   ["index.ts"],
+  ["browser.ts"],
 ];
 
 /**
  * Layers that bundle for the browser: neither they nor anything they import (transitively) may import a
  * Node built-in module or one of {@link NODE_ONLY_PACKAGES}.
  */
-export const BROWSER_SAFE_LAYERS: readonly string[] = ["linalg", "kernels", "gp", "inference", "models", "periodogram"];
+export const BROWSER_SAFE_LAYERS: readonly string[] = ["linalg", "kernels", "gp", "inference", "models", "periodogram", "index.ts", "browser.ts"];
 
 /** npm packages that run only under Node (native code, terminal output). */
 export const NODE_ONLY_PACKAGES: readonly string[] = ["@resvg/resvg-js", "cli-progress"];
