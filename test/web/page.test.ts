@@ -97,7 +97,9 @@ describe.skipIf(skipWithoutChromium)("the browser page", () => {
       for (const key of ["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5"]) expect(Number.isFinite(summary[key]), key).toBe(true);
       expect(summary["q2.5"]).toBeLessThanOrEqual(summary["q97.5"]!);
     }
-    expect(Object.keys(result["diagnostics"])).toEqual(expect.arrayContaining(["converged", "rhatMax", "essMin", "acceptance", "seconds"]));
+    expect(Object.keys(result["diagnostics"])).toEqual(
+      expect.arrayContaining(["converged", "rhatMax", "essMin", "autocorrelationTime", "acceptance", "likelihoodEvaluations", "seconds"]),
+    );
     expect(Array.isArray(result["warnings"])).toBe(true);
 
     const [predictions] = await Promise.all([page.waitForEvent("download"), page.locator('a[download$="-predictions.csv"]').click()]);

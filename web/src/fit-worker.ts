@@ -65,12 +65,12 @@ async function fitRequest(request: FitRequest): Promise<WorkerMessage> {
         type: "progress",
         stage: progress.phase === "warmup" ? "warm-up" : "sampling",
         fraction: progress.fraction,
-        evaluations: progress.logProbEvaluations,
+        evaluations: progress.likelihoodEvaluations,
         ...(c ? { rhatMax: c.rhatMax, rhatThreshold: c.rhatThreshold, converged: c.converged } : {}),
       });
     },
   });
-  scope.postMessage({ type: "progress", stage: "drawing the report", fraction: 1, evaluations: fit.result.diagnostics.logProbEvaluations });
+  scope.postMessage({ type: "progress", stage: "drawing the report", fraction: 1, evaluations: fit.result.diagnostics.likelihoodEvaluations });
   const result = { ...fit.result, warnings: [...readingNotes, ...fit.result.warnings] };
   const input = { ...reportInputFromFit(fit.conditioning, result, fit.model), title: reportTitle(lightCurve, request) };
   const drawn = [];
