@@ -17,6 +17,7 @@ export async function readInput(path: string, values: VerbArguments["values"], i
     ...optional("bandColumn", textOption(values, "band-col")),
     ...optional("band", textOption(values, "band")),
     ...(unit ? { unit } : {}),
+    ...(values["keep-placeholders"] === true ? { keepPlaceholders: true } : {}),
   });
   if (!quiet) for (const warning of set.warnings) io.stderr(`warning: ${warning}\n`);
   return set.lightCurves;

@@ -1,6 +1,7 @@
 import type { ColumnChoice } from "./column-choice.js";
 import { InputError } from "../errors/input-error.js";
 import type { LightCurve, PhotometricUnit } from "./light-curve.js";
+import { isPlaceholderRow, PLACEHOLDER_CODES } from "./placeholder-values.js";
 import { fluxErrorToMagnitudeError, fluxToMagnitude, magnitudeErrorToFluxError, magnitudeToFlux } from "./units.js";
 
 /**
@@ -30,6 +31,11 @@ export interface AssembleOptions {
   readonly convertTo?: PhotometricUnit;
   /** Zero point for conversions: m = -2.5 log10 f + zeroPoint (default 0). */
   readonly zeroPoint?: number;
+  /**
+   * Keep rows whose value or error is a placeholder code (99, 99.99, -99, -999; see
+   * placeholder-values.ts) as if they were measurements. Default false: they are dropped and counted.
+   */
+  readonly keepPlaceholders?: boolean;
 }
 
 /** The light curves of one table and what the user should be told about them. */
@@ -47,7 +53,8 @@ export const DEFAULT_MINIMUM_POINTS = 5;
 
 /**
  * Validates extracted columns and builds light curves: drops rows with a missing time, value, error or
- * band (counted in `provenance.dropped`, with a warning); rejects non-positive errors with their line;
+ * band, and rows whose value or error is a placeholder code (both counted in `provenance.dropped`, the
+ * placeholders also in `provenance.placeholders`, with a warning); rejects non-positive errors with their line;
  * splits by band (or keeps `options.band`); sorts each light curve by time (stable, repeated times
  * kept); rejects too few points and zero time span; converts units if asked.
  */
@@ -69,10 +76,10 @@ export function assembleLightCurves(columns: ObservationColumns, options: Assemb
   }
 
   // Group kept rows by band, in order of first appearance; count dropped rows per band.
-  const groups = new Map<string, { rows: number[]; dropped: number; droppedPositions: number[] }>();
+  const groups = new Map<string, { rows: number[]; dropped: number; droppedPositions: number[]; placeholders: number; placeholderPositions: number[] }>();
   const group = (key: string) => {
     let g = groups.get(key);
-    if (!g) groups.set(key, (g = { rows: [], dropped: 0, droppedPositions: [] }));
+    if (!g) groups.set(key, (g = { rows: [], dropped: 0, droppedPositions: [], placeholders: 0, placeholderPositions: [] }));
     return g;
   };
   let droppedWithoutBand = 0;
@@ -89,6 +96,11 @@ export function assembleLightCurves(columns: ObservationColumns, options: Assemb
     if (missing) {
       g.dropped++;
       if (g.droppedPositions.length < 5) g.droppedPositions.push(columns.positions[i]);
+      continue;
+    }
+    if (!options.keepPlaceholders && isPlaceholderRow(columns.value[i], columns.error?.[i], choice.unit)) {
+      g.placeholders++;
+      if (g.placeholderPositions.length < 5) g.placeholderPositions.push(columns.positions[i]);
       continue;
     }
     if (columns.error !== null && !(columns.error[i] > 0)) {
@@ -119,11 +131,21 @@ export function assembleLightCurves(columns: ObservationColumns, options: Assemb
       const shown = g.droppedPositions.join(", ") + (g.dropped > g.droppedPositions.length ? ", ..." : "");
       warnings.push(`${source}:${label} dropped ${g.dropped} row(s) with a missing value (${kind}s ${shown})`);
     }
+    if (g.placeholders > 0) {
+      const kind = columns.positionKind;
+      const shown = g.placeholderPositions.join(", ") + (g.placeholders > g.placeholderPositions.length ? ", ..." : "");
+      warnings.push(
+        `${source}:${label} dropped ${g.placeholders} row(s) whose value or error is a placeholder code ` +
+          `(${PLACEHOLDER_CODES.join(", ")}) rather than a measurement (${kind}s ${shown}); keep them with --keep-placeholders`,
+      );
+    }
+    const excluded = g.dropped + g.placeholders;
     const rows = g.rows;
     if (rows.length < minimumPoints) {
       throw new InputError(
         `${label ? label.slice(1) + " " : ""}only ${rows.length} usable point(s)` +
-          `${g.dropped > 0 ? ` after dropping ${g.dropped} with missing values` : ""}; at least ${minimumPoints} are needed`,
+          `${excluded > 0 ? ` after dropping ${excluded} with missing values${g.placeholders > 0 ? " or placeholder codes" : ""}` : ""}; ` +
+          `at least ${minimumPoints} are needed`,
         { file: source },
       );
     }
@@ -180,7 +202,8 @@ export function assembleLightCurves(columns: ObservationColumns, options: Assemb
         timeColumn: choice.time.name,
         valueColumn: choice.value.name,
         errorColumn: choice.error ? choice.error.name : null,
-        dropped: g.dropped,
+        dropped: excluded,
+        placeholders: g.placeholders,
         sorted,
       },
     });

@@ -28,8 +28,10 @@ export interface LightCurveProvenance {
   readonly valueColumn: string;
   /** The error column, or null when the file has none (a white-noise term is then fitted). */
   readonly errorColumn: string | null;
-  /** Rows dropped because a cell was missing (empty, NaN, null). */
+  /** Rows dropped because a cell was missing (empty, NaN, null) or held a placeholder code (these included). */
   readonly dropped: number;
+  /** Of the dropped rows, those whose value or error was a placeholder code (99, 99.99, -99, -999). */
+  readonly placeholders?: number;
   /** Whether the rows had to be sorted by time. */
   readonly sorted: boolean;
 }

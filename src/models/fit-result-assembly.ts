@@ -46,6 +46,7 @@ export function assembleFitResult(parts: ResultParts): FitResult {
     data: {
       n: summary.n,
       dropped: provenance.dropped,
+      placeholders: provenance.placeholders ?? 0,
       baseline: summary.baseline,
       medianCadence: summary.medianCadence,
       timeColumn: provenance.timeColumn,

@@ -55,8 +55,10 @@ export interface FitResult {
 export interface FitDataSummary {
   /** Points used. */
   readonly n: number;
-  /** Rows dropped because a cell was missing (empty, NaN, null). */
+  /** Rows dropped: missing values and placeholder codes. */
   readonly dropped: number;
+  /** Of the dropped rows, those whose magnitude or error was a placeholder code (99, 99.99, -99, -999). */
+  readonly placeholders?: number;
   /** Last time minus first time, in the input time unit. */
   readonly baseline: number;
   /** Median spacing between consecutive times, in the input time unit. */

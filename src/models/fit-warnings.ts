@@ -71,8 +71,14 @@ export function fitWarnings(inputs: WarningInputs): string[] {
     const list = significant.map((m) => `${fmt(m.period)} (${(100 * m.probability).toFixed(0)}%)`).join(", ");
     warnings.push(`The period posterior is multimodal: ${list}. The summaries pool the modes; quote them with care.`);
   }
-  if (lightCurve.provenance.dropped > 0) {
-    warnings.push(`${lightCurve.provenance.dropped} rows with missing values were dropped.`);
+  const { dropped, placeholders = 0 } = lightCurve.provenance;
+  if (dropped > 0) {
+    const missing = dropped - placeholders;
+    const parts = [
+      ...(missing > 0 ? [`${missing} with missing values`] : []),
+      ...(placeholders > 0 ? [`${placeholders} whose magnitude or error is a placeholder code (99, 99.99, -99, -999)`] : []),
+    ];
+    warnings.push(`${dropped} rows were dropped: ${parts.join(", ")}.`);
   }
   if (!summary.hasErrors) {
     warnings.push("The light curve has no error column: a white-noise term (jitter) was fitted for the measurement errors.");

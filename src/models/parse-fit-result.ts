@@ -78,9 +78,11 @@ function dataSummary(f: Fields): FitDataSummary {
   const unit = f.text("unit");
   if (unit !== "mag" && unit !== "flux") throw f.wrong("unit", '"mag" or "flux"');
   const band = f.optional("band", (g, key) => g.text(key));
+  const placeholders = f.optional("placeholders", (g, key) => g.count(key));
   return {
     n: f.count("n"),
     dropped: f.count("dropped"),
+    ...(placeholders !== undefined ? { placeholders } : {}),
     baseline: f.number("baseline"),
     medianCadence: f.number("medianCadence"),
     timeColumn: f.text("timeColumn"),

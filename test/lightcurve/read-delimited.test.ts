@@ -66,6 +66,7 @@ describe("delimited text: layouts", () => {
       valueColumn: "mag",
       errorColumn: "mag_err",
       dropped: 0,
+      placeholders: 0,
       sorted: false,
     });
   });
