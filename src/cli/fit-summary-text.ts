@@ -1,4 +1,5 @@
 import type { FitResult } from "../models/fit-result.js";
+import { convergenceFigure } from "../report/format-measurement.js";
 
 const fmt = (x: number) => (Math.abs(x) >= 1e5 || (Math.abs(x) < 1e-3 && x !== 0) ? x.toExponential(3) : x.toPrecision(4));
 
@@ -16,7 +17,7 @@ export function fitSummaryText(result: FitResult, label?: string): string {
   for (const [name, s] of Object.entries(result.derived)) lines.push(row(name, s));
   const d = result.diagnostics;
   lines.push(
-    `  ${d.converged ? "converged" : "NOT converged"}: R-hat max ${d.rhatMax.toFixed(4)}, ESS min ${Math.round(d.essMin)}, ` +
+    `  ${d.converged ? "converged" : "NOT converged"}: R-hat max ${convergenceFigure(d.rhatMax, 5)}, ESS min ${convergenceFigure(d.essMin, 3)}, ` +
       `${Math.round(d.likelihoodEvaluations)} log-likelihood evaluations, ${d.seconds.toFixed(1)} s`,
   );
   for (const warning of result.warnings) lines.push(`  warning: ${warning}`);

@@ -74,3 +74,26 @@ export function seedOption(values: VerbArguments["values"]): number {
   if (!Number.isInteger(seed)) throw new UsageError(`--seed must be an integer, got ${seed}`);
   return seed;
 }
+
+/** The period-range options of the verbs that search for a period (fit, predict, compare). */
+export const PERIOD_OPTIONS: Options = {
+  "min-period": { type: "string" },
+  "max-period": { type: "string" },
+};
+
+/** The help lines of {@link PERIOD_OPTIONS}. */
+export const PERIOD_HELP = `  --min-period P          shortest period searched and allowed (periodic models; default twice the
+                          typical spacing of visits on different nights)
+  --max-period P          longest period searched and allowed (default the baseline, or half of it
+                          for quasi-periodic rotation, which needs two cycles)`;
+
+/** `--min-period` and `--max-period` as positive numbers (either may be absent). */
+export function periodLimitsFrom(values: VerbArguments["values"]): { minimumPeriod?: number; maximumPeriod?: number } {
+  const minimumPeriod = numberOption(values, "min-period");
+  const maximumPeriod = numberOption(values, "max-period");
+  for (const [name, value] of [["min-period", minimumPeriod], ["max-period", maximumPeriod]] as const)
+    if (value !== undefined && !(value > 0)) throw new UsageError(`--${name} must be > 0, got ${value}`);
+  if (minimumPeriod !== undefined && maximumPeriod !== undefined && !(maximumPeriod > minimumPeriod))
+    throw new UsageError(`--min-period (${minimumPeriod}) must be below --max-period (${maximumPeriod})`);
+  return { ...(minimumPeriod !== undefined ? { minimumPeriod } : {}), ...(maximumPeriod !== undefined ? { maximumPeriod } : {}) };
+}

@@ -1,10 +1,11 @@
 import { findMaximumPosterior, unconstrainedPosterior, startingPoints } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
-import { computePeriodogram } from "../periodogram/periodogram.js";
 import { childSeed, createRng } from "../random/rng.js";
 import { summarizeLightCurve } from "./data-summary.js";
 import { laplaceLogEvidence } from "./laplace-evidence.js";
+import { periodogramPeriod } from "./fit-period-search.js";
 import { buildModel, modelLikelihood, type ModelName } from "./light-curve-model.js";
+import { modelPeriodRange, periodRange, type PeriodLimits } from "./period-range.js";
 
 /** One model's standing in a comparison. */
 export interface ModelStanding {
@@ -45,17 +46,19 @@ export interface ModelComparison {
 export function compareModels(
   lightCurve: LightCurve,
   models: readonly ModelName[],
-  options: { readonly seed: number | string; readonly background?: "drw"; readonly starts?: number },
+  options: { readonly seed: number | string; readonly background?: "drw"; readonly starts?: number; readonly periodLimits?: PeriodLimits },
 ): ModelComparison {
   const summary = summarizeLightCurve(lightCurve);
-  const peak = computePeriodogram(
-    { time: lightCurve.time, value: lightCurve.value, ...(lightCurve.error ? { error: lightCurve.error } : {}) },
-    { minimumFrequency: 2 / summary.baseline, maximumFrequency: 1 / (2 * Math.max(summary.minimumSpacing, summary.baseline * 1e-6)), peaks: 1 },
-  ).peaks[0];
+  const source = lightCurve.provenance.source;
+  const limits = options.periodLimits ?? {};
+  const searched = models.some((name) => name !== "drw") ? periodRange(summary, 2, limits, source) : undefined;
+  const periodGuess = searched ? periodogramPeriod(lightCurve, searched) : undefined;
   const standings = models.map((name, k) => {
+    const range = modelPeriodRange(name, summary, limits, source);
     const model = buildModel(name, summary, {
       ...(options.background ? { background: options.background } : {}),
-      ...(peak ? { periodGuess: peak.period } : {}),
+      ...(periodGuess !== undefined ? { periodGuess } : {}),
+      ...(range ? { periodRange: range } : {}),
     });
     const likelihood = modelLikelihood(model, lightCurve);
     const target = unconstrainedPosterior(model.space, likelihood, { jacobian: true });

@@ -1,4 +1,5 @@
 import type { LightCurve } from "../lightcurve/light-curve.js";
+import { visitSpacing } from "../periodogram/frequency-grid.js";
 
 /** Scales of a light curve from which the models derive their priors (never hard-coded days or magnitudes). */
 export interface DataSummary {
@@ -9,6 +10,12 @@ export interface DataSummary {
   readonly medianCadence: number;
   /** Smallest spacing between consecutive distinct times. */
   readonly minimumSpacing: number;
+  /**
+   * Typical separation of visits on different nights (or of consecutive exposures of an even cadence):
+   * the median of the spacings at least a tenth of the mean spacing, baseline / (n - 1). Visits
+   * clustered minutes apart within a night fall below that and do not count; see {@link visitSpacing}.
+   */
+  readonly visitSpacing: number;
   /** Median of the values. */
   readonly median: number;
   /** Robust spread of the values: 1.4826 x median absolute deviation, or the sample sd if larger. */
@@ -43,6 +50,7 @@ export function summarizeLightCurve(lightCurve: LightCurve): DataSummary {
     baseline: n > 0 ? time[n - 1] - time[0] : 0,
     medianCadence: spacingCount > 0 ? medianOf(distinctSpacings) : 0,
     minimumSpacing: spacingCount > 0 ? minimumSpacing : 0,
+    visitSpacing: spacingCount > 0 ? visitSpacing(distinctSpacings, n > 1 ? (time[n - 1] - time[0]) / (n - 1) : 0) : 0,
     median,
     spread: spread > 0 ? spread : Math.max(medianError, 1e-12),
     medianError,

@@ -1,7 +1,8 @@
 import { posteriorDraws, type PosteriorDraws, type PosteriorSample } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { summarizeLightCurve, type DataSummary } from "./data-summary.js";
-import { combinedDiagnostics } from "./fit-diagnostics.js";
+import { requireEnoughPoints, requireVariableData } from "./fit-data-support.js";
+import { combinedDiagnostics, requireKeptDraws } from "./fit-diagnostics.js";
 import { restoredPosterior } from "./fit-mean-restoration.js";
 import { planModes } from "./fit-mode-plan.js";
 import type { FitOptions } from "./fit-options.js";
@@ -14,6 +15,7 @@ import { sampleStarts } from "./fit-sampling.js";
 import { posteriorSummaries } from "./fit-summaries.js";
 import { buildModel, modelLikelihood, type LightCurveModel } from "./light-curve-model.js";
 import type { PeriodMode } from "./period-modes.js";
+import { modelPeriodRange } from "./period-range.js";
 import type { RobustNoise } from "./robust-noise.js";
 
 /** Everything a fit produces: the result JSON plus the model and draws, for predictions and reports. */
@@ -41,8 +43,11 @@ export function fitLightCurve(lightCurve: LightCurve, options: FitOptions): FitR
 
 /**
  * Fits a model to one light curve, in named stages (each in its own file):
+ * 0. data support (`fit-data-support.ts`): data that cannot support any fit (one time, constant
+ *    values, fewer points than parameters) end in an InputError; the period range (`period-range.ts`)
+ *    from the cadence, or the user's limits;
  * 1. periodogram (`fit-period-search.ts`): for periodic models, the highest generalised Lomb-Scargle
- *    peak (Zechmeister & Kurster 2009) as the first guess of the period;
+ *    peak (Zechmeister & Kurster 2009) in the period range as the first guess of the period;
  * 2. model (`buildModel`): priors from the data's own scales;
  * 3. robust noise (`fit-robust-stage.ts`): with `robust`, Student-t weights folded into the errors;
  * 4. modes (`fit-mode-plan.ts`): the period modes at P, P/2 and 2P weighted by their Laplace evidence;
@@ -61,20 +66,25 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   const clock = options.clock ?? (() => performance.now());
   const start = clock();
   const summary = summarizeLightCurve(lightCurve);
-  const periodGuess = options.model !== "drw" ? periodogramPeriod(lightCurve, summary) : undefined;
+  requireVariableData(lightCurve, summary, options.model);
+  const range = modelPeriodRange(options.model, summary, options, lightCurve.provenance.source);
+  const periodGuess = range ? periodogramPeriod(lightCurve, range) : undefined;
   const model = buildModel(options.model, summary, {
     ...(options.background ? { background: options.background } : {}),
     ...(options.jitter ? { jitter: true } : {}),
     ...(periodGuess !== undefined ? { periodGuess } : {}),
+    ...(range ? { periodRange: range } : {}),
   });
+  requireEnoughPoints(lightCurve, model);
   const { conditioning, robust } = noiseConditioning(model, lightCurve, options.robust === true);
   const likelihood = modelLikelihood(model, conditioning);
   const plan = planModes(model, likelihood, periodGuess);
   const { runs, collapsed } = sampleStarts(model, conditioning, likelihood, plan, options, clock);
   const pooled = pooledDraws(runs.map((run) => posteriorDraws(run.space, run.run)), plan.weights);
   const { draws, maximumPosterior } = restoredPosterior(model, collapsed, pooled, runs[0].maximum, options.seed);
-  const summaries = posteriorSummaries(draws, model.space.names, options.model, options.redshift);
   const diagnostics = combinedDiagnostics(runs, (clock() - start) / 1000);
+  requireKeptDraws(draws, diagnostics);
+  const summaries = posteriorSummaries(draws, model.space.names, options.model, options.redshift);
   const result = assembleFitResult({
     options,
     lightCurve,

@@ -12,6 +12,10 @@ export interface FitOptions {
   readonly jitter?: boolean;
   /** Source redshift: adds the rest-frame timescale tau / (1 + z) to damped-random-walk results. */
   readonly redshift?: number;
+  /** Shortest period searched and allowed (periodic models); default twice the typical visit spacing. */
+  readonly minimumPeriod?: number;
+  /** Longest period searched and allowed; default the baseline (oscillator) or half of it (rotation). */
+  readonly maximumPeriod?: number;
   /** Student-t noise with per-point outlier probabilities instead of Gaussian noise (needs an error column). */
   readonly robust?: boolean;
   /** "nuts" or "ensemble" (default: DEFAULT_SAMPLER of the inference layer). */

@@ -1,20 +1,16 @@
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { computePeriodogram } from "../periodogram/periodogram.js";
-import type { DataSummary } from "./data-summary.js";
+import type { PeriodRange } from "./period-range.js";
 
 /**
  * The periodogram stage of a fit: the period of the highest peak of a generalised Lomb-Scargle
- * periodogram (Zechmeister & Kurster 2009), the first guess of a periodic model's period. Periods from
- * half the baseline down to twice the smallest spacing are searched. Undefined when nothing peaks.
+ * periodogram (Zechmeister & Kurster 2009) over the model's period range, the first guess of a periodic
+ * model's period. Undefined when nothing peaks (or the values have no scatter).
  */
-export function periodogramPeriod(lightCurve: LightCurve, summary: DataSummary): number | undefined {
+export function periodogramPeriod(lightCurve: LightCurve, range: PeriodRange): number | undefined {
   const peaks = computePeriodogram(
     { time: lightCurve.time, value: lightCurve.value, ...(lightCurve.error ? { error: lightCurve.error } : {}) },
-    {
-      minimumFrequency: 2 / summary.baseline,
-      maximumFrequency: 1 / (2 * Math.max(summary.minimumSpacing, summary.baseline * 1e-6)),
-      peaks: 1,
-    },
+    { minimumFrequency: 1 / range.longest, maximumFrequency: 1 / range.shortest, peaks: 1 },
   ).peaks;
   return peaks[0]?.period;
 }

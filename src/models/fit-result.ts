@@ -91,6 +91,8 @@ export interface FitDiagnostics extends SamplerDiagnostics {
   readonly sampler: SamplerKind;
   /** "converged", "budget" (out of evaluations) or "cancelled". */
   readonly stopReason: StopReason;
+  /** Posterior draws kept for the summaries, over all runs (absent in results written before it was added). */
+  readonly keptDraws?: number;
 }
 
 /** The choices of a fit that shape the model (absent keys: not chosen). */

@@ -29,10 +29,11 @@ const fmt = (x: number) => (Math.abs(x) >= 1e4 || Math.abs(x) < 1e-2 ? x.toExpon
 export function fitWarnings(inputs: WarningInputs): string[] {
   const { model, summary, lightCurve, parameters, diagnostics, modes } = inputs;
   const warnings: string[] = [];
-  if (!Number.isFinite(diagnostics.rhatMax) || !Number.isFinite(diagnostics.essMin)) {
+  if (!Number.isFinite(diagnostics.rhatMax) || !Number.isFinite(diagnostics.essMin) || !Number.isFinite(diagnostics.autocorrelationTime)) {
+    const kept = typeof diagnostics.keptDraws === "number" ? `only ${diagnostics.keptDraws} posterior draws were kept` : "too few posterior draws were kept";
     warnings.push(
-      `The budget ran out before any posterior draws were kept (${diagnostics.stopReason ?? "budget"} during warm-up): ` +
-        "the summaries are undefined; raise the budget (--max-evaluations).",
+      `The sampler stopped (${diagnostics.stopReason ?? "budget"}) before convergence and ${kept}, too few to compute ` +
+        "R-hat and the effective sample size: convergence is unknown and the summaries are rough; raise the budget (--max-evaluations).",
     );
   } else if (!diagnostics.converged) {
     warnings.push(

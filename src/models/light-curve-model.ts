@@ -12,6 +12,7 @@ import type { Kernel } from "../kernels/index.js";
 import { FactorizationError } from "../linalg/factorization-error.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { DataSummary } from "./data-summary.js";
+import type { PeriodRange } from "./period-range.js";
 import { dampedRandomWalkTerm, oscillatorTerm, quasiPeriodicTerm, type KernelTerm } from "./kernel-term.js";
 
 /** The models of the trade. */
@@ -31,6 +32,8 @@ export interface ModelStructure {
    * the optimiser's first start; never a prior.
    */
   readonly periodGuess?: number;
+  /** The periods allowed (the period prior's bounds); default from the cadence and baseline ({@link PeriodRange}). */
+  readonly periodRange?: PeriodRange;
 }
 
 /**
@@ -57,7 +60,8 @@ export interface LightCurveModel {
  * - damping timescales (tau, backgroundTau): log-uniform from a tenth of the median cadence to ten times the
  *   baseline (Kozlowski 2017, A&A 597, A128: timescales beyond a tenth of the baseline are biased, so the
  *   prior must allow them for the warning to be meaningful);
- * - periods: log-uniform from twice the smallest spacing to the baseline (oscillator) or half of it
+ * - periods: log-uniform over `structure.periodRange`, by default from twice the typical spacing of
+ *   visits on different nights (`summary.visitSpacing`) to the baseline (oscillator) or half of it
  *   (quasi-periodic, which needs two cycles to see a repeat: the range the fit's periodogram searches,
  *   {@link periodSearchRange}); quality: log-uniform on [0.05, 1000] for the oscillator;
  * - decayTime (quasi-periodic): log-uniform from the shortest period of that range to ten baselines, so
@@ -73,7 +77,8 @@ export function buildModel(name: ModelName, summary: DataSummary, structure: Mod
   const specs: ParameterSpec[] = [];
   const guess: Record<string, number> = {};
   const signal = Math.sqrt(Math.max(spread * spread - summary.medianError ** 2, 0.01 * spread * spread));
-  const shortestPeriod = periodSearchRange(summary).shortest;
+  const shortestPeriod = structure.periodRange?.shortest ?? periodSearchRange(summary).shortest;
+  const longestPeriod = (cycles: number) => structure.periodRange?.longest ?? baseline / cycles;
   const clampPeriod = (value: number | undefined, upper: number) =>
     value !== undefined && value > shortestPeriod && value < upper ? value : Math.sqrt(shortestPeriod * upper);
   if (name === "drw") {
@@ -83,13 +88,13 @@ export function buildModel(name: ModelName, summary: DataSummary, structure: Mod
   } else if (name === "oscillator") {
     terms.push(oscillatorTerm());
     specs.push(
-      { name: "period", prior: logUniformPrior(shortestPeriod, baseline) },
+      { name: "period", prior: logUniformPrior(shortestPeriod, longestPeriod(1)) },
       { name: "quality", prior: logUniformPrior(0.05, 1000) },
       { name: "sigma", prior: amplitude() },
     );
-    Object.assign(guess, { period: clampPeriod(structure.periodGuess, baseline), quality: 2, sigma: signal });
+    Object.assign(guess, { period: clampPeriod(structure.periodGuess, longestPeriod(1)), quality: 2, sigma: signal });
   } else if (name === "quasi-periodic") {
-    const range = periodSearchRange(summary);
+    const range = { shortest: shortestPeriod, longest: longestPeriod(2) };
     const decayPrior = logUniformPrior(range.shortest, 10 * baseline);
     const period = clampPeriod(structure.periodGuess, range.longest);
     terms.push(quasiPeriodicTerm());
@@ -146,12 +151,13 @@ export function buildModel(name: ModelName, summary: DataSummary, structure: Mod
 }
 
 /**
- * The periods a periodic model considers, in the input time unit: from twice the smallest spacing (at least
- * a millionth of the baseline) to half the baseline (two cycles), the range over which the fit searches the
- * periodogram for its first guess. The oscillator's prior reaches to the full baseline.
+ * The periods a periodic model considers by default, in the input time unit: from twice the typical
+ * spacing of visits on different nights (`summary.visitSpacing`; at least a millionth of the baseline) to
+ * half the baseline (two cycles). The fit passes its own range (`ModelStructure.periodRange`, from
+ * `period-range.ts`, which honours --min-period and --max-period); the oscillator's reaches to the full baseline.
  */
 export function periodSearchRange(summary: DataSummary): { readonly shortest: number; readonly longest: number } {
-  return { shortest: Math.max(2 * summary.minimumSpacing, summary.baseline * 1e-6), longest: summary.baseline / 2 };
+  return { shortest: Math.max(2 * summary.visitSpacing, summary.baseline * 1e-6), longest: summary.baseline / 2 };
 }
 
 /**

@@ -120,6 +120,7 @@ function diagnostics(f: Fields): FitDiagnostics {
   const stopReason = f.text("stopReason");
   if (stopReason !== "converged" && stopReason !== "budget" && stopReason !== "cancelled")
     throw f.wrong("stopReason", '"converged", "budget" or "cancelled"');
+  const keptDraws = f.optional("keptDraws", (g, key) => g.count(key));
   return {
     converged: f.flag("converged"),
     rhatMax: f.number("rhatMax"),
@@ -131,6 +132,7 @@ function diagnostics(f: Fields): FitDiagnostics {
     seconds: f.number("seconds"),
     sampler,
     stopReason,
+    ...(keptDraws !== undefined ? { keptDraws } : {}),
   };
 }
 

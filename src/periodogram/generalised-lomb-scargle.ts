@@ -9,7 +9,7 @@ import { normalisedWeights, weightedMeanTime, type SampledSeries } from "./time-
  */
 
 /** Data prepared once for many frequencies: centred times, weights, weighted centred values. */
-interface PreparedSeries {
+export interface PreparedSeries {
   readonly n: number;
   /** t_i - t_ref, with t_ref the weighted mean time. */
   readonly dt: Float64Array;
@@ -20,7 +20,11 @@ interface PreparedSeries {
   readonly yy: number;
 }
 
-function prepare(series: SampledSeries): PreparedSeries {
+/**
+ * Centres the times on their weighted mean and the values on their weighted mean, with normalised
+ * weights 1 / error^2 (ZK09 eq. 4). Throws a RangeError for fewer than 3 points or values without scatter.
+ */
+export function prepareSeries(series: SampledSeries): PreparedSeries {
   const w = normalisedWeights(series);
   const n = w.length;
   if (n < 3) throw new RangeError(`a periodogram needs at least 3 points, got ${n}`);
@@ -54,7 +58,7 @@ function prepare(series: SampledSeries): PreparedSeries {
  * p = (SS YC^2 + CC YS^2 - 2 CS YC YS) / (YY D). When the sine or cosine column is degenerate (f = 0,
  * or the Nyquist frequency of even sampling) the one-column fit is used.
  */
-function powerFromSums(c: number, s: number, yc: number, ys: number, wcc: number, wcs: number, yy: number): number {
+export function powerFromSums(c: number, s: number, yc: number, ys: number, wcc: number, wcs: number, yy: number): number {
   const cc = wcc - c * c;
   const ss = 1 - wcc - s * s;
   const cs = wcs - c * s;
@@ -80,7 +84,7 @@ function powerFromSums(c: number, s: number, yc: number, ys: number, wcc: number
  * @example glsPowerAt({ time, value, error }, [0.1, 0.2])
  */
 export function glsPowerAt(series: SampledSeries, frequencies: ArrayLike<number>): Float64Array {
-  const { n, dt, w, wy, yy } = prepare(series);
+  const { n, dt, w, wy, yy } = prepareSeries(series);
   const power = new Float64Array(frequencies.length);
   for (let k = 0; k < frequencies.length; k++) {
     const omega = 2 * Math.PI * frequencies[k];
@@ -113,7 +117,7 @@ const RESYNC_INTERVAL = 64;
  * @returns power p(f) in [0, 1] at each grid frequency (ZK09 normalisation)
  */
 export function glsPower(series: SampledSeries, grid: FrequencyGrid): Float64Array {
-  const { n, dt, w, wy, yy } = prepare(series);
+  const { n, dt, w, wy, yy } = prepareSeries(series);
   const cos = new Float64Array(n);
   const sin = new Float64Array(n);
   const stepCos = new Float64Array(n);

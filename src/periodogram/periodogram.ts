@@ -1,5 +1,6 @@
 import { baluevFalseAlarm, baluevPowerLevel, timeVariance, type SearchExtent } from "./false-alarm-probability.js";
 import { automaticFrequencyGrid, gridFrequencies, type FrequencyGrid, type FrequencyGridOptions } from "./frequency-grid.js";
+import { fastGlsIsCheaper, fastGlsPower } from "./fast-lomb-scargle.js";
 import { glsPower, glsPowerAt } from "./generalised-lomb-scargle.js";
 import { findPeaks, type PeakOptions, type PeriodogramPeak } from "./periodogram-peaks.js";
 import { fitSinusoid, type SinusoidFit } from "./sinusoid-fit.js";
@@ -50,7 +51,7 @@ export interface Periodogram {
  */
 export function computePeriodogram(series: SampledSeries, options: PeriodogramOptions = {}): Periodogram {
   const grid = options.grid ?? automaticFrequencyGrid(series, options);
-  const power = glsPower(series, grid);
+  const power = fastGlsIsCheaper(series.time.length, grid.count) ? fastGlsPower(series, grid) : glsPower(series, grid);
   let first = Number.POSITIVE_INFINITY;
   let last = Number.NEGATIVE_INFINITY;
   for (let i = 0; i < series.time.length; i++) {
@@ -63,13 +64,17 @@ export function computePeriodogram(series: SampledSeries, options: PeriodogramOp
     maximumFrequency: grid.start + (grid.count - 1) * grid.step,
     timeVariance: timeVariance(series),
   };
+  const wanted = options.peaks ?? 5;
   const peakOptions: PeakOptions = {
-    count: options.peaks ?? 5,
+    // A coarse grid can rank peaks wrongly: refine more candidates than asked for, then keep the best.
+    count: grid.fineStep !== undefined ? 4 * wanted : wanted,
     minimumSeparation: options.peakSeparation ?? (baseline > 0 ? 1 / baseline : 5 * grid.step),
   };
-  const peaks = findPeaks(grid, power, peakOptions).map((peak): RankedPeak => {
+  const candidates = findPeaks(grid, power, peakOptions).map((peak) => (grid.fineStep !== undefined ? refinedPeak(series, grid, peak) : peak));
+  if (grid.fineStep !== undefined) candidates.sort((a, b) => b.power - a.power).splice(wanted);
+  const peaks = candidates.map((peak): RankedPeak => {
     let { frequency, power: height } = peak;
-    if (!peak.atEdge) {
+    if (!peak.atEdge && grid.fineStep === undefined) {
       const exact = glsPowerAt(series, [frequency])[0];
       if (exact >= power[peak.index]) height = exact;
       else {
@@ -96,4 +101,23 @@ export function computePeriodogram(series: SampledSeries, options: PeriodogramOp
     n: extent.n,
     baseline,
   };
+}
+
+/** Frequencies evaluated around a coarse peak at most: wider windows are sampled this finely. */
+const REFINEMENT_POINTS = 401;
+
+/**
+ * A peak of a coarse grid refined at the full resolution: the exact power on a grid of step
+ * `grid.fineStep` (or {@link REFINEMENT_POINTS} points, if that is coarser) over the coarse steps on
+ * either side, and the highest point of it.
+ */
+function refinedPeak(series: SampledSeries, grid: FrequencyGrid, peak: PeriodogramPeak): PeriodogramPeak {
+  const low = Math.max(grid.start, peak.frequency - grid.step);
+  const high = Math.min(grid.start + (grid.count - 1) * grid.step, peak.frequency + grid.step);
+  const count = Math.min(REFINEMENT_POINTS, Math.floor((high - low) / grid.fineStep!) + 1);
+  const frequencies = Float64Array.from({ length: count }, (_, k) => (count > 1 ? low + ((high - low) * k) / (count - 1) : low));
+  const power = glsPowerAt(series, frequencies);
+  let best = 0;
+  for (let k = 1; k < count; k++) if (power[k] > power[best]) best = k;
+  return { ...peak, frequency: frequencies[best], period: 1 / frequencies[best], power: power[best] };
 }

@@ -97,3 +97,12 @@ export function formatSignificant(value: number, digits = 3): string {
       : String(rounded);
   return signed(text);
 }
+
+/**
+ * A convergence figure (R-hat, ESS, autocorrelation time) for text: `digits` significant digits, or
+ * "not computed" when it is missing or not finite (too few draws to compute it; a result file stores
+ * NaN as null), so that no summary prints "NaN" as if it were a value.
+ */
+export function convergenceFigure(value: number | null | undefined, digits = 4): string {
+  return typeof value === "number" && Number.isFinite(value) ? formatSignificant(value, digits) : "not computed";
+}

@@ -1,5 +1,5 @@
 import type { FitDiagnostics, ParameterSummary } from "../models/fit-result.js";
-import { formatAtDigit, formatMeasurement, formatSignificant, lastDigitPower } from "./format-measurement.js";
+import { convergenceFigure, formatAtDigit, formatMeasurement, formatSignificant, lastDigitPower } from "./format-measurement.js";
 import { escapeHtml } from "./html-escape.js";
 import { inlineSvg } from "./inline-svg.js";
 import { parameterDisplay, timeUnitOf } from "./parameter-display.js";
@@ -22,7 +22,7 @@ export function reportWarnings(input: ReportInput): string[] {
   const d = input.result.diagnostics;
   if (!d.converged && !warnings.some((w) => /converge/i.test(w))) {
     warnings.unshift(
-      `The sampler did not converge (largest R-hat ${formatSignificant(d.rhatMax, 4)}): the posterior summaries are not reliable.`,
+      `The sampler did not converge (largest R-hat ${convergenceFigure(d.rhatMax)}): the posterior summaries are not reliable.`,
     );
   }
   return warnings;
@@ -161,12 +161,12 @@ function diagnosticsTable(d: FitDiagnostics): string {
     ["Converged", d.converged ? "yes" : "no", d.converged ? "" : "bad"],
     [
       "Largest rank-normalised split R-hat",
-      formatSignificant(d.rhatMax, 4),
+      convergenceFigure(d.rhatMax),
       d.rhatMax < (d.rhatThreshold ?? RHAT_THRESHOLD) ? "" : "bad",
     ],
     ["R-hat bound for this number of chains", formatSignificant(d.rhatThreshold ?? RHAT_THRESHOLD, 4), ""],
-    ["Smallest effective sample size", formatSignificant(d.essMin, 4), ""],
-    ["Largest integrated autocorrelation time (steps)", formatSignificant(d.autocorrelationTime, 3), ""],
+    ["Smallest effective sample size", convergenceFigure(d.essMin), ""],
+    ["Largest integrated autocorrelation time (steps)", convergenceFigure(d.autocorrelationTime, 3), ""],
     ["Mean acceptance rate", formatSignificant(d.acceptance, 3), ""],
     ["Likelihood evaluations (a gradient counted at its cost)", String(d.likelihoodEvaluations), ""],
     ["Wall time (s)", formatSignificant(d.seconds, 3), ""],

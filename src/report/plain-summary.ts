@@ -1,4 +1,4 @@
-import { formatMeasurement, formatSignificant } from "./format-measurement.js";
+import { convergenceFigure, formatMeasurement, formatSignificant } from "./format-measurement.js";
 import { parameterDisplay, timeUnitOf } from "./parameter-display.js";
 import type { ReportInput } from "./report-input.js";
 
@@ -73,8 +73,8 @@ export function plainSummary(input: ReportInput): string[] {
   const d = result.diagnostics;
   sentences.push(
     d.converged
-      ? `The sampler converged: the largest R-hat is ${d.rhatMax.toFixed(3)} and the smallest effective sample size is ${Math.round(d.essMin)}.`
-      : `The sampler did not converge (largest R-hat ${d.rhatMax.toFixed(3)}, target below ${+(d.rhatThreshold ?? RHAT_THRESHOLD).toPrecision(5)}; smallest effective sample size ${Math.round(d.essMin)}): treat these numbers as provisional.`,
+      ? `The sampler converged: the largest R-hat is ${convergenceFigure(d.rhatMax)} and the smallest effective sample size is ${convergenceFigure(d.essMin, 3)}.`
+      : `The sampler did not converge (largest R-hat ${convergenceFigure(d.rhatMax)}, target below ${+(d.rhatThreshold ?? RHAT_THRESHOLD).toPrecision(5)}; smallest effective sample size ${convergenceFigure(d.essMin, 3)}): treat these numbers as provisional.`,
   );
   const w = result.warnings.length;
   if (w > 0) sentences.push(`There ${w === 1 ? "is 1 warning" : `are ${w} warnings`}; read ${w === 1 ? "it" : "them"} before using these numbers.`);

@@ -3,7 +3,7 @@ import { MODEL_NAMES, type ModelName } from "../../models/light-curve-model.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { UsageError } from "../../errors/usage-error.js";
 import { readInput } from "../read-input.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, seedOption, singleInput, textOption } from "../verb-arguments.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, PERIOD_HELP, PERIOD_OPTIONS, periodLimitsFrom, seedOption, singleInput, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium compare FILE [--models drw,oscillator,quasi-periodic] [options]
@@ -19,6 +19,7 @@ Options:
   --models LIST           comma-separated models (default drw,oscillator,quasi-periodic)
   --background drw        add a damped-random-walk background to every model
   --seed N                seed of the optimiser's random starts (default 1)
+${PERIOD_HELP}
   --out FILE              write the comparison as JSON here
   --quiet                 do not print the table
 ${COLUMN_HELP}
@@ -29,6 +30,7 @@ Example:
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
+  ...PERIOD_OPTIONS,
   models: { type: "string" },
   background: { type: "string" },
   seed: { type: "string" },
@@ -51,10 +53,11 @@ export const verb: CliVerb = {
     const background = textOption(values, "background");
     if (background !== undefined && background !== "drw") throw new UsageError(`--background must be drw, got "${background}"`);
     const seed = seedOption(values);
+    const periodLimits = periodLimitsFrom(values);
     const lightCurves = await readInput(file, values, io, quiet);
     const comparisons = lightCurves.map((lightCurve) => ({
       ...(lightCurve.band !== undefined ? { band: lightCurve.band } : {}),
-      ...compareModels(lightCurve, models as ModelName[], { seed, ...(background ? { background: "drw" as const } : {}) }),
+      ...compareModels(lightCurve, models as ModelName[], { seed, periodLimits, ...(background ? { background: "drw" as const } : {}) }),
     }));
     if (!quiet) {
       for (const comparison of comparisons) {

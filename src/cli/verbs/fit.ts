@@ -13,7 +13,19 @@ import { UsageError } from "../../errors/usage-error.js";
 import { fitSummaryText } from "../fit-summary-text.js";
 import { samplerProgressBar } from "../progress-bar.js";
 import { readInput } from "../read-input.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, numberOption, parseVerbArguments, seedOption, singleInput, textOption, type VerbArguments } from "../verb-arguments.js";
+import {
+  COLUMN_HELP,
+  COLUMN_OPTIONS,
+  numberOption,
+  parseVerbArguments,
+  PERIOD_HELP,
+  PERIOD_OPTIONS,
+  periodLimitsFrom,
+  seedOption,
+  singleInput,
+  textOption,
+  type VerbArguments,
+} from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium fit FILE --model drw|oscillator|quasi-periodic [options]
@@ -34,6 +46,7 @@ Options:
                           probability (needs an error column)
   --sampler nuts|ensemble the sampler (default ${DEFAULT_SAMPLER}, the one bench/samplers-compare.ts measured cheaper)
   --max-evaluations N     budget in log-likelihood evaluations (default 2e6)
+${PERIOD_HELP}
   --quiet                 no progress bar, no summary on stderr
 ${COLUMN_HELP}
 
@@ -43,6 +56,7 @@ Example (an invented quasar of the Lanternfield Deep Survey):
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
+  ...PERIOD_OPTIONS,
   model: { type: "string" },
   background: { type: "string" },
   seed: { type: "string" },
@@ -80,6 +94,7 @@ export function fitOptionsFrom(values: VerbArguments["values"], required = true)
     ...(redshift !== undefined ? { redshift } : {}),
     ...(sampler ? { sampler: sampler as "nuts" | "ensemble" } : {}),
     ...(maxEvaluations !== undefined ? { maxEvaluations } : {}),
+    ...periodLimitsFrom(values),
   };
 }
 

@@ -13,7 +13,8 @@ weights from the errors, a floating mean) on an automatic frequency grid (Vander
 2008 (MNRAS 385, 1279).
 
 Options:
-  --min-period P          shortest period searched (default: twice the median spacing)
+  --min-period P          shortest period searched (default: twice the typical spacing of visits on
+                          different nights, not of visits clustered minutes apart)
   --max-period P          longest period searched (default: the baseline)
   --oversampling K        grid points per peak width (default 5)
   --peaks N               peaks to list (default 5)

@@ -13,7 +13,7 @@ import { samplerProgressBar } from "../progress-bar.js";
 import { readInput } from "../read-input.js";
 import { readFitResult } from "../read-result.js";
 import { parseGrid, readTimesFile } from "../requested-times.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, PERIOD_OPTIONS, singleInput, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 import { fitOptionsFrom } from "./fit.js";
 
@@ -31,7 +31,8 @@ Options:
   --grid START:STOP:STEP  requested times on a regular grid
   --draws N               posterior draws in the mixture (default 200)
   --out FILE              write the CSV here (default: standard output)
-  --background drw, --seed N, --sampler, --max-evaluations, --jitter, --robust   as for fit
+  --background drw, --seed N, --sampler, --max-evaluations, --jitter, --robust,
+  --min-period P, --max-period P                                    as for fit
   --quiet                 no progress bar, no summary on stderr
 ${COLUMN_HELP}
 
@@ -41,6 +42,7 @@ Example:
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
+  ...PERIOD_OPTIONS,
   model: { type: "string" },
   from: { type: "string" },
   at: { type: "string" },
