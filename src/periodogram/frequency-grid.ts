@@ -10,8 +10,9 @@ export interface FrequencyGrid {
   readonly count: number;
   /**
    * Present when the grid is coarser than a full search would be (the full grid was over
-   * `maximumCount`): the step the full grid would have had. Peaks found on it must be refined on a
-   * local grid this fine ({@link computePeriodogram} does).
+   * `maximumCount`): the step of the full grid, of which `step` is a whole multiple r. Coarse point k
+   * stands for the fine points k r to k r + r - 1 ({@link computePeriodogram} gives it their largest
+   * power and refines its peaks at the fine step).
    */
   readonly fineStep?: number;
 }
@@ -60,7 +61,11 @@ export function automaticFrequencyGrid(series: Pick<SampledSeries, "time">, opti
   const count = Math.floor((maximum - minimum) / step + 1e-9) + 1;
   const limit = options.maximumCount ?? 2_000_000;
   if (!(Number.isInteger(limit) && limit >= 2)) throw new RangeError(`maximumCount must be an integer >= 2, got ${limit}`);
-  if (count > limit) return { start: minimum, step: (maximum - minimum) / (limit - 1), count: limit, fineStep: step };
+  if (count > limit) {
+    // Each coarse point stands for `ratio` fine ones (computePeriodogram keeps their largest power).
+    const ratio = Math.ceil(count / limit);
+    return { start: minimum, step: ratio * step, count: Math.ceil(count / ratio), fineStep: step };
+  }
   return { start: minimum, step, count };
 }
 

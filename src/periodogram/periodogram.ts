@@ -51,7 +51,7 @@ export interface Periodogram {
  */
 export function computePeriodogram(series: SampledSeries, options: PeriodogramOptions = {}): Periodogram {
   const grid = options.grid ?? automaticFrequencyGrid(series, options);
-  const power = fastGlsIsCheaper(series.time.length, grid.count) ? fastGlsPower(series, grid) : glsPower(series, grid);
+  const power = grid.fineStep !== undefined ? maxPooledPower(series, grid, grid.fineStep) : gridPower(series, grid);
   let first = Number.POSITIVE_INFINITY;
   let last = Number.NEGATIVE_INFINITY;
   for (let i = 0; i < series.time.length; i++) {
@@ -101,6 +101,35 @@ export function computePeriodogram(series: SampledSeries, options: PeriodogramOp
     n: extent.n,
     baseline,
   };
+}
+
+/** The power on a grid, by the fast sums where they are cheaper than the direct ones. */
+function gridPower(series: SampledSeries, grid: FrequencyGrid): Float64Array {
+  return fastGlsIsCheaper(series.time.length, grid.count) ? fastGlsPower(series, grid) : glsPower(series, grid);
+}
+
+/** Fine frequencies per band of a coarse-then-fine search (bounds the memory of one pass). */
+const BAND_POINTS = 1 << 18;
+
+/**
+ * The power of a coarse grid whose every point stands for r = step / fineStep fine points: the largest
+ * power among them, computed band by band on the fine grid, so that no peak between coarse points is
+ * lost and memory stays bounded by {@link BAND_POINTS} whatever the size of the full search.
+ */
+function maxPooledPower(series: SampledSeries, grid: FrequencyGrid, fineStep: number): Float64Array {
+  const ratio = Math.round(grid.step / fineStep);
+  const cellsPerBand = Math.max(1, Math.floor(BAND_POINTS / ratio));
+  const pooled = new Float64Array(grid.count);
+  for (let cell = 0; cell < grid.count; cell += cellsPerBand) {
+    const cells = Math.min(cellsPerBand, grid.count - cell);
+    const band = gridPower(series, { start: grid.start + cell * grid.step, step: fineStep, count: cells * ratio });
+    for (let c = 0; c < cells; c++) {
+      let best = 0;
+      for (let j = c * ratio; j < (c + 1) * ratio; j++) best = Math.max(best, band[j]);
+      pooled[cell + c] = best;
+    }
+  }
+  return pooled;
 }
 
 /** Frequencies evaluated around a coarse peak at most: wider windows are sampled this finely. */

@@ -1,12 +1,12 @@
 import { describe, expect, it } from "vitest";
-import { automaticFrequencyGrid, medianSpacing } from "../../src/periodogram/frequency-grid.js";
+import { automaticFrequencyGrid, medianSpacing, typicalVisitSpacing } from "../../src/periodogram/frequency-grid.js";
 import { findPeaks } from "../../src/periodogram/periodogram-peaks.js";
 import { computePeriodogram } from "../../src/periodogram/periodogram.js";
 import { seasonalGroundCadence } from "../../src/lightcurve/cadence.js";
 import { createRng } from "../../src/random/rng.js";
 
 describe("automatic frequency grid (VanderPlas 2018, sect. 7.1)", () => {
-  it("spaces frequencies 1 / (oversampling x baseline) up to the pseudo-Nyquist frequency", () => {
+  it("spaces frequencies 1 / (oversampling x baseline) up to the pseudo-Nyquist frequency of the visits", () => {
     const time = [0, 1, 2, 4, 5, 7, 100];
     const grid = automaticFrequencyGrid({ time });
     expect(grid.step).toBeCloseTo(1 / (5 * 100), 15);
@@ -14,12 +14,18 @@ describe("automatic frequency grid (VanderPlas 2018, sect. 7.1)", () => {
     // Median spacing of distinct times is 1 (gaps 1,1,2,1,2,93), so f_max = 0.5 (common practice).
     expect(medianSpacing([0, 1, 2, 4, 5, 7, 100])).toBe(1.5);
     expect(medianSpacing([0, 0, 1, 2, 3])).toBe(1);
+    // The typical visit spacing counts the gaps of at least a tenth of the mean spacing 100 / 6: the gaps
+    // 2, 2 and 93, median 2, so f_max = 0.5 / 2 (twice the visit spacing is the shortest period).
+    expect(typicalVisitSpacing(time)).toBe(2);
     const last = grid.start + (grid.count - 1) * grid.step;
-    expect(last).toBeLessThanOrEqual(0.5 / 1.5 + 1e-12);
-    expect(last).toBeGreaterThan(0.5 / 1.5 - grid.step);
+    expect(last).toBeLessThanOrEqual(0.5 / 2 + 1e-12);
+    expect(last).toBeGreaterThan(0.5 / 2 - grid.step);
     expect(automaticFrequencyGrid({ time }, { oversampling: 10, maximumFrequency: 2 }).step).toBeCloseTo(1 / 1000, 15);
     expect(() => automaticFrequencyGrid({ time: [3, 3] })).toThrow(/distinct/);
-    expect(() => automaticFrequencyGrid({ time }, { maximumFrequency: 1e4, maximumCount: 1000 })).toThrow(/limit 1000/);
+    // Over the limit: a coarse grid of at most the limit, with the fine step to refine peaks at.
+    const coarse = automaticFrequencyGrid({ time }, { maximumFrequency: 1e4, maximumCount: 1000 });
+    expect(coarse.count).toBeLessThanOrEqual(1000);
+    expect(coarse.fineStep).toBeCloseTo(1 / 500, 15);
   });
 });
 
