@@ -25,7 +25,7 @@ import type { PosteriorSample } from "../../src/inference/index.js";
  */
 const rng = createRng("honest-diagnostics");
 const time = seasonalGroundCadence({ seasons: 2, revisitInterval: 4 }, rng);
-const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 30 }), time, { mean: 18 }).sample(rng);
+const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 30 }), time, { mean: 18 }).priorDraw(rng);
 const lightCurve = observeMagnitudes(time, truth, { depth5Sigma: 22 }, rng, "honest diagnostics");
 
 function fitWith(maxEvaluations: number): DetailedFit {
@@ -83,7 +83,7 @@ describe("honest diagnostics", () => {
     const stuck = {
       ...run,
       stopReason: "budget",
-      diagnostics: { ...run.diagnostics, converged: false, rhatMax: report.rhatMax, essMin: report.essMin, autocorrTime: report.autocorrTime },
+      diagnostics: { ...run.diagnostics, converged: false, rhatMax: report.rhatMax, essMin: report.essMin, autocorrelationTime: report.autocorrelationTime },
     } as PosteriorSample;
     const diagnostics = combinedDiagnostics([stuck], 0);
     expect(diagnostics.converged).toBe(false);
