@@ -61,7 +61,7 @@ export function plainSummary(input: ReportInput): string[] {
           : `, long enough for an unbiased estimate of it.`),
     );
   }
-  sentences.push(...rotationSentences(input));
+  for (const sentence of rotationSentences(input)) sentences.push(sentence);
   const quality = result.parameters["quality"];
   if (result.model === "oscillator" && quality !== undefined && quality.median < 0.5) {
     sentences.push("The quality factor is below 1/2: the variability is overdamped and shows no preferred period.");
