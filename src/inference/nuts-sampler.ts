@@ -4,7 +4,7 @@ import { DualAveraging } from "./dual-averaging.js";
 import { hasGradient, type DifferentiablePosteriorTarget, type PosteriorTarget } from "./posterior-target.js";
 import type { MarkovSampler } from "./markov-sampler.js";
 import { nutsTransition, type PhasePoint } from "./nuts-transition.js";
-import { planWarmup, RunningVariance } from "./warmup-schedule.js";
+import { planWarmup, WindowSpread, type WarmupPlan } from "./warmup-schedule.js";
 
 /** Options of {@link createNutsSampler}. */
 export interface NutsSamplerOptions {
@@ -23,6 +23,8 @@ export interface NutsSamplerOptions {
    * first window ends.
    */
   readonly initialInverseMass?: Float64Array;
+  /** Where the mass-matrix windows lie (default {@link planWarmup} of `warmup`); benchmarks compare plans. */
+  readonly warmupPlan?: WarmupPlan;
 }
 
 interface ChainState {
@@ -31,7 +33,7 @@ interface ChainState {
   stepSize: number;
   inverseMass: Float64Array;
   readonly adaptation: DualAveraging;
-  readonly variance: RunningVariance;
+  readonly variance: WindowSpread;
 }
 
 /**
@@ -96,7 +98,7 @@ export function createNutsSampler(
   const warmup = options.warmup ?? 500;
   const targetAcceptance = options.targetAcceptance ?? 0.8;
   const maxDepth = options.maxTreeDepth ?? 10;
-  const plan = planWarmup(warmup);
+  const plan = options.warmupPlan ?? planWarmup(warmup);
   const draws = new DrawStore(initial.length, d);
   const chains: ChainState[] = initial.map((q0, c) => {
     if (q0.length !== d) throw new RangeError(`NUTS: a starting point has ${q0.length} entries, expected ${d}`);
@@ -117,7 +119,7 @@ export function createNutsSampler(
       stepSize,
       inverseMass,
       adaptation: new DualAveraging(targetAcceptance, stepSize),
-      variance: new RunningVariance(d),
+      variance: new WindowSpread(d),
     };
   });
   const positions: Float64Array[] = chains.map((c) => c.point.q);

@@ -1,19 +1,41 @@
 import { describe, expect, it } from "vitest";
 import { DualAveraging } from "../../src/inference/dual-averaging.js";
-import { planWarmup, RunningVariance } from "../../src/inference/warmup-schedule.js";
+import {
+  MASS_PRIOR_DRAWS,
+  MIN_WARMUP_WINDOW,
+  planWarmup,
+  RunningVariance,
+  WARMUP_WINDOW_GROWTH,
+} from "../../src/inference/warmup-schedule.js";
 import { createRng } from "../../src/random/rng.js";
 
-describe("warm-up plan", () => {
-  it("500 iterations: 75 step-size only, windows 25, 50, 100 and a stretched last one, 50 terminal (worked by hand)", () => {
-    // Windows start at 75 and double: [75,100), [100,150), [150,250); the next, [250,450), would be
-    // followed by one of 400 that cannot fit before 450, so it runs to 450 = 500 - 50.
+describe("warm-up plan (the schedule documented at planWarmup)", () => {
+  it("500 iterations: opening 63, windows of 30, 89, 268 tiling [63, 450), closing 50 (worked by hand)", () => {
+    // span = 500 - 63 - 50 = 387; windows s, 3s, 9s with 13 s = 387 give s = 29.8 >= 20, while four
+    // windows (40 s = 387, s = 9.7) would fall below the 20-draw minimum.
     const plan = planWarmup(500);
-    expect(plan.windowStarts).toEqual([75, 100, 150, 250]);
-    expect(plan.windowEnds).toEqual([100, 150, 250, 450]);
+    expect(plan.windowStarts).toEqual([63, 93, 182]);
+    expect(plan.windowEnds).toEqual([93, 182, 450]);
   });
 
-  it("short warm-ups use 15% / 75% / 10% and very short ones no mass-matrix window", () => {
-    expect(planWarmup(100)).toEqual({ windowStarts: [15], windowEnds: [90] });
+  it("windows tile the middle span exactly, grow about threefold and never drop below MIN_WARMUP_WINDOW", () => {
+    for (let warmup = 2 * MIN_WARMUP_WINDOW; warmup <= 5000; warmup += 37) {
+      const { windowStarts, windowEnds } = planWarmup(warmup);
+      expect(windowStarts[0]).toBe(Math.round(warmup / 8));
+      expect(windowEnds[windowEnds.length - 1]).toBe(warmup - Math.round(warmup / 10));
+      for (let w = 0; w < windowStarts.length; w++) {
+        expect(windowEnds[w]! - windowStarts[w]!).toBeGreaterThanOrEqual(MIN_WARMUP_WINDOW);
+        if (w > 0) {
+          expect(windowStarts[w]).toBe(windowEnds[w - 1]);
+          const ratio = (windowEnds[w]! - windowStarts[w]!) / (windowEnds[w - 1]! - windowStarts[w - 1]!);
+          expect(Math.abs(ratio - WARMUP_WINDOW_GROWTH)).toBeLessThan(0.2);
+        }
+      }
+    }
+  });
+
+  it("very short warm-ups adapt the step size only", () => {
+    expect(planWarmup(2 * MIN_WARMUP_WINDOW - 1)).toEqual({ windowStarts: [], windowEnds: [] });
     expect(planWarmup(10)).toEqual({ windowStarts: [], windowEnds: [] });
   });
 });
@@ -29,7 +51,8 @@ describe("running variance (Welford 1962)", () => {
       const mean = rows.reduce((a, r) => a + r[i]!, 0) / n;
       const variance = rows.reduce((a, r) => a + (r[i]! - mean) ** 2, 0) / (n - 1);
       const target = [0.5, 2e-4][i]!;
-      const expected = (n / (n + 5)) * variance + (5 / (n + 5)) * target;
+      // Conjugate shrinkage (Gelman et al. 2013, sec. 3.3): (nu0 target + (n - 1) s^2) / (nu0 + n - 1).
+      const expected = (MASS_PRIOR_DRAWS * target + (n - 1) * variance) / (MASS_PRIOR_DRAWS + n - 1);
       // Values near 1e6 with spread 0.01 carry only about 8 significant digits of their deviations.
       expect(acc.regularizedVariance(Float64Array.of(0.5, 2e-4))[i]! / expected).toBeCloseTo(1, 7);
     }
