@@ -14,11 +14,11 @@
  * Run: npx tsx bench/nuts-warmup-compare.ts [seeds=3]
  */
 import { bulkEffectiveSampleSize } from "../src/inference/effective-sample-size.js";
-import type { LogDensity } from "../src/inference/log-density.js";
+import type { PosteriorTarget } from "../src/inference/posterior-target.js";
 import { findMaximumPosterior } from "../src/inference/maximum-posterior.js";
 import { modeScales } from "../src/inference/mode-curvature.js";
 import { createNutsSampler } from "../src/inference/nuts-sampler.js";
-import { posteriorDensity } from "../src/inference/posterior-density.js";
+import { unconstrainedPosterior } from "../src/inference/unconstrained-posterior.js";
 import { createRng } from "../src/random/rng.js";
 import { dampedRandomWalkFit } from "./samplers-gp-models.js";
 
@@ -28,7 +28,7 @@ const CHAINS = 4;
 
 interface Target {
   readonly label: string;
-  readonly density: LogDensity;
+  readonly density: PosteriorTarget;
   /** Where the chains start, before a small jitter. */
   readonly centre: Float64Array;
   /** The inverse mass a fit would start from. */
@@ -44,8 +44,8 @@ function scaledGaussian(): Target {
     label: "Gaussian, sd 1e-3..1e3",
     density: {
       dimension: sd.length,
-      logDensity: (x) => x.reduce((a, v, i) => a - (0.5 * v * v) / (sd[i]! * sd[i]!), 0),
-      logDensityAndGradient: (x, g) => {
+      logPosterior: (x) => x.reduce((a, v, i) => a - (0.5 * v * v) / (sd[i]! * sd[i]!), 0),
+      logPosteriorAndGradient: (x, g) => {
         let lp = 0;
         for (let i = 0; i < x.length; i++) {
           g[i] = -x[i]! / (sd[i]! * sd[i]!);
@@ -101,7 +101,7 @@ function runNuts(target: Target, seed: number, way: "schedule" | "oracle" | "no 
 /** The damped-random-walk fit of the sampler benchmark, with its posterior variances from a long pilot run. */
 function dampedRandomWalkTarget(): Target {
   const fit = dampedRandomWalkFit(250);
-  const density = posteriorDensity(fit.space, fit.likelihood, { jacobian: true });
+  const density = unconstrainedPosterior(fit.space, fit.likelihood, { jacobian: true });
   const start = fit.space.toUnconstrained(fit.space.physicalFromRecord(fit.initial));
   const mode = findMaximumPosterior(density, { starts: [start] }).x;
   const scales = modeScales(density, mode);

@@ -4,7 +4,7 @@ import {
   MASS_PRIOR_DRAWS,
   MIN_WARMUP_WINDOW,
   planWarmup,
-  RunningVariance,
+  WindowSpread,
   WARMUP_WINDOW_GROWTH,
 } from "../../src/inference/warmup-schedule.js";
 import { createRng } from "../../src/random/rng.js";
@@ -40,22 +40,35 @@ describe("warm-up plan (the schedule documented at planWarmup)", () => {
   });
 });
 
-describe("running variance (Welford 1962)", () => {
-  it("equals the two-pass sample variance, then is shrunk as documented", () => {
+describe("window spread (normal-consistent interquartile range)", () => {
+  it("estimates the standard deviation of normal draws: IQR = 2 Phi^-1(3/4) sd = 1.349 sd (normal quantile, common practice)", () => {
     const rng = createRng(4);
-    const rows = Array.from({ length: 57 }, () => Float64Array.of(3 + rng.normal(), 1e6 + 0.01 * rng.normal()));
-    const acc = new RunningVariance(2);
-    rows.forEach((r) => acc.add(r));
-    const n = rows.length;
-    for (let i = 0; i < 2; i++) {
-      const mean = rows.reduce((a, r) => a + r[i]!, 0) / n;
-      const variance = rows.reduce((a, r) => a + (r[i]! - mean) ** 2, 0) / (n - 1);
-      const target = [0.5, 2e-4][i]!;
-      // Conjugate shrinkage (Gelman et al. 2013, sec. 3.3): (nu0 target + (n - 1) s^2) / (nu0 + n - 1).
-      const expected = (MASS_PRIOR_DRAWS * target + (n - 1) * variance) / (MASS_PRIOR_DRAWS + n - 1);
-      // Values near 1e6 with spread 0.01 carry only about 8 significant digits of their deviations.
-      expect(acc.regularizedVariance(Float64Array.of(0.5, 2e-4))[i]! / expected).toBeCloseTo(1, 7);
-    }
+    const spread = new WindowSpread(2);
+    for (let i = 0; i < 20_000; i++) spread.add(Float64Array.of(3 + rng.normal(), 1e6 + 0.01 * rng.normal()));
+    // With nu0 pseudo-draws at the target the estimate is (nu0 t + (n - 1) s^2) / (nu0 + n - 1); a target
+    // equal to the true variance leaves it unbiased. The IQR of 2e4 normal draws has a relative sd near 1.1%.
+    const variance = spread.regularizedVariance(Float64Array.of(1, 1e-4));
+    expect(Math.sqrt(variance[0]!)).toBeCloseTo(1, 1);
+    expect(Math.sqrt(variance[1]!) / 0.01).toBeCloseTo(1, 1);
+  });
+
+  it("is not moved by a long tail, unlike the sample variance, and is shrunk towards the target as documented", () => {
+    const rng = createRng(5);
+    const values = Array.from({ length: 200 }, (_, i) => (i % 20 === 0 ? 50 + 50 * rng.uniform() : rng.normal()));
+    const spread = new WindowSpread(1);
+    values.forEach((v) => spread.add(Float64Array.of(v)));
+    const n = values.length;
+    const target = 4;
+    const shrunk = spread.regularizedVariance(Float64Array.of(target))[0]!;
+    // Solve the documented shrinkage for the spread itself: s^2 = ((nu0 + n - 1) v - nu0 t) / (n - 1).
+    const s2 = ((MASS_PRIOR_DRAWS + n - 1) * shrunk - MASS_PRIOR_DRAWS * target) / (n - 1);
+    const mean = values.reduce((a, v) => a + v, 0) / n;
+    const sampleVariance = values.reduce((a, v) => a + (v - mean) ** 2, 0) / (n - 1);
+    expect(Math.sqrt(s2)).toBeGreaterThan(0.8);
+    expect(Math.sqrt(s2)).toBeLessThan(1.4);
+    expect(sampleVariance).toBeGreaterThan(100);
+    spread.reset();
+    expect(spread.count).toBe(0);
   });
 });
 
