@@ -82,29 +82,6 @@ export function measureDense(engineCase: EngineCase, data: EngineData, settings:
   };
 }
 
-/** The gradient's cost in log-likelihoods. */
-export interface GradientRow {
-  readonly components: number;
-  readonly n: number;
-  /** ns per point: build + logLikelihood. */
-  readonly logLikelihood: number;
-  /** ns per point: build + logLikelihoodGradient. */
-  readonly gradient: number;
-  readonly ratio: number;
-}
-
-export function measureGradient(engineCase: EngineCase, data: EngineData, settings: TimingSettings): GradientRow {
-  const n = data.time.length;
-  const template = engineCase.kernel;
-  const values = template.parameterValues;
-  const options = { errors: data.errors, mean: data.mean };
-  const likelihood = fullLogLikelihood(engineCase, data);
-  const gradient = () =>
-    new GaussianProcess(template.withParameters(values), data.time, options).logLikelihoodGradient(data.value).value;
-  const timing = timePair(likelihood, gradient, n, n, settings);
-  return { components: engineCase.components, n, logLikelihood: timing.reference, gradient: timing.compared, ratio: timing.ratio };
-}
-
 /** Prediction cost: mean and variance at m new times given n data. */
 export interface PredictRow {
   readonly components: number;

@@ -87,18 +87,21 @@ export class NativeEngine {
     return new NativeEngine(spawn(executable, ["--serve", dataFile, ...terms]));
   }
 
-  /** Runs `repeat` evaluations: "full" = build + check + evaluate, "core" = the recursion alone. */
-  run(mode: "full" | "core", repeat: number): Promise<Batch> {
+  /**
+   * Runs `repeat` evaluations: "full" = build + check + evaluate, "core" = the recursion alone, "gradient" =
+   * log-likelihood and gradient on the prepared inputs (the gradient comes back in `gradient`).
+   */
+  run(mode: "full" | "core" | "gradient", repeat: number): Promise<Batch & { readonly gradient: readonly number[] }> {
     return new Promise((resolve, reject) => {
       const onExit = (code: number | null) =>
         reject(new Error(`engine benchmark: C program exited (${code}) ${this.stderr.trim()}`));
       this.child.once("exit", onExit);
       this.pending.push((line) => {
         this.child.off("exit", onExit);
-        const [value, seconds, cpuSeconds] = line.trim().split(/\s+/).map(Number);
+        const [value, seconds, cpuSeconds, ...gradient] = line.trim().split(/\s+/).map(Number);
         if (!Number.isFinite(seconds) || !Number.isFinite(cpuSeconds))
           reject(new Error(`engine benchmark: bad answer from C program: ${line}`));
-        else resolve({ value, seconds, cpuSeconds });
+        else resolve({ value, seconds, cpuSeconds, gradient });
       });
       this.child.stdin.write(`${mode} ${repeat}\n`);
     });

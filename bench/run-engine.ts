@@ -4,7 +4,8 @@
  *               at N = 1e3 ... 1e6, side by side with the C reference bench/c/engine-loglike.c
  *               (gcc -O3 -march=native, built here), interleaved batch by batch
  *   dense       against the O(N^3) dense engine at N = 500, 1000, 2000
- *   gradient    logLikelihoodGradient in log-likelihoods at N = 1e4
+ *   gradient    the log-likelihood gradient in log-likelihoods for R = 1, 2, 4 (and 8 up to N = 1e5) at
+ *               N = 1e3 ... 1e6, and against the C reference's gradient (the same reverse pass), interleaved
  *   predict     predict cost per point at N = 1e4 and 1e5 with as many requested times
  *
  * Usage: node dist/bench/run-engine.js [--quick] [--rounds K] [--batch SECONDS] [--clock cpu|wall]
@@ -18,13 +19,16 @@ import { availableParallelism, cpus, loadavg } from "node:os";
 import { join } from "node:path";
 import { createRng } from "../src/random/rng.js";
 import { benchmarkData, engineCases, leadingPoints, type EngineCase } from "./engine-cases.js";
-import { measureDense, measureGradient, measurePredict } from "./engine-companions.js";
+import { measureDense, measurePredict } from "./engine-companions.js";
+import { fullGradient, measureGradient, type GradientRow } from "./engine-gradient.js";
 import { fullLogLikelihood, measureLikelihood, type LikelihoodRow, type TimingSettings } from "./engine-likelihood.js";
 import { buildNativeEngine, compilerVersion, NATIVE_FLAGS, repositoryRoot } from "./engine-native.js";
 import { formatSignificant as fmt, markdownTable, type Clock } from "./engine-timing.js";
 
 /** The TS engine must be within this factor of C for R = 1, 2, 4 at N = 1e5 and 1e6 (issue 2). */
 const RATIO_TARGET = 1.5;
+/** A gradient must cost at most this many log-likelihoods (issue 13). */
+const GRADIENT_COST_TARGET = 3;
 const SECTIONS = ["likelihood", "dense", "gradient", "predict"] as const;
 type Section = (typeof SECTIONS)[number];
 
@@ -103,11 +107,15 @@ function warmUp(cases: readonly EngineCase[]): void {
     const data = benchmarkData(engineCase.kernel, 10_000, createRng(`engine-warm-up:${engineCase.components}`));
     const short = fullLogLikelihood(engineCase, leadingPoints(data, 50));
     for (let i = 0; i < 2000; i++) short();
+    const shortGradient = fullGradient(engineCase, leadingPoints(data, 50));
+    for (let i = 0; i < 500; i++) shortGradient();
   }
   for (const engineCase of cases) {
     const data = benchmarkData(engineCase.kernel, 10_000, createRng(`engine-warm-up:${engineCase.components}`));
     const evaluate = fullLogLikelihood(engineCase, data);
     for (let i = 0; i < 20; i++) evaluate();
+    const gradient = fullGradient(engineCase, data);
+    for (let i = 0; i < 10; i++) gradient();
   }
 }
 
@@ -218,17 +226,54 @@ function denseSection(cases: readonly EngineCase[], options: Options): void {
   );
 }
 
-function gradientSection(cases: readonly EngineCase[], options: Options): void {
-  const n = 10_000;
-  const rows = cases
-    .filter((c) => c.components <= (options.quick ? 4 : 8))
-    .map((engineCase) => measureGradient(engineCase, benchmarkData(engineCase.kernel, n, createRng(`engine-gradient:${engineCase.components}`)), options.settings));
-  console.log(`\n## Gradient cost at N = 1e4 (build + logLikelihoodGradient vs build + logLikelihood)\n`);
+async function gradientSection(cases: readonly EngineCase[], options: Options, executable: string, root: string): Promise<void> {
+  const sizes = options.quick ? [1e3, 1e4, 1e5] : [1e3, 1e4, 1e5, 1e6];
+  const rows: GradientRow[] = [];
+  for (const engineCase of cases) {
+    for (const n of sizes) {
+      if (engineCase.components > 4 && (options.quick || n > 1e5)) continue; // the tape of R = 8 at 1e6: 750 MB per engine
+      const data = benchmarkData(engineCase.kernel, n, createRng(`engine-gradient:${engineCase.components}:${n}`));
+      const file = join(root, "bench", "build", `engine-gradient-r${engineCase.components}-n${n}.bin`);
+      const row = await measureGradient(engineCase, data, executable, file, options.settings);
+      rows.push(row);
+      process.stderr.write(
+        `  gradient R=${row.components} N=${n}: ${fmt(row.costStep)} likelihoods (step), ${fmt(row.costNewProcess)} (new process), ${fmt(row.costCore)} (core); TS/C ${fmt(row.ratioGradient)}\n`,
+      );
+    }
+  }
+  console.log(`\n## Gradient cost, in log-likelihoods and against the C reference, ns per point\n`);
+  console.log(
+    "step = what a sampler pays: kernel from parameters, `withKernel` on checked inputs, logLikelihoodGradient against " +
+      "logLikelihood; new process = the same with a new GaussianProcess per call (inputs copied, a fresh tape); core = the " +
+      "gradient on prepared inputs (tape reused) against the recursion alone, and C the same forward pass with a tape and " +
+      "reverse pass in C (gcc -O3); ratios are medians of ratios measured in the same round.\n",
+  );
   console.log(
     markdownTable(
-      ["R", "log-likelihood (ns/pt)", "log-likelihood + gradient (ns/pt)", "cost in log-likelihoods"],
-      rows.map((r) => [String(r.components), fmt(r.logLikelihood), fmt(r.gradient), fmt(r.ratio)]),
+      ["R", "N", "TS log L step", "TS gradient step", "cost step", "cost new process", "TS gradient core", "cost core", "C gradient core", "C cost", "TS / C gradient", "TS / C log L core", "gradient TS vs C"],
+      rows.map((r) => [
+        String(r.components),
+        r.n.toExponential(0),
+        fmt(r.tsLikelihoodStep),
+        fmt(r.tsGradientStep),
+        fmt(r.costStep),
+        fmt(r.costNewProcess),
+        fmt(r.tsGradientCore),
+        fmt(r.costCore),
+        fmt(r.nativeGradientCore),
+        fmt(r.nativeCost),
+        fmt(r.ratioGradient),
+        fmt(r.ratioLikelihood),
+        r.gradientDifference.toExponential(1),
+      ]),
     ),
+  );
+  const targeted = rows.filter((r) => r.components <= 4);
+  const worst = Math.max(...targeted.map((r) => r.costStep));
+  console.log(
+    `\nTarget: a gradient at most ${GRADIENT_COST_TARGET} likelihoods for R = 1, 2, 4 (a sampler's step): worst ${fmt(worst)} -> ` +
+      `${worst <= GRADIENT_COST_TARGET ? "met" : "NOT met"}. Largest TS / C gradient difference: ` +
+      `${Math.max(...rows.map((r) => r.gradientDifference)).toExponential(1)} of the gradient's scale.`,
   );
 }
 
@@ -260,7 +305,7 @@ async function main(): Promise<void> {
   warmUp(cases);
   if (options.sections.has("likelihood")) await likelihoodSection(cases, options, executable, root);
   if (options.sections.has("dense")) denseSection(cases, options);
-  if (options.sections.has("gradient")) gradientSection(cases, options);
+  if (options.sections.has("gradient")) await gradientSection(cases, options, executable, root);
   if (options.sections.has("predict")) predictSection(cases, options);
   console.log(`\n- load average at end: ${loadavg().map((x) => x.toFixed(2)).join(" ")}`);
 }

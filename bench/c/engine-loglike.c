@@ -2,7 +2,8 @@
  * engine-loglike: a plain C version of Horologium's one-pass semiseparable log-likelihood, used only by
  * the engine benchmark (bench/run-engine.ts) as a speed and accuracy reference. Not part of the package.
  *
- * It runs the same recursion as src/linalg/semiseparable-likelihood.ts, with the same state-space
+ * It runs the same recursion as src/linalg/semiseparable-likelihood.ts, and the same reverse pass as
+ * src/linalg/semiseparable-gradient.ts (see the gradient section below), with the same state-space
  * blocks and the same formulas:
  *   - damped random walk: a 1x1 block exp(-dt / tau);
  *   - oscillator: a 2x2 block exp(F dt) = exp(-c dt) [C I + S G] (src/linalg/oscillator-transition.ts),
@@ -26,10 +27,12 @@
  *       times M rounds of K evaluations; prints the log-likelihood and the median ns per point
  *       (process CPU time and wall clock).
  *   engine-loglike --serve DATAFILE TERM [TERM ...]
- *       reads requests "full K" or "core K" on stdin, one per line, runs K evaluations and answers
- *       "LOGL WALL CPU" on stdout (wall-clock and process CPU seconds for all K); used by the benchmark runner to interleave C and
- *       TypeScript timings. "full" is build + check + evaluate; "core" is the recursion alone on
- *       prepared noise variances and residuals.
+ *       reads requests "full K", "core K" or "gradient K" on stdin, one per line, runs K evaluations and
+ *       answers "LOGL WALL CPU" on stdout (wall-clock and process CPU seconds for all K); used by the
+ *       benchmark runner to interleave C and TypeScript timings. "full" is build + check + evaluate; "core"
+ *       is the recursion alone on prepared noise variances and residuals; "gradient" is the log-likelihood
+ *       and its gradient on the same prepared inputs (forward pass with a tape, backward pass), answered as
+ *       "LOGL WALL CPU G1 G2 ..." with d log L / d theta in the order of the terms' parameters.
  *
  * TERM (a sum of terms is the sum of the kernels):
  *   drw:SIGMA:TAU                    sigma^2 exp(-|t| / tau)                        R = 1
@@ -56,6 +59,17 @@ static const double TWO_PI = 6.283185307179586;
 
 enum block_kind { EXPONENTIAL = 1, OSCILLATOR = 2 };
 
+#define MAX_PARAMETERS 64
+#define MAX_DEPENDENCIES 4
+#define MAX_DQ 256
+
+/* How a kernel parameter moves a block's native parameters (ParameterDependence in transition-block.ts). */
+typedef struct {
+  int index;        /* the kernel parameter */
+  double d_native;  /* exponential: d rate / d theta; oscillator: d w0 / d theta */
+  double d_quality; /* oscillator: d Q / d theta */
+} dependence_t;
+
 /* One block of the drift matrix. */
 typedef struct {
   enum block_kind kind;
@@ -63,6 +77,9 @@ typedef struct {
   double w0;         /* oscillator: undamped angular frequency */
   double half_width; /* oscillator: c = w0 / (2 Q) */
   double lambda;     /* oscillator: c^2 - w0^2 */
+  double quality;    /* oscillator: Q */
+  int dependence_count;
+  dependence_t dependencies[MAX_DEPENDENCIES];
 } block_t;
 
 /* A kernel in semiseparable form, with the layout of its blocks in the state vector. */
@@ -75,6 +92,12 @@ typedef struct {
   int phi_start[MAX_BLOCKS];
   double p[MAX_STATE];
   double q[MAX_STATE];
+  int parameter_count;
+  /* The non-zero entries of dq / dtheta (the kernel's projectionGradient; p is constant for these kernels),
+     by parameter, then by state index. */
+  int dq_count;
+  int dq_parameter[MAX_DQ], dq_state[MAX_DQ];
+  double dq_value[MAX_DQ];
 } form_t;
 
 /* One term of the kernel as given on the command line (physical parameters). */
@@ -103,13 +126,35 @@ static int add_block(form_t *form, block_t block, int size) {
   return start;
 }
 
-static void add_oscillator(form_t *form, double w0, double quality, double variance) {
-  block_t block = {OSCILLATOR, 0, w0, w0 / (2 * quality), w0 * w0 * (1 / (4 * quality * quality) - 1)};
+/* An oscillator block moved by kernel parameters first + 1 and first + 2 as `second` and `third` say. */
+static int add_oscillator(form_t *form, double w0, double quality, double variance, dependence_t second, dependence_t third) {
+  block_t block = {OSCILLATOR, 0, w0, w0 / (2 * quality), w0 * w0 * (1 / (4 * quality * quality) - 1), quality, 2,
+                   {second, third}};
   int s = add_block(form, block, 2);
   form->p[s] = 1;
   form->p[s + 1] = 0;
   form->q[s] = variance;
   form->q[s + 1] = 0;
+  return s;
+}
+
+/* One damped oscillation exp(-t / decay) [cos(w t) + sin(w t) / (w decay)] of the quasi-periodic kernel: an
+   oscillator with w0 = sqrt(w^2 + 1 / decay^2) and Q = w0 decay / 2 (src/kernels/quasi-periodic.ts). */
+static int add_damped_oscillation(form_t *form, double w, double period, double decay, double variance, int first) {
+  double a = 1 / decay;
+  double w0 = sqrt(w * w + a * a);
+  double dw0_dperiod = -(w * w) / (w0 * period);
+  dependence_t by_period = {first + 1, dw0_dperiod, (decay / 2) * dw0_dperiod};
+  dependence_t by_decay = {first + 2, -(a * a * a) / w0, (w * w) / (2 * w0)};
+  return add_oscillator(form, w0, (w0 * decay) / 2, variance, by_period, by_decay);
+}
+
+/* dq_i / dtheta_k (the kernel's projectionGradient), entries added by parameter, then state index. */
+static void set_projection_gradient(form_t *form, int k, int i, double value) {
+  if (form->dq_count >= MAX_DQ) die("kernel too large", NULL);
+  form->dq_parameter[form->dq_count] = k;
+  form->dq_state[form->dq_count] = i;
+  form->dq_value[form->dq_count++] = value;
 }
 
 static void require_positive(const char *name, double value) {
@@ -117,39 +162,57 @@ static void require_positive(const char *name, double value) {
 }
 
 static void build_form(form_t *form, const term_t *terms, int count) {
-  memset(form, 0, sizeof *form);
+  /* Only the counts are reset: every block, p, q and dq entry in use is written when it is added. */
+  form->block_count = 0;
+  form->dimension = 0;
+  form->parameter_count = 0;
+  form->dq_count = 0;
   for (int i = 0; i < count; i++) {
     const term_t *term = &terms[i];
     if (strcmp(term->kind, "drw") == 0) {
       double sigma = term->value[0], tau = term->value[1];
       require_positive("sigma", sigma);
       require_positive("tau", tau);
-      block_t block = {EXPONENTIAL, 1 / tau, 0, 0, 0};
+      int first = form->parameter_count;
+      form->parameter_count += 2;
+      block_t block = {EXPONENTIAL, 1 / tau, 0, 0, 0, 0, 1, {{first + 1, -1 / (tau * tau), 0}}};
       int s = add_block(form, block, 1);
       form->p[s] = 1;
       form->q[s] = sigma * sigma;
+      set_projection_gradient(form, first, s, 2 * sigma);
     } else if (strcmp(term->kind, "osc") == 0) {
       double sigma = term->value[0], period = term->value[1], quality = term->value[2];
       require_positive("sigma", sigma);
       require_positive("period", period);
       require_positive("quality", quality);
-      add_oscillator(form, TWO_PI / period, quality, sigma * sigma);
+      int first = form->parameter_count;
+      form->parameter_count += 3;
+      double w0 = TWO_PI / period;
+      dependence_t by_period = {first + 1, -w0 / period, 0}, by_quality = {first + 2, 0, 1};
+      int s = add_oscillator(form, w0, quality, sigma * sigma, by_period, by_quality);
+      set_projection_gradient(form, first, s, 2 * sigma);
     } else if (strcmp(term->kind, "qp") == 0) {
       double sigma = term->value[0], period = term->value[1], decay = term->value[2], weight = term->value[3];
       require_positive("sigma", sigma);
       require_positive("period", period);
       require_positive("decayTime", decay);
       if (!(weight >= 0 && weight <= 1)) die("harmonicWeight must be in [0, 1]", "harmonicWeight");
-      /* Each term exp(-t / decay) [cos(w t) + sin(w t) / (w decay)] is an oscillator with
-         w0 = sqrt(w^2 + 1 / decay^2) and Q = w0 decay / 2 (src/kernels/quasi-periodic.ts). */
-      double w = TWO_PI / period, rate = 1 / decay;
-      double w0 = sqrt(w * w + rate * rate), w0h = sqrt(4 * w * w + rate * rate);
+      double w = TWO_PI / period;
       double variance = sigma * sigma;
-      add_oscillator(form, w0, w0 * decay / 2, variance * (1 - weight));
-      add_oscillator(form, w0h, w0h * decay / 2, variance * weight);
+      /* Each block's (w0, Q) moved by period and decayTime (dampedOscillationBlock in quasi-periodic.ts):
+         dw0/dP = -w^2 / (w0 P), dQ/dP = (decay / 2) dw0/dP; dw0/dd = -a^3 / w0, dQ/dd = w^2 / (2 w0). */
+      int first = form->parameter_count;
+      form->parameter_count += 4;
+      int s1 = add_damped_oscillation(form, w, period, decay, variance * (1 - weight), first);
+      int s2 = add_damped_oscillation(form, 2 * w, period, decay, variance * weight, first);
+      set_projection_gradient(form, first, s1, 2 * sigma * (1 - weight));
+      set_projection_gradient(form, first, s2, 2 * sigma * weight);
+      set_projection_gradient(form, first + 3, s1, -variance);
+      set_projection_gradient(form, first + 3, s2, variance);
     } else {
       die("unknown kernel term", term->kind);
     }
+    if (form->parameter_count > MAX_PARAMETERS) die("too many kernel parameters", NULL);
   }
 }
 
@@ -477,6 +540,345 @@ static double recursion(const form_t *form, size_t n, const double *time, const 
   return general_recursion(form, n, time, noise, residual, mean);
 }
 
+/* ---------- the gradient: forward pass with a tape, backward pass (mirrors src/linalg/semiseparable-gradient.ts) ---------- */
+
+/*
+ * The same stages, operations and order as the TypeScript gradient's general loops
+ * (gradient-general-loop.ts, transition-adjoints.ts; the written-out passes are bit-identical to them):
+ * the forward recursion records per point A_k = S_{k-1} + u u^T / D (upper triangle), g_k, each block's
+ * transition record (exponential: Phi; oscillator: E C, E S, E dS/dlambda), u_k, 1 / D_k, z_k; the backward
+ * pass carries S-bar (upper triangle), f-bar, u-bar, D-bar, z-bar from the last point to the first and
+ * contracts each block's Phi-bar into running sums; the sums then map to the kernel parameters.
+ */
+
+/* (k + 1) / (2k + 3)!, k = 0 .. 10 (filled by init_series): E dS/dlambda = E dt^3 sum_k (k + 1) x^k / (2k + 3)!. */
+static double sinh_lambda_series[11];
+
+static void init_gradient_series(void) {
+  for (int k = 0; k <= 10; k++) {
+    double factorial = 1;
+    for (int i = 2; i <= 2 * k + 3; i++) factorial *= i;
+    sinh_lambda_series[k] = (k + 1) / factorial;
+  }
+}
+
+/* Offsets of one point's record and of the running adjoints (GradientTapeLayout). */
+typedef struct {
+  int r, packed_length, width;
+  int mean_before, block_record[MAX_BLOCKS], gain, inverse_pivot, innovation;
+  int mean_bar, gain_bar, pivot_bar, innovation_bar, gain_bar_sum, noise_bar_sum, residual_bar_sum;
+  int accumulators[MAX_BLOCKS], adjoint_length;
+} tape_layout_t;
+
+static void tape_layout(const form_t *form, tape_layout_t *t) {
+  int r = form->dimension;
+  t->r = r;
+  t->packed_length = r * (r + 1) / 2;
+  t->mean_before = t->packed_length;
+  int offset = t->mean_before + r;
+  for (int b = 0; b < form->block_count; b++) {
+    t->block_record[b] = offset;
+    offset += form->blocks[b].kind == EXPONENTIAL ? 1 : 3;
+  }
+  t->gain = offset;
+  t->inverse_pivot = offset + r;
+  t->innovation = offset + r + 1;
+  t->width = offset + r + 2;
+  t->mean_bar = t->packed_length;
+  t->gain_bar = t->mean_bar + r;
+  t->pivot_bar = t->gain_bar + r;
+  t->innovation_bar = t->pivot_bar + 1;
+  t->gain_bar_sum = t->innovation_bar + 1;
+  t->noise_bar_sum = t->gain_bar_sum + r;
+  t->residual_bar_sum = t->noise_bar_sum + 1;
+  int accumulator = t->residual_bar_sum + 1;
+  for (int b = 0; b < form->block_count; b++) {
+    t->accumulators[b] = accumulator;
+    accumulator += form->blocks[b].kind == EXPONENTIAL ? 1 : 6;
+  }
+  t->adjoint_length = accumulator;
+}
+
+/* The tape, kept between evaluations as the TypeScript GaussianProcess keeps it (gradientWorkspace). */
+static double *tape_memory = NULL;
+static size_t tape_capacity = 0;
+
+static double *tape_of(size_t length) {
+  if (length > tape_capacity) {
+    free(tape_memory);
+    tape_memory = malloc(sizeof(double) * length);
+    if (!tape_memory) die("out of memory", NULL);
+    tape_capacity = length;
+  }
+  return tape_memory;
+}
+
+/* Phi and the record of one block (recordTransition): glibc's exp, cos, sin, as the forward pass here. */
+static inline void record_transition(const block_t *block, double dt, double *phi, double *record) {
+  if (block->kind == EXPONENTIAL) {
+    phi[0] = exp(-block->rate * dt);
+    record[0] = phi[0];
+    return;
+  }
+  double ec, es, esl;
+  double c = block->half_width, lambda = block->lambda, w0 = block->w0;
+  damped_hyperbolic_pair(c, lambda, w0, dt, &ec, &es);
+  double x = lambda * dt * dt;
+  if (x > -1 && x < 1) {
+    const double *d = sinh_lambda_series;
+    double sum = d[0] + x * (d[1] + x * (d[2] + x * (d[3] + x * (d[4] + x * (d[5] + x * (d[6] + x * (d[7] + x * (d[8] + x * (d[9] + x * d[10])))))))));
+    esl = exp(-c * dt) * (dt * dt * dt * sum);
+  } else {
+    esl = (dt * ec - es) / (2 * lambda);
+  }
+  phi[0] = ec + es * c;
+  phi[1] = es * w0;
+  phi[2] = -es * w0;
+  phi[3] = ec - es * c;
+  record[0] = ec;
+  record[1] = es;
+  record[2] = esl;
+}
+
+/* Stage 1: the likelihood's recursion (general_recursion's operations), writing the tape. */
+static double forward_with_tape(const form_t *form, const tape_layout_t *t, double *tape, size_t n, const double *time,
+                                const double *noise, const double *residual, double mean) {
+  const int r = form->dimension;
+  const double *p = form->p, *q = form->q;
+  double variance = 0;
+  for (int i = 0; i < r; i++) variance += p[i] * q[i];
+  double s[MAX_STATE * MAX_STATE], f[MAX_STATE], u[MAX_STATE], phi[MAX_STATE * 2];
+  memset(s, 0, sizeof(double) * (size_t)(r * r));
+  memset(f, 0, sizeof(double) * (size_t)r);
+  memset(u, 0, sizeof(double) * (size_t)r);
+  double quadratic = 0, exponent = 0, product = 1, previous_inverse = 0, previous_z = 0;
+  for (size_t k = 0; k < n; k++) {
+    double *record = tape + k * (size_t)t->width;
+    if (k > 0) {
+      for (int i = 0; i < r; i++) {
+        double ui = u[i] * previous_inverse;
+        double *row = s + i * r;
+        for (int j = 0; j < r; j++) row[j] += ui * u[j];
+        f[i] += ui * previous_z;
+      }
+      int index = 0;
+      for (int i = 0; i < r; i++)
+        for (int j = i; j < r; j++) record[index++] = s[i * r + j];
+      for (int i = 0; i < r; i++) record[t->mean_before + i] = f[i];
+      double dt = time[k] - time[k - 1];
+      for (int b = 0; b < form->block_count; b++)
+        record_transition(&form->blocks[b], dt, phi + form->phi_start[b], record + t->block_record[b]);
+      apply_congruence(form, phi, s);
+      apply_strided(form, phi, f, 0, 1);
+    }
+    double p_s_p = 0, p_f = 0;
+    for (int i = 0; i < r; i++) {
+      const double *row = s + i * r;
+      double sp = row[0] * p[0];
+      for (int j = 1; j < r; j++) sp += row[j] * p[j];
+      u[i] = q[i] - sp;
+      if (i == 0) {
+        p_s_p = p[0] * sp;
+        p_f = p[0] * f[0];
+      } else {
+        p_s_p += p[i] * sp;
+        p_f += p[i] * f[i];
+      }
+    }
+    double pivot = noise[k] + variance - p_s_p;
+    if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
+    double z = (residual[k] - mean) - p_f;
+    previous_inverse = 1 / pivot;
+    previous_z = z;
+    quadratic += z * z * previous_inverse;
+    FOLD_PIVOT(pivot);
+    for (int i = 0; i < r; i++) record[t->gain + i] = u[i];
+    record[t->inverse_pivot] = previous_inverse;
+    record[t->innovation] = z;
+  }
+  return -0.5 * (quadratic + LOG_DETERMINANT()) - (double)n * HALF_LOG_TWO_PI;
+}
+
+/*
+ * Stage 2: the backward pass (backwardGeneralLoop), all points; `adjoint` starts at zero. S-bar and A_k are
+ * kept as full symmetric matrices here (each element of the upper triangle computed once, as in the
+ * TypeScript, and mirrored), so that the loops index them directly.
+ */
+static void backward(const form_t *form, const tape_layout_t *t, const double *tape, size_t n, const double *time,
+                     double *adjoint) {
+  const int r = form->dimension;
+  const double *p = form->p;
+  double sb[MAX_STATE * MAX_STATE], state_before[MAX_STATE * MAX_STATE];
+  double product[MAX_STATE * MAX_STATE], phi[MAX_STATE * 2], phi_bar[4], vector[MAX_STATE];
+  memset(sb, 0, sizeof(double) * (size_t)(r * r));
+  double *fb = adjoint + t->mean_bar, *ub = adjoint + t->gain_bar;
+  for (size_t k = n; k-- > 0;) {
+    const double *record = tape + k * (size_t)t->width;
+    double inverse_pivot = record[t->inverse_pivot], z = record[t->innovation];
+    double w = z * inverse_pivot;
+    double z_bar = adjoint[t->innovation_bar] - w;
+    double d_bar = adjoint[t->pivot_bar] + 0.5 * (w * w - inverse_pivot);
+    adjoint[t->residual_bar_sum] += z_bar;
+    adjoint[t->noise_bar_sum] += d_bar;
+    for (int i = 0; i < r; i++) {
+      adjoint[t->gain_bar_sum + i] += ub[i];
+      fb[i] -= z_bar * p[i];
+    }
+    for (int i = 0; i < r; i++)
+      for (int j = i; j < r; j++) {
+        double value = sb[i * r + j] - (d_bar * (p[i] * p[j]) + 0.5 * (ub[i] * p[j] + p[i] * ub[j]));
+        sb[i * r + j] = value;
+        sb[j * r + i] = value;
+      }
+    if (k == 0) break;
+
+    double dt = time[k] - time[k - 1];
+    for (int b = 0; b < form->block_count; b++) {
+      const block_t *block = &form->blocks[b];
+      const double *rec = record + t->block_record[b];
+      double *a = phi + form->phi_start[b];
+      if (block->kind == EXPONENTIAL) {
+        a[0] = rec[0];
+      } else {
+        a[0] = rec[0] + rec[1] * block->half_width;
+        a[1] = rec[1] * block->w0;
+        a[2] = -rec[1] * block->w0;
+        a[3] = rec[0] - rec[1] * block->half_width;
+      }
+    }
+    {
+      int index = 0;
+      for (int i = 0; i < r; i++)
+        for (int j = i; j < r; j++) {
+          state_before[i * r + j] = record[index];
+          state_before[j * r + i] = record[index++];
+        }
+    }
+    /* N = S-bar Phi. */
+    for (int b = 0; b < form->block_count; b++) {
+      int start = form->block_start[b], m = form->block_size[b];
+      const double *a = phi + form->phi_start[b];
+      for (int i = 0; i < r; i++)
+        for (int j = 0; j < m; j++) {
+          double sum = sb[i * r + start] * a[j];
+          for (int l = 1; l < m; l++) sum += sb[i * r + start + l] * a[l * m + j];
+          product[i * r + start + j] = sum;
+        }
+    }
+    /* Phi-bar = 2 N A + f-bar g^T per block, into the block's running sums. */
+    for (int b = 0; b < form->block_count; b++) {
+      const block_t *block = &form->blocks[b];
+      int start = form->block_start[b], m = form->block_size[b];
+      for (int i = 0; i < m; i++)
+        for (int j = 0; j < m; j++) {
+          int row = start + i, column = start + j;
+          double sum = product[row * r] * state_before[column];
+          for (int l = 1; l < r; l++) sum += product[row * r + l] * state_before[l * r + column];
+          phi_bar[i * m + j] = 2 * sum + fb[row] * record[t->mean_before + column];
+        }
+      double *acc = adjoint + t->accumulators[b];
+      const double *a = phi + form->phi_start[b];
+      if (block->kind == EXPONENTIAL) {
+        acc[0] += phi_bar[0] * (dt * a[0]);
+      } else {
+        const double *rec = record + t->block_record[b];
+        double es = rec[1], esl = rec[2];
+        double ecl = 0.5 * dt * es;
+        double p00 = phi_bar[0], p11 = phi_bar[3];
+        double pd = phi_bar[1] - phi_bar[2], ps = p00 + p11, pm = p00 - p11;
+        acc[0] += dt * (p00 * a[0] + pd * a[1] + p11 * a[3]);
+        acc[1] += ps * ecl;
+        acc[2] += pm * esl;
+        acc[3] += pd * esl;
+        acc[4] += pm * es;
+        acc[5] += pd * es;
+      }
+    }
+    /* A-bar = Phi^T N (upper triangle, mirrored) into S-bar, g-bar = Phi^T f-bar into f-bar. */
+    for (int b = 0; b < form->block_count; b++) {
+      int start = form->block_start[b], m = form->block_size[b];
+      const double *a = phi + form->phi_start[b];
+      for (int i = start; i < start + m; i++) {
+        for (int j = i; j < r; j++) {
+          double sum = a[i - start] * product[start * r + j];
+          for (int l = 1; l < m; l++) sum += a[l * m + (i - start)] * product[(start + l) * r + j];
+          sb[i * r + j] = sum;
+          sb[j * r + i] = sum;
+        }
+        double sum = a[i - start] * fb[start];
+        for (int l = 1; l < m; l++) sum += a[l * m + (i - start)] * fb[start + l];
+        vector[i] = sum;
+      }
+    }
+    memcpy(fb, vector, sizeof(double) * (size_t)r);
+    /* Through A = S_{k-1} + u u^T / D and g = f_{k-1} + u z / D of point k - 1. */
+    const double *previous = record - t->width;
+    double previous_inverse = previous[t->inverse_pivot], previous_z = previous[t->innovation];
+    const double *u = previous + t->gain;
+    double u_a_u = 0, ug = 0;
+    for (int i = 0; i < r; i++) {
+      double sum = sb[i * r] * u[0];
+      for (int j = 1; j < r; j++) sum += sb[i * r + j] * u[j];
+      vector[i] = sum;
+      if (i == 0) {
+        u_a_u = u[0] * sum;
+        ug = u[0] * fb[0];
+      } else {
+        u_a_u += u[i] * sum;
+        ug += u[i] * fb[i];
+      }
+    }
+    for (int i = 0; i < r; i++) ub[i] = (2 * vector[i] + previous_z * fb[i]) * previous_inverse;
+    adjoint[t->pivot_bar] = -(u_a_u + previous_z * ug) * (previous_inverse * previous_inverse);
+    adjoint[t->innovation_bar] = ug * previous_inverse;
+  }
+}
+
+/* Stage 3: the running sums mapped to the kernel parameters (finishBlockAdjoint, assembleKernelGradient). */
+static void assemble(const form_t *form, const tape_layout_t *t, const double *adjoint, double *gradient) {
+  const int r = form->dimension;
+  for (int c = 0; c < form->parameter_count; c++) gradient[c] = 0;
+  for (int b = 0; b < form->block_count; b++) {
+    const block_t *block = &form->blocks[b];
+    const double *acc = adjoint + t->accumulators[b];
+    if (block->kind == EXPONENTIAL) {
+      double rate_bar = -acc[0];
+      for (int d = 0; d < block->dependence_count; d++)
+        gradient[block->dependencies[d].index] += rate_bar * block->dependencies[d].d_native;
+    } else {
+      double c = block->half_width, w0 = block->w0, q = block->quality;
+      double tsum = acc[1] + c * acc[2] + w0 * acc[3];
+      double c_bar = -acc[0] + 2 * c * tsum + acc[4], w_bar = -2 * w0 * tsum + acc[5];
+      for (int d = 0; d < block->dependence_count; d++) {
+        const dependence_t *dep = &block->dependencies[d];
+        double d_c = dep->d_native / (2 * q) - (w0 * dep->d_quality) / (2 * q * q);
+        gradient[dep->index] += c_bar * d_c + w_bar * dep->d_native;
+      }
+    }
+  }
+  double noise_sum = adjoint[t->noise_bar_sum];
+  for (int e = 0; e < form->dq_count; e++) {
+    int i = form->dq_state[e];
+    double q_bar = adjoint[t->gain_bar_sum + i] + noise_sum * form->p[i];
+    gradient[form->dq_parameter[e]] += q_bar * form->dq_value[e];
+  }
+  (void)r;
+}
+
+/* log L and its gradient with respect to the kernel parameters (into `gradient`), on prepared inputs. */
+static double gradient_recursion(const form_t *form, size_t n, const double *time, const double *noise,
+                                 const double *residual, double mean, double *gradient) {
+  tape_layout_t t;
+  tape_layout(form, &t);
+  double *tape = tape_of((n ? n : 1) * (size_t)t.width);
+  double value = forward_with_tape(form, &t, tape, n, time, noise, residual, mean);
+  double adjoint[MAX_STATE * (MAX_STATE + 1) / 2 + 8 * MAX_STATE + 6 * MAX_BLOCKS];
+  memset(adjoint, 0, sizeof(double) * (size_t)t.adjoint_length);
+  backward(form, &t, tape, n, time, adjoint);
+  assemble(form, &t, adjoint, gradient);
+  return value;
+}
+
 /* ---------- data and one evaluation ---------- */
 
 typedef struct {
@@ -566,6 +968,7 @@ int main(int argc, char **argv) {
     return 2;
   }
   init_series();
+  init_gradient_series();
   data_t data;
   read_data(argv[arg++], &data);
   int term_count = argc - arg;
@@ -585,21 +988,28 @@ int main(int argc, char **argv) {
       residual[i] = data.value[i] - data.mean;
     }
     char line[64];
+    double gradient[MAX_PARAMETERS];
     while (fgets(line, sizeof line, stdin)) {
       int core = strncmp(line, "core ", 5) == 0;
-      if (!core && strncmp(line, "full ", 5) != 0) break;
-      long k = atol(line + 5);
+      int with_gradient = strncmp(line, "gradient ", 9) == 0;
+      if (!core && !with_gradient && strncmp(line, "full ", 5) != 0) break;
+      long k = atol(line + (with_gradient ? 9 : 5));
       if (k < 1) break;
       double value = 0;
       double start = now_seconds();
       double cpu_start = cpu_seconds();
-      if (core)
+      if (with_gradient)
+        for (long i = 0; i < k; i++) value = gradient_recursion(&form, data.n, data.time, noise, residual, 0, gradient);
+      else if (core)
         for (long i = 0; i < k; i++) value = recursion(&form, data.n, data.time, noise, residual, 0);
       else
         for (long i = 0; i < k; i++) value = evaluate(terms, term_count, &data);
       double cpu = cpu_seconds() - cpu_start;
       double seconds = now_seconds() - start;
-      printf("%.17g %.9e %.9e\n", value, seconds, cpu);
+      printf("%.17g %.9e %.9e", value, seconds, cpu);
+      if (with_gradient)
+        for (int c = 0; c < form.parameter_count; c++) printf(" %.17g", gradient[c]);
+      printf("\n");
       fflush(stdout);
     }
     return 0;

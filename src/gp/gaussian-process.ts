@@ -102,9 +102,9 @@ export class GaussianProcess {
    * jitter, by reverse mode through the recursion (O(N R^2)).
    */
   logLikelihoodGradient(values: ArrayLike<number>): GradientResult {
-    const { time, noiseVariance, mean } = this.inputs;
+    const { time, noiseVariance, mean, gradientWorkspace: workspace } = this.inputs;
     const result = evaluateValues(values, this.inputs, () =>
-      semiseparableLogLikelihoodGradient(this.form, time, noiseVariance, values, { mean, pointwise: false }),
+      semiseparableLogLikelihoodGradient(this.form, time, noiseVariance, values, { mean, pointwise: false, workspace }),
     );
     return { value: result.value, kernel: result.kernel, mean: -result.residualSum, jitter: 2 * this.inputs.jitter * result.noiseVarianceSum };
   }

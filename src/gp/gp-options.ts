@@ -1,4 +1,5 @@
 import { FactorizationError } from "../linalg/factorization-error.js";
+import type { GradientWorkspace } from "../linalg/semiseparable-gradient.js";
 import type { Rng } from "../random/rng.js";
 
 /** Options of a Gaussian process conditioned on observation times. */
@@ -64,6 +65,11 @@ export interface ConditionedInputs {
   readonly jitter: number;
   /** errors^2 + jitter^2 per point (the same array as errorVariance when the jitter is 0). */
   readonly noiseVariance: Float64Array;
+  /**
+   * Memory for the gradient's tape, shared by every process made from these times with `withKernel` (a
+   * sampler's gradients reuse it instead of allocating O(N R^2) per call).
+   */
+  readonly gradientWorkspace: GradientWorkspace;
 }
 
 /** True for a finite number (comparisons only: cheaper in V8's loops than Number.isFinite on array elements). */
@@ -91,7 +97,7 @@ export function conditionInputs(time: ArrayLike<number>, options: GaussianProces
       );
     throw new RangeError(`GaussianProcess: errors[${bad}] must be finite and >= 0, got ${e}`);
   }
-  return withMeanAndJitter({ time: t, errorVariance, mean: 0, jitter: 0, noiseVariance: errorVariance }, options);
+  return withMeanAndJitter({ time: t, errorVariance, mean: 0, jitter: 0, noiseVariance: errorVariance, gradientWorkspace: {} }, options);
 }
 
 /**
@@ -132,7 +138,7 @@ export function withMeanAndJitter(inputs: ConditionedInputs, options: Pick<Gauss
       for (let i = 0; i < noiseVariance.length; i++) noiseVariance[i] = errorVariance[i] + j2;
     }
   }
-  return { time: inputs.time, errorVariance: inputs.errorVariance, mean, jitter, noiseVariance };
+  return { time: inputs.time, errorVariance: inputs.errorVariance, mean, jitter, noiseVariance, gradientWorkspace: inputs.gradientWorkspace };
 }
 
 /**

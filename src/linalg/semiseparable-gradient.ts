@@ -33,6 +33,16 @@ export interface GradientOptions {
   readonly unrolled?: boolean;
   /** false: return only the sums over points of the noise and residual adjoints, not the N-sized arrays. */
   readonly pointwise?: boolean;
+  /**
+   * Where to keep the tape between calls (for a caller that evaluates many gradients on the same times, as a
+   * sampler does): grown when too short, then reused, which spares an N R^2-sized allocation per call.
+   */
+  readonly workspace?: GradientWorkspace;
+}
+
+/** Reusable memory for the gradient's tape (see {@link GradientOptions.workspace}). */
+export interface GradientWorkspace {
+  tape?: Float64Array;
 }
 
 /**
@@ -61,7 +71,7 @@ export function semiseparableLogLikelihoodGradient(
 ): LikelihoodGradient {
   const n = time.length;
   const layout = GradientTapeLayout.of(form);
-  const tape = new Float64Array(Math.max(1, n) * layout.width);
+  const tape = tapeFor(options.workspace, Math.max(1, n) * layout.width);
   const written = options.unrolled === false || layout.observationVaries ? undefined : writtenPasses(form);
   const totals = forwardPass(form, layout, tape, time, noiseVariance, residual, options.mean ?? 0, written?.forward);
   const value = -0.5 * (totals.quadratic + totals.logDeterminant) - n * HALF_LOG_TWO_PI;
@@ -82,6 +92,13 @@ export function semiseparableLogLikelihoodGradient(
     noiseVarianceSum: adjoint[layout.noiseBarSum],
     residualSum: adjoint[layout.residualBarSum],
   };
+}
+
+/** A tape of at least `length` values: the workspace's when it is long enough (grown otherwise), else a new one. */
+function tapeFor(workspace: GradientWorkspace | undefined, length: number): Float64Array {
+  if (!workspace) return new Float64Array(length);
+  if (!workspace.tape || workspace.tape.length < length) workspace.tape = new Float64Array(length);
+  return workspace.tape;
 }
 
 /** The written-out forward (recording) and backward passes for this layout, if it has them. */
