@@ -18,10 +18,10 @@ const families: Array<[string, Kernel]> = [
   ["oscillator Q < 1/2 [2]", kernels.oscillator({ sigma: 0.2, period: 90, quality: 0.3 })],
   ["oscillator Q = 1/2 [2]", kernels.oscillator({ sigma: 0.2, period: 60, quality: 0.5 })],
   ["matern32 [2]", kernels.matern32({ sigma: 0.15, scale: 15 })],
-  ["quasi-periodic [2, 2]", kernels.quasiPeriodic({ sigma: 0.1, period: 7.3, quality: 5, harmonicWeight: 0.35 })],
+  ["quasi-periodic [2, 2]", kernels.quasiPeriodic({ sigma: 0.1, period: 7.3, decayTime: 12, harmonicWeight: 0.35 })],
   [
     "quasi-periodic + damped random walk [2, 2, 1]",
-    kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, quality: 4, harmonicWeight: 0.2 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 400 })),
+    kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.2 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 400 })),
   ],
   ["CARMA(3, 1) [2, 1]", kernels.carma({ sigma: 0.2, oscillations: [{ period: 30, quality: 2 }], timescales: [80], movingAverage: [5] })],
   [
@@ -122,7 +122,7 @@ describe("log-likelihood gradient", () => {
 
   it("pointwise: false gives the same sums without the per-point arrays", () => {
     const { time, noise, values } = lightCurve("gradient:sums", 2, 50);
-    const form = kernels.quasiPeriodic({ sigma: 0.1, period: 7.3, quality: 5, harmonicWeight: 0.35 }).semiseparableForm()!;
+    const form = kernels.quasiPeriodic({ sigma: 0.1, period: 7.3, decayTime: 12, harmonicWeight: 0.35 }).semiseparableForm()!;
     const full = semiseparableLogLikelihoodGradient(form, time, noise, values, { mean: MEAN });
     const sums = semiseparableLogLikelihoodGradient(form, time, noise, values, { mean: MEAN, pointwise: false });
     expect(sums.residual.length).toBe(0);
