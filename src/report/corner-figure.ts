@@ -1,224 +1,274 @@
 import type { TopLevelSpec } from "vega-lite";
+import { credibleRegions } from "./credible-regions.js";
 import { evenIndices } from "./even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
-import { formatMeasurement } from "./format-measurement.js";
-import { parameterAxisTitle, parameterDisplay } from "./parameter-display.js";
+import { kernelDensity } from "./marginal-density.js";
+import { parameterDisplay } from "./parameter-display.js";
 import { pooledDraws } from "./pooled-draws.js";
 import { quantileSorted } from "./quantile.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
+import type { DataRows, LayerMember, ViewSpec } from "./vega-lite-types.js";
 
-/** At most this many pooled draws enter the histograms; more changes nothing visible and costs time. */
+/** At most this many pooled draws enter the densities; more changes nothing visible and costs time. */
 const MAX_DRAWS = 20000;
-/** Equal-width bins across each axis, shared by the marginals and the pairwise densities. */
-const BINS = 24;
-/** Pixels between cells; the headings of the marginals sit in this gap, under empty cells. */
-const SPACING = 16;
+/** Grid points of each marginal density curve. */
+const CURVE_POINTS = 120;
+/** Cells per axis of the joint credible regions. */
+const REGION_BINS = 28;
+/** The two credible masses shaded on the diagonal and drawn as regions below it. */
+const MASSES = [0.68, 0.95] as const;
+/** Pixels between cells. */
+const SPACING = 10;
 /** The axes span this central fraction of the draws, so a few stray draws do not squash the picture. */
-const AXIS_MASS = 0.99;
+const AXIS_MASS = 0.995;
 
-/** One parameter as the corner plot draws it: its column in the data, axis range and summary lines. */
-interface CornerAxis {
-  readonly field: string;
+/** One parameter as the pair figure draws it. */
+interface PairAxis {
+  /** The symbol, for the in-panel label. */
+  readonly label: string;
+  /** Axis title with the unit, for example "τ [d]". */
   readonly title: string;
-  /** For example "τ = 310 +80/−60 d". */
-  readonly heading: string;
+  readonly log: boolean;
+  /** Axis range in the parameter's own unit. */
   readonly extent: [number, number];
-  /** Median, 16% and 84% quantiles on the plotted (possibly log10) scale. */
-  readonly marks: { median: number; q16: number; q84: number };
+  /** Thinned draws on the plotting scale (log10 of the value on a log axis). */
+  readonly plotted: Float64Array;
+  /** 2.5, 16, 50, 84 and 97.5% quantiles in the parameter's own unit. */
+  readonly quantiles: readonly [number, number, number, number, number];
 }
 
 /**
- * The corner plot of the posterior: for each parameter a histogram of its marginal with the median
- * (solid) and the 16% and 84% quantiles (dashed), and below the diagonal the binned joint density of
- * each pair (darker is denser). Parameters that span decades are drawn in log10.
+ * The pair figure of the posterior. On the diagonal, the marginal density of each parameter (a Gaussian
+ * kernel estimate) with its central 68% and 95% credible intervals shaded in two tones and the median as
+ * a dark stroke; the numbers are in the parameter table, not on the figure. Below the diagonal, the joint
+ * highest-density regions of each pair holding 68% and 95% of the draws, in the same two tones, and the
+ * pair of medians as a cross. Parameters whose draws span more than a decade get logarithmic axes.
  */
 export function cornerFigure(input: ReportInput): ReportFigure {
   const names = input.draws.names.filter((name) => input.draws.chains[name] !== undefined);
-  if (names.length === 0) throw new RangeError("the corner plot needs posterior draws of at least one parameter");
-  const pooled = names.map((name) => pooledDraws(input.draws, name));
-  const total = pooled[0]!.length;
-  const keep = evenIndices(total, MAX_DRAWS);
-
-  const displays = names.map((name) => parameterDisplay(input, name));
-  const axes: CornerAxis[] = names.map((name, p) => {
-    const display = displays[p]!;
-    const scaled = display.logScale ? pooled[p]!.map(Math.log10) : pooled[p]!;
-    const sorted = Float64Array.from(scaled).sort();
-    const tail = (1 - AXIS_MASS) / 2;
-    const extent = padDegenerate(quantileSorted(sorted, tail), quantileSorted(sorted, 1 - tail));
-    const summary = input.result.parameters[name];
-    const rawSorted = summary ? undefined : Float64Array.from(pooled[p]!).sort();
-    const rawMarks = rawSorted
-      ? { median: quantileSorted(rawSorted, 0.5), q16: quantileSorted(rawSorted, 0.16), q84: quantileSorted(rawSorted, 0.84) }
-      : { median: summary!.median, q16: summary!.q16, q84: summary!.q84 };
-    const toPlot = (v: number) => (display.logScale ? Math.log10(v) : v);
-    const text = formatMeasurement(rawMarks.median, rawMarks.median - rawMarks.q16, rawMarks.q84 - rawMarks.median);
-    return {
-      field: `p${p}`,
-      title: parameterAxisTitle(display),
-      heading: `${display.label} = ${text}${display.unit === "" ? "" : ` ${display.unit}`}`,
-      extent,
-      marks: { median: toPlot(rawMarks.median), q16: toPlot(rawMarks.q16), q84: toPlot(rawMarks.q84) },
-    };
-  });
-
-  const rows = keep.map((i) => {
-    const row: Record<string, number> = {};
-    displays.forEach((display, p) => {
-      const v = pooled[p]![i]!;
-      row[`p${p}`] = display.logScale ? Math.log10(v) : v;
-    });
-    return row;
-  });
-
+  if (names.length === 0) throw new RangeError("the pair figure needs posterior draws of at least one parameter");
+  const total = pooledDraws(input.draws, names[0]!).length;
+  const axes = names.map((name) => pairAxis(input, name));
   const k = axes.length;
-  // Smaller cells for many parameters keep the whole plot near the page width, so its text is not shrunk.
-  const cell = k <= 2 ? 200 : k <= 3 ? 170 : k <= 5 ? 135 : k <= 6 ? 110 : 90;
-  const cells: unknown[] = [];
-  for (let i = 0; i < k; i++) {
-    for (let j = 0; j < k; j++) {
-      if (j > i) cells.push(emptyCell(cell));
-      else if (j === i) cells.push(marginalCell(axes[i]!, cell, i === k - 1));
-      else cells.push(pairCell(axes[j]!, axes[i]!, cell, i === k - 1, j === 0));
+  // Smaller cells for many parameters keep the whole figure near the page width, so its text is not shrunk.
+  const cell = k <= 2 ? 210 : k <= 3 ? 175 : k <= 5 ? 135 : k <= 6 ? 112 : 92;
+  const datasets: Record<string, DataRows> = {};
+  const cells: ViewSpec[] = [];
+  for (let row = 0; row < k; row++) {
+    for (let column = 0; column < k; column++) {
+      const bottom = row === k - 1;
+      if (column > row) cells.push(emptyCell(cell));
+      else if (column === row) cells.push(marginalCell(axes[row]!, `marginal-${row}`, datasets, cell, bottom));
+      else cells.push(pairCell(axes[column]!, axes[row]!, `pair-${row}-${column}`, datasets, cell, bottom, column === 0));
     }
   }
-
-  const spec = {
+  const base = figureConfig();
+  const spec: TopLevelSpec = {
     $schema: "https://vega.github.io/schema/vega-lite/v6.json",
-    config: { ...figureConfig(), axis: { ...figureConfig().axis, grid: false, tickCount: k <= 5 ? 4 : 3, labelOverlap: true } },
-    datasets: { draws: rows },
+    config: { ...base, axis: { ...base.axis, grid: false, tickCount: k <= 4 ? 4 : 3, labelOverlap: true, labelFlush: true } },
+    datasets,
     columns: k,
     spacing: SPACING,
-    // Lay out by plot areas alone, so a long heading or axis title cannot push a column sideways; headings
-    // stay clear of their neighbours because the cell right of each diagonal cell is empty.
     bounds: "flush",
     concat: cells,
-  } as unknown as TopLevelSpec;
-
+  };
   return {
     id: "corner",
     title: "Posterior distribution",
     caption:
-      `Diagonal: the marginal posterior of each parameter, with the median (solid) and the 16% and 84% ` +
-      `quantiles (dashed); the heading gives the median and the 68% interval. Below the diagonal: the joint ` +
-      `density of each pair of parameters (darker is denser). Axes span the central ${Math.round(AXIS_MASS * 100)}% ` +
-      `of the ${total} draws${keep.length < total ? ` (an evenly spaced ${keep.length} are binned)` : ""}.`,
+      `Diagonal: the marginal posterior density of each parameter, its central 68% (darker) and 95% (lighter) ` +
+      `credible intervals shaded and the median as a dark stroke; the numbers are in the parameter table. Below ` +
+      `the diagonal: the smallest regions holding 68% (darker) and 95% (lighter) of the draws for each pair, and ` +
+      `the medians (cross). Axes span the central ${formatPercent(AXIS_MASS)} of the ${total} draws` +
+      `${total > MAX_DRAWS ? ` (an evenly spaced ${MAX_DRAWS} enter the densities)` : ""}; parameters spanning more ` +
+      `than a decade are on logarithmic axes.`,
     spec,
   };
 }
 
-function padDegenerate(low: number, high: number): [number, number] {
+function pairAxis(input: ReportInput, name: string): PairAxis {
+  const display = parameterDisplay(input, name);
+  const pooled = pooledDraws(input.draws, name);
+  const thinned = Float64Array.from(evenIndices(pooled.length, MAX_DRAWS), (i) => pooled[i]!);
+  const log = display.logScale === true;
+  const sorted = Float64Array.from(thinned).sort();
+  const tail = (1 - AXIS_MASS) / 2;
+  const extent = padDegenerate(quantileSorted(sorted, tail), quantileSorted(sorted, 1 - tail), log);
+  const summary = input.result.parameters[name];
+  const q = (p: number) => quantileSorted(sorted, p);
+  const quantiles: PairAxis["quantiles"] = summary
+    ? [summary["q2.5"], summary.q16, summary.median, summary.q84, summary["q97.5"]]
+    : [q(0.025), q(0.16), q(0.5), q(0.84), q(0.975)];
+  return {
+    label: display.label,
+    title: display.unit === "" ? display.label : `${display.label} [${display.unit}]`,
+    log,
+    extent,
+    plotted: log ? thinned.map(Math.log10) : thinned,
+    quantiles,
+  };
+}
+
+function padDegenerate(low: number, high: number, log: boolean): [number, number] {
   if (high > low) return [low, high];
+  if (log) return [low / 1.05, high * 1.05];
   const half = low === 0 ? 0.5 : Math.abs(low) * 0.01;
   return [low - half, high + half];
 }
 
-function binTransform(axis: CornerAxis) {
-  return {
-    bin: { extent: axis.extent, step: (axis.extent[1] - axis.extent[0]) / BINS, nice: false },
-    field: axis.field,
-    as: [`${axis.field}_lo`, `${axis.field}_hi`],
+/** The plotting scale: log10 on a logarithmic axis, the value itself otherwise. */
+function toPlot(axis: PairAxis, value: number): number {
+  return axis.log ? Math.log10(value) : value;
+}
+
+function fromPlot(axis: PairAxis, value: number): number {
+  return axis.log ? Math.pow(10, value) : value;
+}
+
+function positionScale(axis: PairAxis) {
+  return { type: axis.log ? ("log" as const) : ("linear" as const), domain: axis.extent, nice: false, zero: false };
+}
+
+function marginalCell(axis: PairAxis, name: string, datasets: Record<string, DataRows>, size: number, bottom: boolean): ViewSpec {
+  const low = toPlot(axis, axis.extent[0]);
+  const high = toPlot(axis, axis.extent[1]);
+  const curve = kernelDensity(axis.plotted, low, high, CURVE_POINTS);
+  const at = (v: number) => interpolate(curve.x, curve.density, toPlot(axis, v));
+  const [q025, q16, median, q84, q975] = axis.quantiles;
+  const rows: { x: number; d: number; part: string }[] = [];
+  const addPart = (part: string, from: number, to: number) => {
+    const a = Math.max(toPlot(axis, from), low);
+    const b = Math.min(toPlot(axis, to), high);
+    if (!(b > a)) return;
+    rows.push({ x: fromPlot(axis, a), d: interpolate(curve.x, curve.density, a), part });
+    for (let i = 0; i < curve.x.length; i++) {
+      if (curve.x[i]! > a && curve.x[i]! < b) rows.push({ x: fromPlot(axis, curve.x[i]!), d: curve.density[i]!, part });
+    }
+    rows.push({ x: fromPlot(axis, b), d: interpolate(curve.x, curve.density, b), part });
   };
-}
-
-function inExtent(axis: CornerAxis) {
-  return { field: axis.field, range: axis.extent };
-}
-
-/** A position channel over pre-binned columns, so the axis gets ordinary ticks rather than bin edges. */
-function positionEncoding(axis: CornerAxis, labelled: boolean) {
-  return {
-    field: `${axis.field}_lo`,
-    type: "quantitative",
-    scale: { domain: axis.extent, nice: false, zero: false },
-    axis: labelled ? { title: axis.title } : { title: null, labels: false },
-  };
-}
-
-function marginalCell(axis: CornerAxis, size: number, bottom: boolean) {
-  const lines = [
-    { v: axis.marks.median, kind: "median" },
-    { v: axis.marks.q16, kind: "quantile" },
-    { v: axis.marks.q84, kind: "quantile" },
-  ];
+  addPart("95%", q025, q975);
+  addPart("68%", q16, q84);
+  addPart("curve", axis.extent[0], axis.extent[1]);
+  datasets[name] = rows;
+  let peak = 0;
+  for (const d of curve.density) peak = Math.max(peak, d);
+  const x = { field: "x", type: "quantitative" as const, scale: positionScale(axis), axis: bottom ? { title: axis.title } : { title: null, labels: false } };
+  const y = { field: "d", type: "quantitative" as const, scale: { domain: [0, 1.12 * (peak > 0 ? peak : 1)], nice: false }, axis: null };
+  const band = (part: "95%" | "68%", color: string): LayerMember => ({
+    transform: [{ filter: { field: "part", equal: part } }],
+    mark: { type: "area", color, opacity: 1, clip: true },
+    encoding: { x, y },
+  });
   return {
     width: size,
     height: size,
-    // Never truncated: a heading wider than its cell runs over the empty cells to its right (or widens
-    // the figure, for the last column), and is aligned with the plot area, not the axis labels.
-    title: { text: axis.heading, fontSize: 11, limit: 0, frame: "group" },
+    data: { name },
     layer: [
+      band("95%", FIGURE_COLORS.modelBandOuter),
+      band("68%", FIGURE_COLORS.modelBandInner),
       {
-        data: { name: "draws" },
-        transform: [
-          { filter: inExtent(axis) },
-          binTransform(axis),
-          { aggregate: [{ op: "count", as: "count" }], groupby: [`${axis.field}_lo`, `${axis.field}_hi`] },
-        ],
-        mark: { type: "rect", color: FIGURE_COLORS.model, opacity: 0.75, clip: true },
-        encoding: {
-          x: positionEncoding(axis, bottom),
-          x2: { field: `${axis.field}_hi` },
-          y: { field: "count", type: "quantitative", axis: null },
-          y2: { datum: 0 },
-        },
+        transform: [{ filter: { field: "part", equal: "curve" } }],
+        mark: { type: "line", color: FIGURE_COLORS.model, strokeWidth: 1.6, clip: true },
+        encoding: { x, y },
       },
       {
-        data: { values: lines },
-        mark: { type: "rule", color: FIGURE_COLORS.marker, strokeWidth: 1.2, clip: true },
+        data: { values: [{ x: median, d: at(median) }] },
+        mark: { type: "rule", color: FIGURE_COLORS.data, strokeWidth: 2, clip: true },
+        encoding: { x, y, y2: { datum: 0 } },
+      },
+      {
+        data: { values: [{ label: axis.label }] },
+        mark: { type: "text", align: "left", baseline: "top", x: 5, y: 4, fontSize: 12, color: "#333333" },
+        encoding: { text: { field: "label" } },
+      },
+    ],
+  };
+}
+
+function pairCell(
+  xAxis: PairAxis,
+  yAxis: PairAxis,
+  name: string,
+  datasets: Record<string, DataRows>,
+  size: number,
+  bottom: boolean,
+  left: boolean,
+): ViewSpec {
+  const grid = credibleRegions(
+    xAxis.plotted,
+    yAxis.plotted,
+    [toPlot(xAxis, xAxis.extent[0]), toPlot(xAxis, xAxis.extent[1])],
+    [toPlot(yAxis, yAxis.extent[0]), toPlot(yAxis, yAxis.extent[1])],
+    REGION_BINS,
+    MASSES,
+  );
+  // Runs of equal level along a row become one rectangle: fewer marks, the same picture.
+  const rows: { x: number; x2: number; y: number; y2: number; region: string }[] = [];
+  for (let r = 0; r < REGION_BINS; r++) {
+    let start = 0;
+    for (let c = 1; c <= REGION_BINS; c++) {
+      const level = grid.level[r * REGION_BINS + start]!;
+      if (c < REGION_BINS && Object.is(grid.level[r * REGION_BINS + c]!, level)) continue;
+      if (!Number.isNaN(level)) {
+        rows.push({
+          x: fromPlot(xAxis, grid.xEdges[start]!),
+          x2: fromPlot(xAxis, grid.xEdges[c]!),
+          y: fromPlot(yAxis, grid.yEdges[r]!),
+          y2: fromPlot(yAxis, grid.yEdges[r + 1]!),
+          region: formatPercent(level),
+        });
+      }
+      start = c;
+    }
+  }
+  datasets[name] = rows;
+  const x = { field: "x", type: "quantitative" as const, scale: positionScale(xAxis), axis: bottom ? { title: xAxis.title } : { title: null, labels: false } };
+  const y = { field: "y", type: "quantitative" as const, scale: positionScale(yAxis), axis: left ? { title: yAxis.title } : { title: null, labels: false } };
+  return {
+    width: size,
+    height: size,
+    layer: [
+      {
+        data: { name },
+        mark: { type: "rect", clip: true },
         encoding: {
-          x: { field: "v", type: "quantitative" },
-          strokeDash: {
-            field: "kind",
+          x,
+          x2: { field: "x2" },
+          y,
+          y2: { field: "y2" },
+          color: {
+            field: "region",
             type: "nominal",
-            scale: { domain: ["median", "quantile"], range: [[1, 0], [4, 3]] },
+            scale: { domain: MASSES.map(formatPercent), range: [FIGURE_COLORS.modelBandInner, FIGURE_COLORS.modelBandOuter] },
             legend: null,
           },
         },
       },
-    ],
-  };
-}
-
-function pairCell(xAxis: CornerAxis, yAxis: CornerAxis, size: number, bottom: boolean, left: boolean) {
-  const xLo = `${xAxis.field}_lo`;
-  const xHi = `${xAxis.field}_hi`;
-  const yLo = `${yAxis.field}_lo`;
-  const yHi = `${yAxis.field}_hi`;
-  return {
-    width: size,
-    height: size,
-    data: { name: "draws" },
-    transform: [
-      { filter: inExtent(xAxis) },
-      { filter: inExtent(yAxis) },
-      binTransform(xAxis),
-      binTransform(yAxis),
-      { aggregate: [{ op: "count", as: "count" }], groupby: [xLo, xHi, yLo, yHi] },
-    ],
-    mark: { type: "rect", clip: true },
-    encoding: {
-      x: positionEncoding(xAxis, bottom),
-      x2: { field: xHi },
-      y: positionEncoding(yAxis, left),
-      y2: { field: yHi },
-      color: {
-        field: "count",
-        type: "quantitative",
-        scale: { scheme: FIGURE_COLORS.density, type: "sqrt" },
-        legend: null,
+      {
+        data: { values: [{ x: xAxis.quantiles[2], y: yAxis.quantiles[2] }] },
+        mark: { type: "point", shape: "cross", filled: true, size: 40, color: FIGURE_COLORS.data, clip: true },
+        encoding: { x, y },
       },
-    },
+    ],
   };
 }
 
-function emptyCell(size: number) {
-  return {
-    width: size,
-    height: size,
-    data: { values: [] },
-    mark: "point",
-    view: { stroke: null },
-  };
+function emptyCell(size: number): ViewSpec {
+  return { width: size, height: size, data: { values: [] }, mark: "point", view: { stroke: null } };
+}
+
+/** Linear interpolation of (xs, ys) at x, clamped to the ends. */
+function interpolate(xs: Float64Array, ys: Float64Array, x: number): number {
+  const n = xs.length;
+  if (x <= xs[0]!) return ys[0]!;
+  if (x >= xs[n - 1]!) return ys[n - 1]!;
+  const step = (xs[n - 1]! - xs[0]!) / (n - 1);
+  const i = Math.min(n - 2, Math.floor((x - xs[0]!) / step));
+  const w = (x - xs[i]!) / (xs[i + 1]! - xs[i]!);
+  return ys[i]! + w * (ys[i + 1]! - ys[i]!);
+}
+
+function formatPercent(mass: number): string {
+  return `${Math.round(mass * 1000) / 10}%`;
 }
