@@ -14,14 +14,14 @@ import type { DataRows, LayerMember, ViewSpec } from "./vega-lite-types.js";
 const MAX_DRAWS = 20000;
 /** Grid points of each marginal density curve. */
 const CURVE_POINTS = 120;
-/** Cells per axis of the joint credible regions. */
-const REGION_BINS = 28;
+/** Cells per axis of the joint credible regions: about 0.8 sqrt(draws), within these bounds. */
+const REGION_BINS = { fewest: 12, most: 28 } as const;
 /** The two credible masses shaded on the diagonal and drawn as regions below it. */
 const MASSES = [0.68, 0.95] as const;
 /** Pixels between cells. */
 const SPACING = 10;
 /** The axes span this central fraction of the draws, so a few stray draws do not squash the picture. */
-const AXIS_MASS = 0.995;
+const AXIS_MASS = 0.99;
 
 /** One parameter as the pair figure draws it. */
 interface PairAxis {
@@ -127,7 +127,7 @@ function fromPlot(axis: PairAxis, value: number): number {
 }
 
 function positionScale(axis: PairAxis) {
-  return { type: axis.log ? ("log" as const) : ("linear" as const), domain: axis.extent, nice: false, zero: false };
+  return axis.log ? { type: "log" as const, domain: axis.extent, nice: false } : { type: "linear" as const, domain: axis.extent, nice: false, zero: false };
 }
 
 function marginalCell(axis: PairAxis, name: string, datasets: Record<string, DataRows>, size: number, bottom: boolean): ViewSpec {
@@ -153,7 +153,7 @@ function marginalCell(axis: PairAxis, name: string, datasets: Record<string, Dat
   datasets[name] = rows;
   let peak = 0;
   for (const d of curve.density) peak = Math.max(peak, d);
-  const x = { field: "x", type: "quantitative" as const, scale: positionScale(axis), axis: bottom ? { title: axis.title } : { title: null, labels: false } };
+  const x = { field: "x", type: "quantitative" as const, scale: positionScale(axis), axis: bottom ? { title: axis.title, format: "~g" } : { title: null, labels: false } };
   const y = { field: "d", type: "quantitative" as const, scale: { domain: [0, 1.12 * (peak > 0 ? peak : 1)], nice: false }, axis: null };
   const band = (part: "95%" | "68%", color: string): LayerMember => ({
     transform: [{ filter: { field: "part", equal: part } }],
@@ -195,21 +195,22 @@ function pairCell(
   bottom: boolean,
   left: boolean,
 ): ViewSpec {
+  const bins = Math.round(Math.min(REGION_BINS.most, Math.max(REGION_BINS.fewest, 0.8 * Math.sqrt(xAxis.plotted.length))));
   const grid = credibleRegions(
     xAxis.plotted,
     yAxis.plotted,
     [toPlot(xAxis, xAxis.extent[0]), toPlot(xAxis, xAxis.extent[1])],
     [toPlot(yAxis, yAxis.extent[0]), toPlot(yAxis, yAxis.extent[1])],
-    REGION_BINS,
+    bins,
     MASSES,
   );
   // Runs of equal level along a row become one rectangle: fewer marks, the same picture.
   const rows: { x: number; x2: number; y: number; y2: number; region: string }[] = [];
-  for (let r = 0; r < REGION_BINS; r++) {
+  for (let r = 0; r < bins; r++) {
     let start = 0;
-    for (let c = 1; c <= REGION_BINS; c++) {
-      const level = grid.level[r * REGION_BINS + start]!;
-      if (c < REGION_BINS && Object.is(grid.level[r * REGION_BINS + c]!, level)) continue;
+    for (let c = 1; c <= bins; c++) {
+      const level = grid.level[r * bins + start]!;
+      if (c < bins && Object.is(grid.level[r * bins + c]!, level)) continue;
       if (!Number.isNaN(level)) {
         rows.push({
           x: fromPlot(xAxis, grid.xEdges[start]!),
@@ -223,8 +224,8 @@ function pairCell(
     }
   }
   datasets[name] = rows;
-  const x = { field: "x", type: "quantitative" as const, scale: positionScale(xAxis), axis: bottom ? { title: xAxis.title } : { title: null, labels: false } };
-  const y = { field: "y", type: "quantitative" as const, scale: positionScale(yAxis), axis: left ? { title: yAxis.title } : { title: null, labels: false } };
+  const x = { field: "x", type: "quantitative" as const, scale: positionScale(xAxis), axis: bottom ? { title: xAxis.title, format: "~g" } : { title: null, labels: false } };
+  const y = { field: "y", type: "quantitative" as const, scale: positionScale(yAxis), axis: left ? { title: yAxis.title, format: "~g" } : { title: null, labels: false } };
   return {
     width: size,
     height: size,

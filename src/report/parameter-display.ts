@@ -19,10 +19,10 @@ const KNOWN: Readonly<Record<string, { label: string; kind: UnitKind; descriptio
 };
 
 /**
- * A positive parameter whose central 99% of draws spans more than this factor is drawn on a log axis:
+ * A positive parameter whose central 99% of draws spans more than this factor (a decade) is drawn on a log axis:
  * on a linear axis such a posterior is a spike against a wall (common practice).
  */
-const LOG_AXIS_SPAN = 20;
+const LOG_AXIS_SPAN = 10;
 
 /** The unit text of the light curve's values: "mag" for magnitudes, "flux" (arbitrary units) otherwise. */
 export function valueUnitOf(input: ReportInput): string {

@@ -99,29 +99,57 @@ describe("light-curve figure", () => {
   });
 });
 
-describe("corner figure", () => {
-  it("has a labelled axis per parameter and the median with its 68% interval above each marginal", () => {
+describe("pair figure of the posterior", () => {
+  it("has a labelled axis per parameter and no numbers over the marginals (they are in the parameter table)", () => {
     const texts = svgTexts(rendered["corner"]!.svg);
     for (const title of ["τ [d]", "σ [mag]", "mean [mag]"]) expect(texts).toContain(title);
-    const tau = input.result.parameters["tau"]!;
-    const expected = `τ = ${formatMeasurement(tau.median, tau.median - tau.q16, tau.q84 - tau.median)} d`;
-    expect(texts).toContain(expected);
+    expect(texts.filter((t) => /=|\+.*\/|−.*\+/.test(t))).toEqual([]);
   });
-  it("draws k marginals and k(k-1)/2 pair densities, each with marks", () => {
+  it("draws per parameter a density line, a 68% and a 95% band and the median; per pair the regions and the medians", () => {
     const k = input.draws.names.length;
-    const rects = markSets(rendered["corner"]!.svg).filter((s) => s.type === "rect");
-    expect(rects).toHaveLength(k + (k * (k - 1)) / 2);
-    for (const set of rects) expect(set.items).toBeGreaterThan(10);
-    const rules = markSets(rendered["corner"]!.svg).filter((s) => s.type === "rule");
-    expect(rules).toHaveLength(k);
-    for (const set of rules) expect(set.items).toBe(3);
+    const sets = markSets(rendered["corner"]!.svg);
+    expect(sets.filter((s) => s.type === "area")).toHaveLength(2 * k);
+    expect(sets.filter((s) => s.type === "line")).toHaveLength(k);
+    expect(sets.filter((s) => s.type === "rule")).toHaveLength(k);
+    const regions = sets.filter((s) => s.type === "rect");
+    expect(regions).toHaveLength((k * (k - 1)) / 2);
+    for (const set of regions) expect(set.items).toBeGreaterThan(3);
   });
-  it("puts every kept draw into the marginal histogram that covers it", () => {
-    const rows = datasets(cornerFigure(input).spec)["draws"]!;
-    const total = input.draws.chains["tau"]!.reduce((sum, chain) => sum + chain.length, 0);
-    expect(rows).toHaveLength(total);
+  it("shades the marginal exactly over the parameter table's 68% and 95% intervals", () => {
+    const rows = datasets(cornerFigure(input).spec)["marginal-0"] as unknown as { x: number; part: string }[];
+    const tau = input.result.parameters["tau"]!;
+    const span = (part: string) => {
+      const xs = rows.filter((r) => r.part === part).map((r) => r.x);
+      return [Math.min(...xs), Math.max(...xs)];
+    };
+    const [lo68, hi68] = span("68%");
+    const [lo95, hi95] = span("95%");
+    expect(lo68).toBeCloseTo(tau.q16, 9);
+    expect(hi68).toBeCloseTo(tau.q84, 9);
+    // The axis spans the central 99% of the draws, so the 95% interval fits inside it.
+    expect(lo95).toBeCloseTo(tau["q2.5"], 9);
+    expect(hi95).toBeCloseTo(tau["q97.5"], 9);
   });
-  it("switches to a log10 axis for a parameter whose draws span decades", async () => {
+  it("stays readable from 2 to 8 parameters: every axis titled, the figure near the page width", async () => {
+    for (const k of [2, 8]) {
+      const names = Array.from({ length: k }, (_, i) => `theta${i}`);
+      const many: ReportInput = {
+        ...input,
+        result: { ...input.result, parameters: {} },
+        draws: {
+          names,
+          chains: Object.fromEntries(names.map((name, i) => [name, [Float64Array.from({ length: 600 }, (_, s) => Math.sin(s * (i + 1.3)) + i)]])),
+        },
+      };
+      const svg = await renderSvg(cornerFigure(many));
+      const texts = svgTexts(svg);
+      for (const name of names) expect(texts.filter((t) => t === name).length).toBeGreaterThanOrEqual(2);
+      const width = Number(/width="(\d+(?:\.\d+)?)"/.exec(svg)![1]);
+      expect(width).toBeGreaterThan(350);
+      expect(width).toBeLessThan(1000);
+    }
+  });
+  it("draws a parameter whose draws span decades on a logarithmic axis in its own unit", async () => {
     const spread: ReportInput = {
       ...input,
       draws: {
@@ -132,9 +160,12 @@ describe("corner figure", () => {
         },
       },
     };
-    const svg = await renderSvg(cornerFigure(spread));
-    expect(svgTexts(svg)).toContain("log₁₀ τ [d]");
-    expect(svgTexts(svg)).toContain("σ [mag]");
+    const figure = cornerFigure(spread);
+    expect(JSON.stringify(figure.spec)).toContain('"type":"log"');
+    const texts = svgTexts(await renderSvg(figure));
+    expect(texts).toContain("τ [d]");
+    expect(texts).toContain("1000");
+    expect(texts).toContain("σ [mag]");
   });
 });
 
