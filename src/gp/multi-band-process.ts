@@ -4,6 +4,7 @@ import { semiseparableLogLikelihoodGradient } from "../linalg/semiseparable-grad
 import { semiseparableLogLikelihood } from "../linalg/semiseparable-likelihood.js";
 import { semiseparablePredict } from "../linalg/semiseparable-smoother.js";
 import { mergeBands, type BandMerge } from "./band-merge.js";
+import { bandMeanSums, integrateBandMeans, type BandMeanMarginal, type BandMeanPrior } from "./band-mean-sums.js";
 
 /** The observations of one band. */
 export interface BandObservations {
@@ -38,7 +39,7 @@ export interface MultiBandGradient {
   readonly amplitude: Float64Array;
   readonly mean: Float64Array;
   readonly jitter: Float64Array;
-  /** By Richardson-extrapolated central differences of the exact likelihood (see {@link MultiBandProcess.logLikelihoodGradient}). */
+  /** By Richardson-extrapolated central differences of the exact likelihood (see {@link MultiBandProcess.logLikelihoodGradient}); zeros with `lags: false`. */
   readonly lag: Float64Array;
 }
 
@@ -157,9 +158,10 @@ export class MultiBandProcess {
    * The lags move the times of the recursion, with respect to which the engine has no adjoint; their
    * derivatives are Richardson-extrapolated central differences of the exact likelihood (4 B likelihood
    * evaluations). Where two shifted times coincide a kernel with a kink at zero lag (the
-   * damped random walk) makes the likelihood continuous but not differentiable.
+   * damped random walk) makes the likelihood continuous but not differentiable. With `lags: false` (lags
+   * held fixed) the lag derivatives are not computed and returned as zeros.
    */
-  logLikelihoodGradient(): MultiBandGradient {
+  logLikelihoodGradient(options: { readonly lags?: boolean } = {}): MultiBandGradient {
     const { merge, residual, noise } = this.scaled();
     const g = semiseparableLogLikelihoodGradient(this.form, merge.time, noise, residual);
     const count = this.bands.names.length;
@@ -186,8 +188,30 @@ export class MultiBandProcess {
       amplitude,
       mean,
       jitter,
-      lag: this.lagGradient(),
+      lag: options.lags === false ? new Float64Array(count) : this.lagGradient(),
     };
+  }
+
+  /**
+   * The likelihood with every band's mean integrated out under independent normal priors, and the
+   * means' Gaussian posterior given the other parameters ({@link integrateBandMeans}); the process's own
+   * `mean` parameters play no part. One O(N (R^2 + B R + B^2)) pass.
+   */
+  meanMarginal(priors: readonly BandMeanPrior[]): BandMeanMarginal {
+    const count = this.bands.names.length;
+    if (priors.length !== count) throw new RangeError(`MultiBandProcess: ${priors.length} mean priors for ${count} bands`);
+    const { merge, errorVariance, jointValues } = this.joint(this.lag);
+    const inverse = Float64Array.from(this.amplitude, (a) => 1 / a);
+    const residual = new Float64Array(merge.time.length);
+    const noise = new Float64Array(merge.time.length);
+    for (let k = 0; k < residual.length; k++) {
+      const b = merge.band[k];
+      const w = inverse[b];
+      residual[k] = (jointValues[k] - priors[b].mean) * w;
+      noise[k] = (errorVariance[k] + this.jitter[b] * this.jitter[b]) * w * w;
+    }
+    const sums = bandMeanSums(this.form, merge.time, noise, residual, merge.band, inverse);
+    return integrateBandMeans(sums, priors, 2 * this.logAmplitudeSum(), residual.length);
   }
 
   /** The process conditioned on every band's values; `at(band, times)` predicts a band's latent light curve. */

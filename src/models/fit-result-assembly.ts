@@ -105,7 +105,7 @@ function robustWarnings(robust: RobustNoise): string[] {
 }
 
 /** At most `count` draws spread evenly over the pooled draws, for predictions and reports from the JSON. */
-function thinnedSample(draws: PosteriorDraws, count: number): StoredPosteriorSample {
+export function thinnedSample(draws: PosteriorDraws, count: number): StoredPosteriorSample {
   const picks = Array.from(evenlySpacedIndices(draws.chain.length, count));
   return {
     names: draws.names,

@@ -49,6 +49,8 @@ export interface FitResult {
   readonly periodogramPeriod?: number;
   /** Evenly thinned posterior draws, for predictions and reports made from the file alone. */
   readonly posteriorSample: StoredPosteriorSample;
+  /** The bands of a joint multi-band fit (`fit --bands joint`); absent for one band. */
+  readonly bands?: JointBandsSummary;
 }
 
 /** What was fitted. */
@@ -103,6 +105,12 @@ export interface FitChoices {
   readonly jitter?: boolean;
   /** Student-t noise instead of Gaussian. */
   readonly robust?: boolean;
+  /** "joint": one shared process fitted to every band (`--bands joint`). */
+  readonly bands?: "joint";
+  /** Per-band lags were fitted (`--lags`). */
+  readonly lags?: boolean;
+  /** The reference band asked for (`--reference-band`). */
+  readonly referenceBand?: string;
 }
 
 /** The robust noise of a fit: the Student-t as a scale mixture of Gaussians, with per-point weights. */
@@ -139,4 +147,18 @@ export interface StoredPosteriorSample {
   readonly chain: readonly number[];
   /** Physical parameter vectors. */
   readonly rows: readonly (readonly number[])[];
+}
+
+/** The bands of a joint multi-band fit: one shared process, per-band amplitude, mean and lag. */
+export interface JointBandsSummary {
+  readonly fit: "joint";
+  /** Band names, in the file's order of first appearance. */
+  readonly names: readonly string[];
+  /** The band whose amplitude is 1 and lag 0; `sigma` is its amplitude of the shared process. */
+  readonly reference: string;
+  /** Points and dropped rows per band. */
+  readonly points: Readonly<Record<string, number>>;
+  readonly dropped: Readonly<Record<string, number>>;
+  /** With lags: the prior half-width of every lag (input time unit). */
+  readonly lagRange?: number;
 }

@@ -6,7 +6,7 @@ import type { PeriodMode } from "./period-modes.js";
 
 /** What the warnings are drawn from. */
 export interface WarningInputs {
-  readonly model: LightCurveModel;
+  readonly model: Pick<LightCurveModel, "name" | "space">;
   readonly summary: DataSummary;
   readonly lightCurve: LightCurve;
   readonly parameters: Readonly<Record<string, ParameterSummary>>;

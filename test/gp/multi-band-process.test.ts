@@ -3,7 +3,7 @@ import { mergeBands } from "../../src/gp/band-merge.js";
 import { MultiBandProcess } from "../../src/gp/multi-band-process.js";
 import { kernels, type Kernel } from "../../src/kernels/index.js";
 import { createRng } from "../../src/random/rng.js";
-import { denseMultiBand, type DenseBand } from "../helpers/dense-multi-band.js";
+import { denseMeanMarginal, denseMultiBand, type DenseBand } from "../helpers/dense-multi-band.js";
 import { maxRelativeDifference, randomErrors, seasonalTimes } from "../helpers/seasonal-times.js";
 
 // Reference: the covariance a_i a_j k(t_i - l_i - t_j + l_j) + noise written out densely and factorised by
@@ -88,6 +88,13 @@ describe("multi-band process against dense linear algebra", () => {
           expect(maxRelativeDifference(ps.mean, pd.mean)).toBeLessThan(1e-9);
           expect(maxRelativeDifference(ps.variance, pd.variance, kernel.variance * 1e-3)).toBeLessThan(1e-9);
         }
+
+        // The band means integrated out (Woodbury identity) against the dense marginal covariance.
+        const priors = [{ mean: 19, sd: 0.5 }, { mean: 19.5, sd: 2 }, { mean: 19.2, sd: 0.1 }];
+        const marginal = joint.meanMarginal(priors);
+        const dm = denseMeanMarginal(kernel, bands, p, priors);
+        expect(Math.abs(marginal.logLikelihood - dm.logLikelihood) / Math.abs(dm.logLikelihood)).toBeLessThan(1e-9);
+        expect(maxRelativeDifference(marginal.mean, dm.mean)).toBeLessThan(1e-9);
       });
     }
 

@@ -116,3 +116,60 @@ function kernelSlope(kernel: Kernel, tau: number): number {
   const r2 = (4 * d4 - d2) / 3;
   return (16 * r2 - r1) / 15;
 }
+
+/**
+ * log N(y | X m0, C + X diag(s^2) X^T) (X the band indicators): the likelihood with the band means
+ * integrated over their normal priors, written densely; and the means' posterior mean
+ * (diag(1/s^2) + X^T C^-1 X)^-1 (diag(1/s^2) m0 + X^T C^-1 y) (Rasmussen & Williams 2006, eq. 2.42 for a
+ * linear mean with a Gaussian prior).
+ */
+export function denseMeanMarginal(
+  kernel: Kernel,
+  bands: readonly DenseBand[],
+  parameters: DenseBandParameters,
+  priors: readonly { mean: number; sd: number }[],
+) {
+  const band: number[] = [];
+  const time: number[] = [];
+  const noise: number[] = [];
+  const y: number[] = [];
+  bands.forEach((b, c) => {
+    for (let i = 0; i < b.time.length; i++) {
+      band.push(c);
+      time.push(b.time[i] - parameters.lag[c]);
+      noise.push(b.errors[i] ** 2 + parameters.jitter[c] ** 2);
+      y.push(b.values[i]);
+    }
+  });
+  const n = time.length;
+  const a = band.map((c) => parameters.amplitude[c]);
+  const c = new Matrix(n, n);
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++) c.set(i, j, a[i] * a[j] * kernel.covarianceAt(time[i] - time[j]) + (i === j ? noise[i] : 0));
+  const marginal = c.clone();
+  for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (band[i] === band[j]) marginal.set(i, j, marginal.get(i, j) + priors[band[i]].sd ** 2);
+  const residual = y.map((v, i) => v - priors[band[i]].mean);
+  const cholesky = new CholeskyDecomposition(marginal);
+  const alpha = cholesky.solve(Matrix.columnVector(residual)).getColumn(0);
+  let logDet = 0;
+  for (let i = 0; i < n; i++) logDet += 2 * Math.log(cholesky.lowerTriangularMatrix.get(i, i));
+  let quadratic = 0;
+  for (let i = 0; i < n; i++) quadratic += residual[i] * alpha[i];
+  const logLikelihood = -0.5 * quadratic - 0.5 * logDet - 0.5 * n * Math.log(2 * Math.PI);
+
+  const B = bands.length;
+  const x = new Matrix(n, B);
+  for (let i = 0; i < n; i++) x.set(i, band[i], 1);
+  const cInverse = new CholeskyDecomposition(c);
+  const cx = cInverse.solve(x);
+  const cy = cInverse.solve(Matrix.columnVector(y));
+  const precision = x.transpose().mmul(cx);
+  const rhs = x.transpose().mmul(cy);
+  for (let b = 0; b < B; b++) {
+    precision.set(b, b, precision.get(b, b) + 1 / priors[b].sd ** 2);
+    rhs.set(b, 0, rhs.get(b, 0) + priors[b].mean / priors[b].sd ** 2);
+  }
+  const symmetric = precision.add(precision.transpose()).mul(0.5); // X^T C^-1 X is symmetric up to rounding
+  const mean = new CholeskyDecomposition(symmetric).solve(rhs).getColumn(0);
+  return { logLikelihood, mean };
+}

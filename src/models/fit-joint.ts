@@ -1,0 +1,134 @@
+import { DEFAULT_SAMPLER, posteriorDraws, samplePosterior, type PosteriorDraws, type PosteriorSample } from "../inference/index.js";
+import type { LightCurve } from "../lightcurve/light-curve.js";
+import { summarizeLightCurve } from "./data-summary.js";
+import { combinedDiagnostics } from "./fit-diagnostics.js";
+import type { FitOptions } from "./fit-options.js";
+import { periodogramPeriod } from "./fit-period-search.js";
+import { DEFAULT_KEPT_DRAWS, thinnedSample } from "./fit-result-assembly.js";
+import type { FitResult } from "./fit-result.js";
+import { DEFAULT_FIT_BUDGET } from "./fit-sampling.js";
+import { posteriorSummaries } from "./fit-summaries.js";
+import { fitWarnings } from "./fit-warnings.js";
+import { buildJointModel, jointLikelihood, type JointModel } from "./joint-model.js";
+import { collapseJointMeans, restoreBandMeans } from "./joint-mean-marginal.js";
+import { jointWarnings } from "./joint-warnings.js";
+import { childSeed, createRng } from "../random/rng.js";
+import { HOROLOGIUM_VERSION } from "../version.js";
+
+/** Options of a joint multi-band fit. */
+export interface JointFitOptions extends FitOptions {
+  /** Fit a lag per band relative to the reference band. */
+  readonly lags?: boolean;
+  /** The reference band (default: the best-sampled one). */
+  readonly referenceBand?: string;
+}
+
+/** Everything a joint fit produces: the result JSON, the model and the draws. */
+export interface DetailedJointFit {
+  readonly result: FitResult;
+  readonly model: JointModel;
+  readonly lightCurves: readonly LightCurve[];
+  readonly draws: PosteriorDraws;
+  readonly run: PosteriorSample;
+}
+
+/**
+ * Fits one shared process to every band at once (`buildJointModel`): the shared kernel's parameters,
+ * per-band amplitudes, means, jitters and, with `lags`, lags. Stages: for periodic models the reference
+ * band's periodogram peak as the first guess of the period (`periodogramPeriod`); one sampler run from
+ * the first guess and five prior draws (`samplePosterior`); with the ensemble the band means are
+ * integrated out and drawn back afterwards (`collapseJointMeans`), NUTS samples them with the rest;
+ * summaries, diagnostics and warnings as for one band (`posteriorSummaries`, `combinedDiagnostics`,
+ * `fitWarnings`), plus the lag warnings (`jointWarnings`).
+ */
+export function fitJointDetailed(lightCurves: readonly LightCurve[], options: JointFitOptions): DetailedJointFit {
+  const clock = options.clock ?? (() => performance.now());
+  const start = clock();
+  const referenceIndex = lightCurves.findIndex((lc) => lc.band === options.referenceBand);
+  const periodSource = lightCurves[referenceIndex >= 0 ? referenceIndex : 0];
+  const periodGuess = options.model !== "drw" ? periodogramPeriod(periodSource, summarizeLightCurve(periodSource)) : undefined;
+  const model = buildJointModel(options.model, lightCurves, {
+    ...(options.background ? { background: options.background } : {}),
+    ...(options.jitter ? { jitter: true } : {}),
+    ...(options.lags ? { lags: true } : {}),
+    ...(options.referenceBand !== undefined ? { referenceBand: options.referenceBand } : {}),
+    ...(periodGuess !== undefined ? { periodGuess } : {}),
+  });
+  const collapsed = (options.sampler ?? DEFAULT_SAMPLER) === "ensemble" ? collapseJointMeans(model, lightCurves) : undefined;
+  const space = collapsed?.space ?? model.space;
+  const run = samplePosterior(space, collapsed?.likelihood ?? jointLikelihood(model, lightCurves), {
+    seed: options.seed,
+    initial: Object.fromEntries(Object.entries(model.initialGuess).filter(([name]) => space.names.includes(name))),
+    starts: 6,
+    maxEvaluations: options.maxEvaluations ?? DEFAULT_FIT_BUDGET,
+    ...(options.sampler ? { sampler: options.sampler } : {}),
+    ...(options.onProgress ? { onProgress: options.onProgress } : {}),
+    ...(options.signal ? { signal: options.signal } : {}),
+    clock,
+  });
+  const sampled = posteriorDraws(run.space, run.run);
+  const draws = collapsed ? restoreBandMeans(model, collapsed, sampled, createRng(childSeed(options.seed, 200))) : sampled;
+  let maximumPosterior: Record<string, number> = { ...run.maximum };
+  if (collapsed) {
+    const means = collapsed.meanPosterior(collapsed.space.physicalFromRecord(run.maximum)).mean;
+    model.bands.forEach((band, b) => (maximumPosterior[`mean.${band}`] = means[b]));
+    maximumPosterior = Object.fromEntries(model.space.names.map((name) => [name, maximumPosterior[name]!]));
+  }
+  const summaries = posteriorSummaries(draws, model.space.names, options.model, options.redshift);
+  const diagnostics = combinedDiagnostics([run], (clock() - start) / 1000);
+  const reference = lightCurves[model.reference];
+  const dropped = lightCurves.reduce((sum, lc) => sum + lc.provenance.dropped, 0);
+  const provenance = reference.provenance;
+  const result: FitResult = {
+    model: options.model,
+    seed: options.seed,
+    version: HOROLOGIUM_VERSION,
+    data: {
+      n: model.summary.n,
+      dropped,
+      baseline: model.summary.baseline,
+      medianCadence: model.summary.medianCadence,
+      timeColumn: provenance.timeColumn,
+      valueColumn: provenance.valueColumn,
+      errorColumn: provenance.errorColumn,
+      source: provenance.source,
+      unit: reference.unit,
+    },
+    bands: {
+      fit: "joint",
+      names: [...model.bands],
+      reference: model.bands[model.reference],
+      points: Object.fromEntries(lightCurves.map((lc, b) => [model.bands[b], lc.time.length])),
+      dropped: Object.fromEntries(lightCurves.map((lc, b) => [model.bands[b], lc.provenance.dropped])),
+      ...(model.lags ? { lagRange: model.lagRange } : {}),
+    },
+    parameters: summaries.parameters,
+    derived: summaries.derived,
+    diagnostics,
+    warnings: [
+      ...fitWarnings({
+        model,
+        summary: model.summary,
+        lightCurve: { ...reference, provenance: { ...provenance, dropped } },
+        parameters: summaries.parameters,
+        diagnostics,
+        modes: [],
+        redshift: options.redshift,
+      }),
+      ...jointWarnings(model, lightCurves, summaries.parameters),
+    ],
+    options: {
+      bands: "joint",
+      ...(model.lags ? { lags: true } : {}),
+      ...(options.referenceBand !== undefined ? { referenceBand: options.referenceBand } : {}),
+      ...(options.background ? { background: options.background } : {}),
+      ...(options.redshift !== undefined ? { redshift: options.redshift } : {}),
+      ...(options.jitter ? { jitter: true } : {}),
+    },
+    priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, ...p.prior.settings }])),
+    maximumPosterior,
+    ...(periodGuess !== undefined ? { periodogramPeriod: periodGuess } : {}),
+    posteriorSample: thinnedSample(draws, options.keptDraws ?? DEFAULT_KEPT_DRAWS),
+  };
+  return { result, model, lightCurves, draws, run };
+}
