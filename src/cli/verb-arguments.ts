@@ -18,7 +18,7 @@ export const COLUMN_OPTIONS: Options = {
 export const COLUMN_HELP = `Column options (without them common names are recognised:
   time/mjd/jd/bjd/t; mag/flux/value/y; err/mag_err/magerr/flux_err/sigma/error):
   --time-col NAME, --value-col NAME, --error-col NAME (or "none"), --band-col NAME
-  --band NAME             use only this band (default: every band, one after another)
+  --band NAME             use only this band of a multi-band file
   --unit mag|flux         the value column's unit (default: from its name)
   --keep-placeholders     keep rows whose magnitude or error is a "no measurement" code
                           (99, 99.99, -99, -999); by default they are dropped and counted`;

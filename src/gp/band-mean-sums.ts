@@ -1,6 +1,6 @@
 import { FactorizationError } from "../linalg/factorization-error.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
-import { absorbPoint, projectState } from "../linalg/state-update.js";
+import { projectState } from "../linalg/state-update.js";
 import { TransitionLayout } from "../linalg/transition-layout.js";
 
 /** The sums a multi-band likelihood with its band means integrated out needs. */
@@ -45,17 +45,19 @@ export function bandMeanSums(
   const z = new Float64Array(columns);
   const gram = new Float64Array(columns * columns);
   const projection = new Float64Array(2);
-  const scratch = new Float64Array(r);
   let previousInverse = 0;
   let logDeterminant = 0;
   for (let k = 0; k < time.length; k++) {
     if (k > 0) {
+      // S <- S + u u^T / D; f_c <- f_c + u z_c / D for every column; then both through Phi.
+      for (let i = 0; i < r; i++) {
+        const ui = u[i] * previousInverse;
+        for (let j = 0; j < r; j++) s[i * r + j] += ui * u[j];
+      }
       for (let c = 0; c < columns; c++) {
-        scratch.set(f.subarray(c * r, (c + 1) * r));
-        // S is absorbed once (column 0); the other columns only need f += u z / D.
-        if (c === 0) absorbPoint(s, scratch, u, 0, previousInverse, z[0], r);
-        else for (let i = 0; i < r; i++) scratch[i] += u[i] * previousInverse * z[c];
-        f.set(scratch, c * r);
+        const w = z[c] * previousInverse;
+        if (w === 0) continue;
+        for (let i = 0; i < r; i++) f[c * r + i] += u[i] * w;
       }
       layout.computeTransitions(time[k] - time[k - 1]);
       layout.applyCongruence(s, 0);

@@ -1,15 +1,15 @@
 import { DEFAULT_SAMPLER, posteriorDraws, samplePosterior, type PosteriorDraws, type PosteriorSample } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
-import { summarizeLightCurve } from "./data-summary.js";
 import { combinedDiagnostics } from "./fit-diagnostics.js";
 import type { FitOptions } from "./fit-options.js";
 import { periodogramPeriod } from "./fit-period-search.js";
 import { DEFAULT_KEPT_DRAWS, thinnedSample } from "./fit-result-assembly.js";
-import type { FitResult } from "./fit-result.js";
+import { RESULT_FORMAT_VERSION, type FitResult } from "./fit-result.js";
 import { DEFAULT_FIT_BUDGET } from "./fit-sampling.js";
 import { posteriorSummaries } from "./fit-summaries.js";
 import { fitWarnings } from "./fit-warnings.js";
-import { buildJointModel, jointLikelihood, type JointModel } from "./joint-model.js";
+import { buildJointModel, jointLikelihood, jointSummary, referenceBandIndex, type JointModel } from "./joint-model.js";
+import { modelPeriodRange } from "./period-range.js";
 import { collapseJointMeans, restoreBandMeans } from "./joint-mean-marginal.js";
 import { jointWarnings } from "./joint-warnings.js";
 import { childSeed, createRng } from "../random/rng.js";
@@ -34,8 +34,9 @@ export interface DetailedJointFit {
 
 /**
  * Fits one shared process to every band at once (`buildJointModel`): the shared kernel's parameters,
- * per-band amplitudes, means, jitters and, with `lags`, lags. Stages: for periodic models the reference
- * band's periodogram peak as the first guess of the period (`periodogramPeriod`); one sampler run from
+ * per-band amplitudes, means, jitters and, with `lags`, lags. Stages: for periodic models the period
+ * range from the joint sampling (`modelPeriodRange`) and the reference band's periodogram peak as the
+ * first guess of the period (`periodogramPeriod`); one sampler run from
  * the first guess and five prior draws (`samplePosterior`); with the ensemble the band means are
  * integrated out and drawn back afterwards (`collapseJointMeans`), NUTS samples them with the rest;
  * summaries, diagnostics and warnings as for one band (`posteriorSummaries`, `combinedDiagnostics`,
@@ -44,15 +45,16 @@ export interface DetailedJointFit {
 export function fitJointDetailed(lightCurves: readonly LightCurve[], options: JointFitOptions): DetailedJointFit {
   const clock = options.clock ?? (() => performance.now());
   const start = clock();
-  const referenceIndex = lightCurves.findIndex((lc) => lc.band === options.referenceBand);
-  const periodSource = lightCurves[referenceIndex >= 0 ? referenceIndex : 0];
-  const periodGuess = options.model !== "drw" ? periodogramPeriod(periodSource, summarizeLightCurve(periodSource)) : undefined;
+  const reference = referenceBandIndex(lightCurves, options.referenceBand);
+  const range = modelPeriodRange(options.model, jointSummary(lightCurves, reference), options, lightCurves[reference].provenance.source);
+  const periodGuess = range ? periodogramPeriod(lightCurves[reference], range) : undefined;
   const model = buildJointModel(options.model, lightCurves, {
     ...(options.background ? { background: options.background } : {}),
     ...(options.jitter ? { jitter: true } : {}),
     ...(options.lags ? { lags: true } : {}),
     ...(options.referenceBand !== undefined ? { referenceBand: options.referenceBand } : {}),
     ...(periodGuess !== undefined ? { periodGuess } : {}),
+    ...(range ? { periodRange: range } : {}),
   });
   const collapsed = (options.sampler ?? DEFAULT_SAMPLER) === "ensemble" ? collapseJointMeans(model, lightCurves) : undefined;
   const space = collapsed?.space ?? model.space;
@@ -76,10 +78,11 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
   }
   const summaries = posteriorSummaries(draws, model.space.names, options.model, options.redshift);
   const diagnostics = combinedDiagnostics([run], (clock() - start) / 1000);
-  const reference = lightCurves[model.reference];
+  const referenceCurve = lightCurves[model.reference];
   const dropped = lightCurves.reduce((sum, lc) => sum + lc.provenance.dropped, 0);
-  const provenance = reference.provenance;
+  const provenance = referenceCurve.provenance;
   const result: FitResult = {
+    formatVersion: RESULT_FORMAT_VERSION,
     model: options.model,
     seed: options.seed,
     version: HOROLOGIUM_VERSION,
@@ -92,7 +95,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
       valueColumn: provenance.valueColumn,
       errorColumn: provenance.errorColumn,
       source: provenance.source,
-      unit: reference.unit,
+      unit: referenceCurve.unit,
     },
     bands: {
       fit: "joint",
@@ -109,7 +112,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
       ...fitWarnings({
         model,
         summary: model.summary,
-        lightCurve: { ...reference, provenance: { ...provenance, dropped } },
+        lightCurve: { ...referenceCurve, provenance: { ...provenance, dropped } },
         parameters: summaries.parameters,
         diagnostics,
         modes: [],
@@ -125,7 +128,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
       ...(options.redshift !== undefined ? { redshift: options.redshift } : {}),
       ...(options.jitter ? { jitter: true } : {}),
     },
-    priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, ...p.prior.settings }])),
+    priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, settings: p.prior.settings }])),
     maximumPosterior,
     ...(periodGuess !== undefined ? { periodogramPeriod: periodGuess } : {}),
     posteriorSample: thinnedSample(draws, options.keptDraws ?? DEFAULT_KEPT_DRAWS),

@@ -7,6 +7,7 @@ import {
   type FitDiagnostics,
   type FitParameterSummary,
   type FitResult,
+  type JointBandsSummary,
   type PeriodModeSummary,
   type PriorDescription,
   type RobustNoiseSummary,
@@ -48,6 +49,7 @@ export function parseFitResult(value: unknown, file: string, label?: string): Fi
   const periodModes = fields.optional("periodModes", (f, key) => f.list(key, periodMode));
   const periodogramPeriod = fields.optional("periodogramPeriod", (f, key) => f.number(key));
   const robust = fields.optional("robust", (f, key) => robustSummary(f.object(key)));
+  const bands = fields.optional("bands", (f, key) => jointBands(f.object(key)));
   return {
     formatVersion: RESULT_FORMAT_VERSION,
     model: model as ModelName,
@@ -63,6 +65,7 @@ export function parseFitResult(value: unknown, file: string, label?: string): Fi
     warnings: fields.list("warnings", (f, index) => f.text(index)),
     options: choices(fields.object("options")),
     ...(robust !== undefined ? { robust } : {}),
+    ...(bands !== undefined ? { bands } : {}),
     priors: fields.record("priors", (f, name): PriorDescription => {
       const prior = f.object(name);
       return { family: prior.text("family"), settings: prior.record("settings", (s, key) => s.number(key)) };
@@ -142,11 +145,31 @@ function choices(f: Fields): FitChoices {
   const redshift = f.optional("redshift", (g, key) => g.number(key));
   const jitter = f.optional("jitter", (g, key) => g.flag(key));
   const robust = f.optional("robust", (g, key) => g.flag(key));
+  const bands = f.optional("bands", (g, key) => g.text(key));
+  if (bands !== undefined && bands !== "joint") throw f.wrong("bands", '"joint"');
+  const lags = f.optional("lags", (g, key) => g.flag(key));
+  const referenceBand = f.optional("referenceBand", (g, key) => g.text(key));
   return {
+    ...(bands !== undefined ? { bands } : {}),
+    ...(lags !== undefined ? { lags } : {}),
+    ...(referenceBand !== undefined ? { referenceBand } : {}),
     ...(background !== undefined ? { background } : {}),
     ...(redshift !== undefined ? { redshift } : {}),
     ...(jitter !== undefined ? { jitter } : {}),
     ...(robust !== undefined ? { robust } : {}),
+  };
+}
+
+function jointBands(f: Fields): JointBandsSummary {
+  if (f.text("fit") !== "joint") throw f.wrong("fit", '"joint"');
+  const lagRange = f.optional("lagRange", (g, key) => g.number(key));
+  return {
+    fit: "joint",
+    names: f.list("names", (g, index) => g.text(index)),
+    reference: f.text("reference"),
+    points: f.record("points", (g, key) => g.count(key)),
+    dropped: f.record("dropped", (g, key) => g.count(key)),
+    ...(lagRange !== undefined ? { lagRange } : {}),
   };
 }
 

@@ -26,13 +26,28 @@ export function posteriorPredictive(
   rows: readonly ArrayLike<number>[],
   times: ArrayLike<number>,
 ): PredictiveCurve {
+  if (rows.length === 0) throw new RangeError("posterior predictive: no posterior draws");
+  return predictiveMixture(
+    times,
+    rows.map((row) => model.processAt(row, lightCurve).given(lightCurve.value).at(times)),
+  );
+}
+
+/**
+ * The equal-weight mixture of Gaussian predictions N(mu_k(t), s_k(t)^2), one per posterior draw: mean,
+ * sd by the law of total variance, and the 2.5% and 97.5% quantiles of the mixture (see
+ * {@link posteriorPredictive}).
+ */
+export function predictiveMixture(
+  times: ArrayLike<number>,
+  predictions: readonly { readonly mean: ArrayLike<number>; readonly variance: ArrayLike<number> }[],
+): PredictiveCurve {
   const m = times.length;
-  const k = rows.length;
+  const k = predictions.length;
   if (k === 0) throw new RangeError("posterior predictive: no posterior draws");
   const means = new Float64Array(k * m);
   const sds = new Float64Array(k * m);
-  rows.forEach((row, j) => {
-    const prediction = model.processAt(row, lightCurve).given(lightCurve.value).at(times);
+  predictions.forEach((prediction, j) => {
     for (let i = 0; i < m; i++) {
       means[j * m + i] = prediction.mean[i];
       sds[j * m + i] = Math.sqrt(prediction.variance[i]);

@@ -34,7 +34,7 @@ export function simulateInterleavedBands(
   const band = Int32Array.from({ length: visits.length }, (_, k) => k % count);
   const shifted = Float64Array.from(visits, (t, k) => t - (bands[band[k]].lag ?? 0));
   const order = Int32Array.from(shifted.keys()).sort((i, j) => shifted[i] - shifted[j]);
-  const latent = new GaussianProcess(kernel, Float64Array.from(order, (i) => shifted[i])).sample(rng);
+  const latent = new GaussianProcess(kernel, Float64Array.from(order, (i) => shifted[i])).priorDraw(rng);
   const atVisit = new Float64Array(visits.length);
   order.forEach((i, k) => (atVisit[i] = latent[k]));
   return bands.map((b, index) => {

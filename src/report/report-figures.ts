@@ -7,15 +7,21 @@ import { spectrumFigure } from "./spectrum-figure.js";
 import { traceFigure } from "./trace-figure.js";
 
 /**
- * The figures of a report, in reading order: light curve with prediction, corner plot, power spectrum
+ * The figures of a report, in reading order: light curve with prediction (and, for a joint multi-band
+ * fit, one panel per band), corner plot, power spectrum
  * (when a periodogram or PSD band is given) and chain traces. Specifications only; nothing is rendered.
  * Throws a RangeError when the input's arrays do not fit together (see {@link checkReportInput}).
  */
 export function reportFigures(input: ReportInput): ReportFigure[] {
   checkReportInput(input);
   const spectrum = spectrumFigure(input);
+  const bandFigures = (input.bandPanels ?? []).map((panel): ReportFigure => {
+    const figure = lightCurveFigure({ ...input, lightCurve: panel.lightCurve, prediction: panel.prediction });
+    return { ...figure, id: `light-curve-band-${panel.band}`, title: `Band ${panel.band}: light curve and posterior prediction given every band` };
+  });
   return [
     lightCurveFigure(input),
+    ...bandFigures,
     cornerFigure(input),
     ...(spectrum === undefined ? [] : [spectrum]),
     traceFigure(input),

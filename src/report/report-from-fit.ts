@@ -1,7 +1,8 @@
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { FitResult } from "../models/fit-result.js";
 import type { LightCurveModel } from "../models/light-curve-model.js";
-import { posteriorPredictive } from "../models/posterior-predictive.js";
+import type { Kernel } from "../kernels/index.js";
+import { posteriorPredictive, type PredictiveCurve } from "../models/posterior-predictive.js";
 import { evenlySpacedItems, storedPosteriorSample } from "../models/posterior-sample.js";
 import { computePeriodogram } from "../periodogram/periodogram.js";
 import type { ReportInput } from "./report-input.js";
@@ -26,7 +27,25 @@ export function reportInputFromFit(
   model: LightCurveModel,
   sizes: ReportSizes = {},
 ): ReportInput {
-  const sample = storedPosteriorSample(result, model.space.names);
+  return reportInputFromDraws(lightCurve, result, {
+    names: model.space.names,
+    predict: (rows, grid) => posteriorPredictive(model, lightCurve, rows, grid),
+    kernelAt: (row) => model.kernelAt(row),
+  }, sizes);
+}
+
+/** What the report needs of a model: its parameter names, its posterior predictive and its kernel. */
+export interface ReportModel {
+  readonly names: readonly string[];
+  /** The posterior-predictive curve of the report's light curve over `rows` at `grid`. */
+  predict(rows: readonly (readonly number[])[], grid: Float64Array): PredictiveCurve;
+  kernelAt(row: readonly number[]): Kernel;
+}
+
+/** {@link reportInputFromFit} for any model that can predict and give its kernel (one band or several). */
+export function reportInputFromDraws(lightCurve: LightCurve, result: FitResult, model: ReportModel, sizes: ReportSizes = {}): ReportInput {
+  const names = model.names;
+  const sample = storedPosteriorSample(result, names);
   const { time } = lightCurve;
   const first = time[0];
   const last = time[time.length - 1];
@@ -34,15 +53,15 @@ export function reportInputFromFit(
   const points = sizes.gridPoints ?? 600;
   const grid = Float64Array.from({ length: points }, (_, i) => first - 0.05 * baseline + (1.15 * baseline * i) / (points - 1));
   const used = evenlySpacedItems(sample.rows, sizes.draws ?? 120);
-  const prediction = posteriorPredictive(model, lightCurve, used, grid);
+  const prediction = model.predict(used, grid);
 
   const chains = [...new Set(sample.chain)].sort((a, b) => a - b);
   const perChain = chains.map((c) => sample.rows.filter((_, k) => sample.chain[k] === c));
   const length = perChain.reduce((shortest, rows) => Math.min(shortest, rows.length), Infinity);
   const draws = {
-    names: [...model.space.names],
+    names: [...names],
     chains: Object.fromEntries(
-      model.space.names.map((name, i) => [name, perChain.map((rows) => rows.slice(0, length).map((row) => row[i]))]),
+      names.map((name, i) => [name, perChain.map((rows) => rows.slice(0, length).map((row) => row[i]))]),
     ),
   };
 

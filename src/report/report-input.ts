@@ -76,6 +76,11 @@ export interface ParameterDisplay {
  */
 export interface ReportInput {
   readonly result: FitResult;
+  /**
+   * A joint multi-band fit: every band's light curve with its posterior prediction, drawn one panel per
+   * band after the main light-curve figure (which shows the reference band).
+   */
+  readonly bandPanels?: readonly BandPanel[];
   readonly lightCurve: LightCurve;
   readonly prediction: PredictiveCurve;
   readonly draws: PosteriorDraws;
@@ -88,4 +93,11 @@ export interface ReportInput {
   readonly parameterDisplay?: Readonly<Record<string, Partial<ParameterDisplay>>>;
   /** A heading for the report, for example the object's identifier (default: the light curve's source). */
   readonly title?: string;
+}
+
+/** One band of a joint multi-band fit, as its light-curve panel draws it. */
+export interface BandPanel {
+  readonly band: string;
+  readonly lightCurve: LightCurve;
+  readonly prediction: PredictiveCurve;
 }

@@ -6,6 +6,7 @@ import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
 import type { FitOptions } from "../../models/fit-options.js";
 import type { FitResult } from "../../models/fit-result.js";
 import { MODEL_NAMES, type ModelName } from "../../models/light-curve-model.js";
+import { jointReportInput } from "../../report/joint-report-input.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { writeReport } from "../../report/write-report.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
@@ -27,6 +28,8 @@ import {
   type VerbArguments,
 } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
+import { BAND_HELP, BAND_OPTIONS, bandChoice } from "../band-choice.js";
+import { fitJointWithProgress, perBandResults } from "../fit-bands.js";
 
 const HELP = `Usage: horologium fit FILE --model drw|oscillator|quasi-periodic [options]
 
@@ -49,14 +52,17 @@ Options:
 ${PERIOD_HELP}
   --quiet                 no progress bar, no summary on stderr
 ${COLUMN_HELP}
+${BAND_HELP}
 
 Example (an invented quasar of the Lanternfield Deep Survey):
   horologium fit lds-quasar.csv --model drw --redshift 1.9 --seed 7 --out quasar.json --report quasar-report
+  horologium fit lds-quasar-ugrizy.csv --model drw --lags --out joint.json
 `;
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
   ...PERIOD_OPTIONS,
+  ...BAND_OPTIONS,
   model: { type: "string" },
   background: { type: "string" },
   seed: { type: "string" },
@@ -139,13 +145,24 @@ export const verb: CliVerb = {
       if (without) throw new InputError("--robust needs an error column (the Student-t noise scales each point's error)", { file });
     }
     const reportDir = textOption(values, "report");
-    const results = await fitAll(lightCurves, options, io, quiet, async (lightCurve, fit) => {
-      if (!reportDir) return;
-      const dir = resolve(io.cwd, reportDir, lightCurves.length > 1 ? `band-${lightCurve.band}` : ".");
-      const written = await writeReport(reportInputFromFit(fit.conditioning, fit.result, fit.model), dir);
-      if (!quiet) io.stderr(`report: ${written.html}\n`);
-    });
-    const json = JSON.stringify(results.length === 1 ? results[0] : results, null, 2) + "\n";
+    const choice = bandChoice(values, lightCurves);
+    let json: string;
+    if (choice.kind === "joint") {
+      const fit = fitJointWithProgress(lightCurves, options, choice, io, quiet);
+      if (reportDir) {
+        const written = await writeReport(jointReportInput(fit), resolve(io.cwd, reportDir));
+        if (!quiet) io.stderr(`report: ${written.html}\n`);
+      }
+      json = JSON.stringify(fit.result, null, 2) + "\n";
+    } else {
+      const results = await fitAll(lightCurves, options, io, quiet, async (lightCurve, fit) => {
+        if (!reportDir) return;
+        const dir = resolve(io.cwd, reportDir, lightCurves.length > 1 ? `band-${lightCurve.band}` : ".");
+        const written = await writeReport(reportInputFromFit(fit.conditioning, fit.result, fit.model), dir);
+        if (!quiet) io.stderr(`report: ${written.html}\n`);
+      });
+      json = JSON.stringify(choice.kind === "separate" ? perBandResults(results) : results[0], null, 2) + "\n";
+    }
     writeOutput(json, textOption(values, "out"), io);
     return 0;
   },

@@ -13,8 +13,15 @@ import { samplerProgressBar } from "../progress-bar.js";
 import { readInput } from "../read-input.js";
 import { readFitResult } from "../read-result.js";
 import { parseGrid, readTimesFile } from "../requested-times.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, PERIOD_OPTIONS, singleInput, textOption } from "../verb-arguments.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, PERIOD_OPTIONS, singleInput, textOption, type VerbArguments } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
+import { bandChoice, BAND_HELP, BAND_OPTIONS } from "../band-choice.js";
+import { fitJointWithProgress } from "../fit-bands.js";
+import { bandPredictionCsv } from "../../models/band-prediction-csv.js";
+import type { FitResult } from "../../models/fit-result.js";
+import { jointModelFromResult } from "../../models/joint-model-from-result.js";
+import { jointPredictive } from "../../models/joint-predictive.js";
+import type { PredictiveCurve } from "../../models/posterior-predictive.js";
 import { fitOptionsFrom } from "./fit.js";
 
 const HELP = `Usage: horologium predict FILE --model MODEL (--at TIMES.csv | --grid START:STOP:STEP) [options]
@@ -22,7 +29,8 @@ const HELP = `Usage: horologium predict FILE --model MODEL (--at TIMES.csv | --g
 Predicts the latent (noise-free) light curve at any times, inside seasonal gaps and after the
 last point, from the posterior predictive: a mixture over posterior draws of the Gaussian-process
 prediction, so that parameter uncertainty widens the band. Writes CSV with the columns
-time,mean,sd,lower95,upper95.
+time,mean,sd,lower95,upper95; for a multi-band file time,band,mean,sd,lower95,upper95, one latent
+curve per band (from the joint fit by default, each band given every band's data).
 
 Options:
   --model NAME            drw, oscillator or quasi-periodic (a fresh fit; or taken from --from)
@@ -35,6 +43,7 @@ Options:
   --min-period P, --max-period P                                    as for fit
   --quiet                 no progress bar, no summary on stderr
 ${COLUMN_HELP}
+${BAND_HELP}
 
 Example:
   horologium predict lds-quasar.csv --from quasar.json --grid 59000:61000:5 --out forecast.csv
@@ -43,6 +52,7 @@ Example:
 const OPTIONS = {
   ...COLUMN_OPTIONS,
   ...PERIOD_OPTIONS,
+  ...BAND_OPTIONS,
   model: { type: "string" },
   from: { type: "string" },
   at: { type: "string" },
@@ -76,14 +86,42 @@ export const verb: CliVerb = {
     const drawCount = drawsText === undefined ? 200 : Number(drawsText);
     if (!Number.isInteger(drawCount) || drawCount < 1) throw new UsageError(`--draws must be a positive integer, got "${drawsText}"`);
     const lightCurves = await readInput(file, values, io, quiet);
-    if (lightCurves.length > 1)
-      throw new InputError(`the file has ${lightCurves.length} bands (${lightCurves.map((l) => l.band).join(", ")}); choose one with --band`, { file });
-    let lightCurve: LightCurve = lightCurves[0];
     const from = textOption(values, "from");
+    const stored = from !== undefined ? readFitResult(from, io.cwd, lightCurves.length === 1 ? lightCurves[0].band : textOption(values, "band")) : undefined;
+    if (stored?.bands || (stored === undefined && lightCurves.length > 1)) {
+      const curves = multiBandCurves(lightCurves, stored, from, values, io, quiet, times, drawCount, file);
+      writeOutput(bandPredictionCsv(curves), textOption(values, "out"), io);
+      return 0;
+    }
+    if (lightCurves.length > 1) {
+      // A per-band result file: each band predicted from its own result.
+      const curves = lightCurves.map((lc) => ({ band: lc.band!, curve: singleBandCurve(lc, readFitResult(from!, io.cwd, lc.band), from, values, io, quiet, times, drawCount, file) }));
+      writeOutput(bandPredictionCsv(curves), textOption(values, "out"), io);
+      return 0;
+    }
+    const curve = singleBandCurve(lightCurves[0], stored, from, values, io, quiet, times, drawCount, file);
+    writeOutput(predictionCsv(curve), textOption(values, "out"), io);
+    return 0;
+  },
+};
+
+/** One band's predictive curve: from a stored result, or after a fresh fit. */
+function singleBandCurve(
+  input: LightCurve,
+  stored: FitResult | undefined,
+  from: string | undefined,
+  values: VerbArguments["values"],
+  io: CliIo,
+  quiet: boolean,
+  times: Float64Array,
+  drawCount: number,
+  file: string,
+): PredictiveCurve {
+    let lightCurve = input;
     let model;
     let rows: readonly (readonly number[])[];
-    if (from !== undefined) {
-      const result = readFitResult(from, io.cwd, lightCurve.band);
+    if (stored !== undefined) {
+      const result = stored;
       const requested = textOption(values, "model");
       if (requested !== undefined && requested !== result.model)
         throw new UsageError(`--model ${requested} does not match the model of ${from} (${result.model})`);
@@ -92,14 +130,14 @@ export const verb: CliVerb = {
         lightCurve = conditioningLightCurve(result, lightCurve);
         rows = storedPosteriorSample(result, model.space.names).rows;
       } catch (error) {
-        if (error instanceof RangeError) throw new InputError(error.message, { file: from });
+        if (error instanceof RangeError) throw new InputError(error.message, { file: from! });
         throw error;
       }
     } else {
       const options = fitOptionsFrom(values) as FitOptions;
       if (options.robust && !lightCurve.error)
         throw new InputError("--robust needs an error column (the Student-t noise scales each point's error)", { file });
-      const bar = samplerProgressBar(io, quiet, "fitting");
+      const bar = samplerProgressBar(io, quiet, lightCurve.band ? `fitting band ${lightCurve.band}` : "fitting");
       let fit;
       try {
         fit = fitLightCurveDetailed(lightCurve, { ...options, ...(bar.onProgress ? { onProgress: bar.onProgress } : {}), clock: io.now });
@@ -111,8 +149,45 @@ export const verb: CliVerb = {
       lightCurve = fit.conditioning;
       rows = fit.result.posteriorSample.rows;
     }
-    const curve = posteriorPredictive(model, lightCurve, evenlySpacedItems(rows, drawCount), times);
-    writeOutput(predictionCsv(curve), textOption(values, "out"), io);
-    return 0;
-  },
-};
+    return posteriorPredictive(model, lightCurve, evenlySpacedItems(rows, drawCount), times);
+}
+
+/**
+ * Every band's predictive curve from a joint fit (stored with `--from`, or fitted now by the band rule:
+ * joint by default, `--bands separate` for one fit per band).
+ */
+function multiBandCurves(
+  lightCurves: readonly LightCurve[],
+  stored: FitResult | undefined,
+  from: string | undefined,
+  values: VerbArguments["values"],
+  io: CliIo,
+  quiet: boolean,
+  times: Float64Array,
+  drawCount: number,
+  file: string,
+): { band: string; curve: PredictiveCurve }[] {
+  if (stored === undefined) {
+    const choice = bandChoice(values, lightCurves);
+    if (choice.kind !== "joint")
+      return lightCurves.map((lc) => ({ band: lc.band!, curve: singleBandCurve(lc, undefined, from, values, io, quiet, times, drawCount, file) }));
+    const options = fitOptionsFrom(values) as FitOptions;
+    const fit = fitJointWithProgress(lightCurves, options, choice, io, quiet);
+    const rows = evenlySpacedItems(fit.result.posteriorSample.rows, drawCount);
+    return fit.model.bands.map((band, b) => ({ band, curve: jointPredictive(fit.model, lightCurves, rows, b, times) }));
+  }
+  const names = stored.bands!.names;
+  const present = lightCurves.map((lc) => lc.band ?? "");
+  if (names.length !== present.length || names.some((name, b) => name !== present[b]))
+    throw new InputError(`${from} is a joint fit of bands ${names.join(", ")}; the file has ${present.join(", ")}`, { file });
+  let model;
+  let rows: readonly (readonly number[])[];
+  try {
+    model = jointModelFromResult(stored, lightCurves);
+    rows = evenlySpacedItems(storedPosteriorSample(stored, model.space.names).rows, drawCount);
+  } catch (error) {
+    if (error instanceof RangeError) throw new InputError(error.message, { file: from! });
+    throw error;
+  }
+  return model.bands.map((band, b) => ({ band, curve: jointPredictive(model, lightCurves, rows, b, times) }));
+}

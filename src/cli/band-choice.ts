@@ -1,0 +1,48 @@
+import { UsageError } from "../errors/usage-error.js";
+import type { LightCurve } from "../lightcurve/light-curve.js";
+import { textOption, type VerbArguments } from "./verb-arguments.js";
+
+/**
+ * How a verb treats the bands of its input, one rule for fit, predict, report, batch and compare:
+ * - one band in the file (or no band column), or `--band NAME`: that band on its own ("single");
+ * - several bands: one shared process fitted to all of them ("joint", the default), or with
+ *   `--bands separate` each band on its own ("separate").
+ * `--lags` and `--reference-band` belong to the joint model.
+ */
+export type BandChoice =
+  | { readonly kind: "single" }
+  | { readonly kind: "joint"; readonly lags: boolean; readonly referenceBand?: string }
+  | { readonly kind: "separate" };
+
+/** The options of the rule. */
+export const BAND_OPTIONS = {
+  bands: { type: "string" },
+  lags: { type: "boolean" },
+  "reference-band": { type: "string" },
+} as const;
+
+/** The help lines of the rule. */
+export const BAND_HELP = `Several bands (a band column, recognised by name or given by --band-col):
+  by default one shared process is fitted to every band at once, with an amplitude and a mean
+  per band (JSON names amplitude.<band>, mean.<band>); the result is one JSON object.
+  --bands joint|separate  joint (default) or each band on its own ({"perBand": {"<band>": result}})
+  --band NAME             only this band
+  --lags                  joint: also a lag per band relative to the reference band (lag.<band>)
+  --reference-band NAME   joint: the band with amplitude 1 and lag 0 (default: the most points)`;
+
+/** The band rule for these light curves and options (usage errors for options that do not apply). */
+export function bandChoice(values: VerbArguments["values"], lightCurves: readonly LightCurve[]): BandChoice {
+  const bands = textOption(values, "bands");
+  if (bands !== undefined && bands !== "joint" && bands !== "separate")
+    throw new UsageError(`--bands must be joint or separate, got "${bands}"`);
+  const lags = values.lags === true;
+  const referenceBand = textOption(values, "reference-band");
+  const single = lightCurves.length === 1;
+  if ((lags || referenceBand !== undefined) && (single || bands === "separate"))
+    throw new UsageError(`--${lags ? "lags" : "reference-band"} needs the joint model of several bands${single ? " (the input has one band)" : ""}`);
+  if (referenceBand !== undefined && !lightCurves.some((lc) => lc.band === referenceBand))
+    throw new UsageError(`--reference-band ${referenceBand}: no such band (bands: ${lightCurves.map((lc) => lc.band).join(", ")})`);
+  if (single) return { kind: "single" };
+  if (bands === "separate") return { kind: "separate" };
+  return { kind: "joint", lags, ...(referenceBand !== undefined ? { referenceBand } : {}) };
+}
