@@ -169,6 +169,27 @@ describe("pair figure of the posterior", () => {
   });
 });
 
+describe("spectrum figure of a periodic model", () => {
+  const period = { ...input.result.parameters["tau"]!, median: 7.4, q16: 7.35, q84: 7.45, "q2.5": 7.3, "q97.5": 7.5 };
+  const periodic: ReportInput = {
+    ...input,
+    result: { ...input.result, model: "quasi-periodic", parameters: { period }, periodModes: [{ period: 7.4, probability: 0.97 }, { period: 22.2, probability: 0.03 }], periodogramPeriod: 14.8 },
+  };
+  it("shades the period's 95% interval in frequency and period, marks the alias candidates, adds a period panel", async () => {
+    const figure = spectrumFigure(periodic)!;
+    const data = datasets(figure.spec);
+    expect(data["period-interval"]).toEqual([{ f: 1 / 7.5, f2: 1 / 7.3, period: 7.3, period2: 7.5 }]);
+    const candidates = data["alias-candidates"] as unknown as { period: number; label: string }[];
+    expect(candidates.map((c) => c.period)).toEqual([22.2, 14.8]);
+    expect(candidates[0]!.label).toBe("mode 22.2 d, p = 0.03");
+    expect((figure.spec as { vconcat?: unknown[] }).vconcat).toHaveLength(2);
+    const texts = svgTexts(await renderSvg(figure));
+    expect(texts).toContain("Period [d]");
+    expect(texts).toContain("posterior period");
+    expect(figure.caption).toContain("95% credible interval of the period, 7.3 to 7.5 d");
+  });
+});
+
 describe("spectrum figure", () => {
   it("labels frequency, PSD and periodogram axes with units", () => {
     const texts = svgTexts(rendered["spectrum"]!.svg);
