@@ -14,7 +14,7 @@ const VERB_LOADERS: Readonly<Record<string, () => Promise<{ verb: CliVerb }>>> =
   periodogram: () => import("./verbs/periodogram.js"),
   compare: () => import("./verbs/compare.js"),
   report: () => import("./verbs/report.js"),
-  batch: () => import("./verbs/batch.js"),
+  batch: () => import("./verbs/batch/batch.js"),
   demo: () => import("./verbs/demo.js"),
 };
 

@@ -68,32 +68,23 @@ export function singleInput(positionals: string[], what = "FILE"): string {
   return positionals[0];
 }
 
-/** The seed option: an integer (default 1). */
-export function seedOption(values: VerbArguments["values"]): number {
-  const seed = numberOption(values, "seed", 1)!;
-  if (!Number.isInteger(seed)) throw new UsageError(`--seed must be an integer, got ${seed}`);
-  return seed;
+/**
+ * An integer option of at least `minimum` (0: non-negative, 1: positive) and at most 2^53 - 1, or undefined
+ * when absent; exponent notation (2e6) is allowed. A UsageError names the option otherwise.
+ */
+export function integerOption(values: VerbArguments["values"], name: string, minimum: 0 | 1): number | undefined {
+  const text = textOption(values, name);
+  if (text === undefined) return undefined;
+  const value = Number(text);
+  if (text.trim() === "" || !Number.isSafeInteger(value) || value < minimum)
+    throw new UsageError(`--${name} must be a ${minimum === 0 ? "non-negative" : "positive"} integer, got "${text}"`);
+  return value;
 }
 
-/** The period-range options of the verbs that search for a period (fit, predict, compare). */
-export const PERIOD_OPTIONS: Options = {
-  "min-period": { type: "string" },
-  "max-period": { type: "string" },
-};
-
-/** The help lines of {@link PERIOD_OPTIONS}. */
-export const PERIOD_HELP = `  --min-period P          shortest period searched and allowed (periodic models; default twice the
-                          typical spacing of visits on different nights)
-  --max-period P          longest period searched and allowed (default the baseline, or half of it
-                          for quasi-periodic rotation, which needs two cycles)`;
-
-/** `--min-period` and `--max-period` as positive numbers (either may be absent). */
-export function periodLimitsFrom(values: VerbArguments["values"]): { minimumPeriod?: number; maximumPeriod?: number } {
-  const minimumPeriod = numberOption(values, "min-period");
-  const maximumPeriod = numberOption(values, "max-period");
-  for (const [name, value] of [["min-period", minimumPeriod], ["max-period", maximumPeriod]] as const)
-    if (value !== undefined && !(value > 0)) throw new UsageError(`--${name} must be > 0, got ${value}`);
-  if (minimumPeriod !== undefined && maximumPeriod !== undefined && !(maximumPeriod > minimumPeriod))
-    throw new UsageError(`--min-period (${minimumPeriod}) must be below --max-period (${maximumPeriod})`);
-  return { ...(minimumPeriod !== undefined ? { minimumPeriod } : {}), ...(maximumPeriod !== undefined ? { maximumPeriod } : {}) };
+/**
+ * The seed option of every verb: a non-negative integer (default 1). The per-object seeds of a batch are
+ * 48-bit integers, so `horologium fit --seed` reproduces one object's fit.
+ */
+export function seedOption(values: VerbArguments["values"]): number {
+  return integerOption(values, "seed", 0) ?? 1;
 }

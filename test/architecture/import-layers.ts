@@ -29,6 +29,15 @@ export const LAYER_ORDER: readonly (readonly string[])[] = [
  */
 export const BROWSER_SAFE_LAYERS: readonly string[] = ["linalg", "kernels", "gp", "inference", "models", "periodogram", "index.ts", "browser.ts"];
 
+/** Where the verbs of the command line live: `cli/verbs/<verb>.ts` or `cli/verbs/<verb>/...`. */
+const VERBS_FOLDER = "src/cli/verbs/";
+
+/** The verb a file belongs to (its file or folder under cli/verbs/), or undefined outside the verbs. */
+export function verbOf(path: string): string | undefined {
+  if (!path.startsWith(VERBS_FOLDER)) return undefined;
+  return path.slice(VERBS_FOLDER.length).split("/")[0]!.replace(/\.ts$/, "");
+}
+
 /** npm packages that run only under Node (native code, terminal output). */
 export const NODE_ONLY_PACKAGES: readonly string[] = ["@resvg/resvg-js", "cli-progress"];
 
@@ -87,7 +96,8 @@ function resolveRelative(from: string, specifier: string): string {
 }
 
 /**
- * Every import in `files` that goes against the layer order or the browser rule, one line each
+ * Every import in `files` that goes against the layer order, the browser rule or the rule that a verb of
+ * the command line imports no other verb, one line each
  * (`src/batch/shard.ts:1 imports src/cli/cli-io.ts: batch may not import cli (a higher layer)`).
  * An empty list means the tree keeps its layers.
  */
@@ -115,6 +125,9 @@ export function layerViolations(files: readonly SourceText[]): string[] {
         problems.push(`${file.path}:${line} imports ${target}, outside src/`);
         continue;
       }
+      const [fromVerb, toVerb] = [verbOf(file.path), verbOf(target)];
+      if (fromVerb !== undefined && toVerb !== undefined && fromVerb !== toVerb)
+        problems.push(`${file.path}:${line} imports ${target}: the verb ${fromVerb} may not import the verb ${toVerb} (shared code goes to src/cli/)`);
       const targetLevel = levelOf(targetLayer);
       if (targetLayer !== layer && targetLevel >= level) {
         const why = targetLevel < 0 ? "which has no place in the layer order" : targetLevel === level ? "(the same floor)" : "(a higher layer)";

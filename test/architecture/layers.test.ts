@@ -16,7 +16,7 @@ function sourceFiles(folder: string): SourceText[] {
 }
 
 describe("the layers of src/ (docs/architecture.md, Layers)", () => {
-  it("no file of src/ imports a higher layer, and the browser layers reach no Node-only module", () => {
+  it("no file of src/ imports a higher layer, no verb imports another, and the browser layers reach no Node-only module", () => {
     const files = sourceFiles(join(root, "src"));
     expect(files.length).toBeGreaterThan(100);
     expect(layerViolations(files)).toEqual([]);
@@ -61,6 +61,21 @@ describe("the layer checker itself", () => {
     expect(layerViolations(files)).toEqual([
       "src/inference/summary.ts:1 imports src/models/fit-result.ts: inference may not import models (a higher layer)",
       "src/batch/shard.ts:2 imports src/cli/cli-io.ts: batch may not import cli (a higher layer)",
+    ]);
+  });
+
+  it("rejects a verb of the command line importing another verb, but not a sub-verb importing its own verb's files", () => {
+    const files: SourceText[] = [
+      { path: "src/cli/verbs/demo.ts", text: 'import { fitAll } from "./fit.js";' },
+      { path: "src/cli/verbs/fit.ts", text: 'import { fitArguments } from "../fit-arguments.js";' },
+      { path: "src/cli/verbs/batch/plan.ts", text: 'import { choice } from "./catalogue-fit-arguments.js";\nimport { x } from "../predict/x.js";' },
+      { path: "src/cli/verbs/batch/catalogue-fit-arguments.ts", text: "" },
+      { path: "src/cli/verbs/predict/x.ts", text: "" },
+      { path: "src/cli/fit-arguments.ts", text: "" },
+    ];
+    expect(layerViolations(files)).toEqual([
+      "src/cli/verbs/demo.ts:1 imports src/cli/verbs/fit.ts: the verb demo may not import the verb fit (shared code goes to src/cli/)",
+      "src/cli/verbs/batch/plan.ts:2 imports src/cli/verbs/predict/x.ts: the verb batch may not import the verb predict (shared code goes to src/cli/)",
     ]);
   });
 

@@ -13,11 +13,13 @@ export const PROJECT_ROOT = fileURLToPath(new URL("../..", import.meta.url));
  * (CI builds before testing; locally run `npm run build` after changing these files.)
  */
 export function requireFreshBuild(): void {
-  const sources = [
-    ...readdirSync(join(PROJECT_ROOT, "src", "batch"))
+  const sourcesOf = (folder: string) =>
+    readdirSync(join(PROJECT_ROOT, folder))
       .filter((name) => name.endsWith(".ts"))
-      .map((name) => `src/batch/${name}`),
-    "src/cli/verbs/batch.ts",
+      .map((name) => `${folder}/${name}`);
+  const sources = [
+    ...sourcesOf("src/batch"),
+    ...sourcesOf("src/cli/verbs/batch"),
     "src/cli/main.ts",
     "src/cli/bin.ts",
     "src/cli/cli-io.ts",

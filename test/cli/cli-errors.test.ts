@@ -34,8 +34,8 @@ describe("command-line errors", () => {
     const negative = GOOD.replace(/0\.02\n/, "-0.02\n");
     await expectOneLineError(["fit", "lc.csv", "--model", "drw"], /lc\.csv:2: column "mag_err"/, { "lc.csv": negative });
     await expectOneLineError(["fit", "lc.csv", "--model", "drw", "--time-col", "hjd"], /lc\.csv.*hjd/, { "lc.csv": GOOD });
-    await expectOneLineError(["fit", "lc.csv", "--model", "drw", "--seed", "1.5"], /--seed must be an integer/, { "lc.csv": GOOD });
-    await expectOneLineError(["fit", "lc.csv", "--model", "drw", "--redshift=-1"], /--redshift must be >= 0/, { "lc.csv": GOOD });
+    await expectOneLineError(["fit", "lc.csv", "--model", "drw", "--seed", "1.5"], /--seed must be a non-negative integer/, { "lc.csv": GOOD });
+    await expectOneLineError(["fit", "lc.csv", "--model", "drw", "--redshift=-1"], /--redshift must be a number >= 0/, { "lc.csv": GOOD });
   });
 
   it("predict: times, grid and --from problems", async () => {
@@ -65,7 +65,7 @@ describe("command-line errors", () => {
 
   it("periodogram, compare and report argument problems", async () => {
     await expectOneLineError(["periodogram", "lc.csv", "--min-period", "5", "--max-period", "2"], /--min-period \(5\) must be below --max-period \(2\)/, { "lc.csv": GOOD });
-    await expectOneLineError(["compare", "lc.csv", "--models", "drw,sho"], /"sho" is not one of/, { "lc.csv": GOOD });
+    await expectOneLineError(["compare", "lc.csv", "--models", "drw,sho"], /--models must be one of drw, oscillator, quasi-periodic, got "sho"/, { "lc.csv": GOOD });
     await expectOneLineError(["report", "nothing.json"], /nothing\.json: cannot read the file/);
   });
 

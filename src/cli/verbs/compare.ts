@@ -1,9 +1,9 @@
 import { compareModels } from "../../models/compare-models.js";
-import { MODEL_NAMES, type ModelName } from "../../models/light-curve-model.js";
+import { MODEL_NAMES } from "../../models/light-curve-model.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
-import { UsageError } from "../../errors/usage-error.js";
+import { FIT_OPTIONS, fitArguments, modelName } from "../fit-arguments.js";
 import { readInput } from "../read-input.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, PERIOD_HELP, PERIOD_OPTIONS, periodLimitsFrom, seedOption, singleInput, textOption } from "../verb-arguments.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium compare FILE [--models drw,oscillator,quasi-periodic] [options]
@@ -19,7 +19,7 @@ Options:
   --models LIST           comma-separated models (default drw,oscillator,quasi-periodic)
   --background drw        add a damped-random-walk background to every model
   --seed N                seed of the optimiser's random starts (default 1)
-${PERIOD_HELP}
+  --min-period P, --max-period P   the period range of the periodic models (as for fit)
   --out FILE              write the comparison as JSON here
   --quiet                 do not print the table
 ${COLUMN_HELP}
@@ -30,10 +30,11 @@ Example:
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
-  ...PERIOD_OPTIONS,
   models: { type: "string" },
-  background: { type: "string" },
-  seed: { type: "string" },
+  background: FIT_OPTIONS.background,
+  seed: FIT_OPTIONS.seed,
+  "min-period": FIT_OPTIONS["min-period"],
+  "max-period": FIT_OPTIONS["max-period"],
   out: { type: "string" },
   quiet: { type: "boolean" },
 } as const;
@@ -47,17 +48,13 @@ export const verb: CliVerb = {
     const { values, positionals } = parsed;
     const file = singleInput(positionals);
     const quiet = values.quiet === true;
-    const models = (textOption(values, "models") ?? MODEL_NAMES.join(",")).split(",").map((m) => m.trim());
-    for (const model of models)
-      if (!MODEL_NAMES.includes(model as ModelName)) throw new UsageError(`--models: "${model}" is not one of ${MODEL_NAMES.join(", ")}`);
-    const background = textOption(values, "background");
-    if (background !== undefined && background !== "drw") throw new UsageError(`--background must be drw, got "${background}"`);
-    const seed = seedOption(values);
-    const periodLimits = periodLimitsFrom(values);
+    const models = (textOption(values, "models") ?? MODEL_NAMES.join(",")).split(",").map((m) => modelName(m.trim(), "--models"));
+    const { seed, background, minimumPeriod, maximumPeriod } = fitArguments(values, false);
+    const periodLimits = { ...(minimumPeriod !== undefined ? { minimumPeriod } : {}), ...(maximumPeriod !== undefined ? { maximumPeriod } : {}) };
     const lightCurves = await readInput(file, values, io, quiet);
     const comparisons = lightCurves.map((lightCurve) => ({
       ...(lightCurve.band !== undefined ? { band: lightCurve.band } : {}),
-      ...compareModels(lightCurve, models as ModelName[], { seed, periodLimits, ...(background ? { background: "drw" as const } : {}) }),
+      ...compareModels(lightCurve, models, { seed, periodLimits, ...(background ? { background } : {}) }),
     }));
     if (!quiet) {
       for (const comparison of comparisons) {

@@ -10,7 +10,7 @@ import type { CliIo, CliVerb } from "../cli-io.js";
 import { UsageError } from "../../errors/usage-error.js";
 import { parseVerbArguments, seedOption, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
-import { fitAll } from "./fit.js";
+import { fitAll } from "../fit-light-curves.js";
 import { predictionCsv } from "../../models/prediction-csv.js";
 
 const HELP = `Usage: horologium demo [--out DIR] [--seed N] [--no-report] [--quiet]

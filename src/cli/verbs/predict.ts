@@ -1,28 +1,25 @@
-import type { LightCurve } from "../../lightcurve/light-curve.js";
 import { InputError } from "../../errors/input-error.js";
-import { fitLightCurveDetailed } from "../../models/fit-light-curve.js";
-import type { FitOptions } from "../../models/fit-options.js";
-import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
-import { posteriorPredictive } from "../../models/posterior-predictive.js";
-import { predictionCsv } from "../../models/prediction-csv.js";
-import { evenlySpacedItems, storedPosteriorSample } from "../../models/posterior-sample.js";
-import type { CliIo, CliVerb } from "../cli-io.js";
 import { UsageError } from "../../errors/usage-error.js";
-import { fitSummaryText } from "../fit-summary-text.js";
-import { samplerProgressBar } from "../progress-bar.js";
-import { readInput } from "../read-input.js";
-import { readFitResult } from "../read-result.js";
-import { parseGrid, readTimesFile } from "../requested-times.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, PERIOD_OPTIONS, singleInput, textOption, type VerbArguments } from "../verb-arguments.js";
-import { writeOutput } from "../write-output.js";
-import { bandChoice, BAND_HELP, BAND_OPTIONS } from "../band-choice.js";
-import { fitJointWithProgress } from "../fit-bands.js";
+import type { LightCurve } from "../../lightcurve/light-curve.js";
 import { bandPredictionCsv } from "../../models/band-prediction-csv.js";
 import type { FitResult } from "../../models/fit-result.js";
 import { jointModelFromResult } from "../../models/joint-model-from-result.js";
 import { jointPredictive } from "../../models/joint-predictive.js";
-import type { PredictiveCurve } from "../../models/posterior-predictive.js";
-import { fitOptionsFrom } from "./fit.js";
+import { MODEL_NAMES } from "../../models/light-curve-model.js";
+import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
+import { posteriorPredictive, type PredictiveCurve } from "../../models/posterior-predictive.js";
+import { evenlySpacedItems, storedPosteriorSample } from "../../models/posterior-sample.js";
+import { predictionCsv } from "../../models/prediction-csv.js";
+import { BAND_HELP, BAND_OPTIONS, bandChoice } from "../band-choice.js";
+import type { CliIo, CliVerb } from "../cli-io.js";
+import { FIT_OPTIONS, fitArguments } from "../fit-arguments.js";
+import { fitJointWithProgress } from "../fit-bands.js";
+import { fitWithProgress, requireErrorsForRobust } from "../fit-light-curves.js";
+import { readInput } from "../read-input.js";
+import { readFitResult } from "../read-result.js";
+import { parseGrid, readTimesFile } from "../requested-times.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, integerOption, parseVerbArguments, singleInput, textOption, type VerbArguments } from "../verb-arguments.js";
+import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium predict FILE --model MODEL (--at TIMES.csv | --grid START:STOP:STEP) [options]
 
@@ -33,14 +30,14 @@ time,mean,sd,lower95,upper95; for a multi-band file time,band,mean,sd,lower95,up
 curve per band (from the joint fit by default, each band given every band's data).
 
 Options:
-  --model NAME            drw, oscillator or quasi-periodic (a fresh fit; or taken from --from)
+  --model NAME            the model of a fresh fit (${MODEL_NAMES.join(", ")}); with --from, the result's
   --from RESULT.json      use the posterior draws stored by "horologium fit" instead of refitting
   --at FILE               requested times: one per line, or a CSV with a time column
   --grid START:STOP:STEP  requested times on a regular grid
   --draws N               posterior draws in the mixture (default 200)
   --out FILE              write the CSV here (default: standard output)
-  --background drw, --seed N, --sampler, --max-evaluations, --jitter, --robust,
-  --min-period P, --max-period P                                    as for fit
+  --background, --seed, --redshift, --jitter, --robust, --sampler, --max-evaluations,
+  --min-period, --max-period   as for fit, when fitting afresh (see horologium fit --help)
   --quiet                 no progress bar, no summary on stderr
 ${COLUMN_HELP}
 ${BAND_HELP}
@@ -51,21 +48,13 @@ Example:
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
-  ...PERIOD_OPTIONS,
+  ...FIT_OPTIONS,
   ...BAND_OPTIONS,
-  model: { type: "string" },
   from: { type: "string" },
   at: { type: "string" },
   grid: { type: "string" },
   draws: { type: "string" },
   out: { type: "string" },
-  background: { type: "string" },
-  seed: { type: "string" },
-  sampler: { type: "string" },
-  "max-evaluations": { type: "string" },
-  redshift: { type: "string" },
-  jitter: { type: "boolean" },
-  robust: { type: "boolean" },
   quiet: { type: "boolean" },
 } as const;
 
@@ -82,9 +71,7 @@ export const verb: CliVerb = {
     const grid = textOption(values, "grid");
     if ((at === undefined) === (grid === undefined)) throw new UsageError("give exactly one of --at FILE or --grid START:STOP:STEP");
     const times = at !== undefined ? readTimesFile(at, io.cwd) : parseGrid(grid!);
-    const drawsText = textOption(values, "draws");
-    const drawCount = drawsText === undefined ? 200 : Number(drawsText);
-    if (!Number.isInteger(drawCount) || drawCount < 1) throw new UsageError(`--draws must be a positive integer, got "${drawsText}"`);
+    const drawCount = integerOption(values, "draws", 1) ?? 200;
     const lightCurves = await readInput(file, values, io, quiet);
     const from = textOption(values, "from");
     const stored = from !== undefined ? readFitResult(from, io.cwd, lightCurves.length === 1 ? lightCurves[0].band : textOption(values, "band")) : undefined;
@@ -122,7 +109,8 @@ function singleBandCurve(
     let rows: readonly (readonly number[])[];
     if (stored !== undefined) {
       const result = stored;
-      const requested = textOption(values, "model");
+      // The fit options are checked by the same rules though only --model is used (against the result's).
+      const requested = fitArguments(values, false).model;
       if (requested !== undefined && requested !== result.model)
         throw new UsageError(`--model ${requested} does not match the model of ${from} (${result.model})`);
       try {
@@ -134,17 +122,9 @@ function singleBandCurve(
         throw error;
       }
     } else {
-      const options = fitOptionsFrom(values) as FitOptions;
-      if (options.robust && !lightCurve.error)
-        throw new InputError("--robust needs an error column (the Student-t noise scales each point's error)", { file });
-      const bar = samplerProgressBar(io, quiet, lightCurve.band ? `fitting band ${lightCurve.band}` : "fitting");
-      let fit;
-      try {
-        fit = fitLightCurveDetailed(lightCurve, { ...options, ...(bar.onProgress ? { onProgress: bar.onProgress } : {}), clock: io.now });
-      } finally {
-        bar.stop();
-      }
-      if (!quiet) io.stderr(fitSummaryText(fit.result));
+      const options = fitArguments(values, true);
+      requireErrorsForRobust([lightCurve], options, file);
+      const fit = fitWithProgress(lightCurve, options, io, quiet, lightCurve.band ? `fitting band ${lightCurve.band}` : "fitting");
       model = fit.model;
       lightCurve = fit.conditioning;
       rows = fit.result.posteriorSample.rows;
@@ -171,7 +151,7 @@ function multiBandCurves(
     const choice = bandChoice(values, lightCurves);
     if (choice.kind !== "joint")
       return lightCurves.map((lc) => ({ band: lc.band!, curve: singleBandCurve(lc, undefined, from, values, io, quiet, times, drawCount, file) }));
-    const options = fitOptionsFrom(values) as FitOptions;
+    const options = fitArguments(values, true);
     const fit = fitJointWithProgress(lightCurves, options, choice, io, quiet);
     const rows = evenlySpacedItems(fit.result.posteriorSample.rows, drawCount);
     return fit.model.bands.map((band, b) => ({ band, curve: jointPredictive(fit.model, lightCurves, rows, b, times) }));

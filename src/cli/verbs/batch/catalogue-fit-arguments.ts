@@ -1,0 +1,76 @@
+import { resolve } from "node:path";
+import { pathToFileURL } from "node:url";
+import type { ResultsFormat } from "../../../batch/batch-run.js";
+import type { CatalogueReadOptions } from "../../../batch/catalogue-input.js";
+import { UsageError } from "../../../errors/usage-error.js";
+import type { ModelName } from "../../../models/light-curve-model.js";
+import type { CliIo } from "../../cli-io.js";
+import { FIT_OPTIONS, fitArgumentList, fitArguments, type FitArguments } from "../../fit-arguments.js";
+import { lightCurveReadOptions } from "../../read-input.js";
+import { COLUMN_OPTIONS, numberOption, textOption, type VerbArguments } from "../../verb-arguments.js";
+
+/** The options of `batch` and `batch plan` that say what to fit and how to read the catalogue. */
+export const CATALOGUE_FIT_OPTIONS = {
+  ...FIT_OPTIONS,
+  ...COLUMN_OPTIONS,
+  "id-col": { type: "string" },
+  timeout: { type: "string" },
+  "fit-module": { type: "string" },
+} as const;
+
+/** The help lines of the catalogue options beyond those of every fit (FIT_HELP, COLUMN_HELP). */
+export const CATALOGUE_HELP = `  --id-col NAME           the object-id column, when INPUT is one table
+  --timeout SECONDS       give up on an object after this long (recorded as failed)
+  --fit-module FILE       fit with fitLightCurve(lightCurve, options) exported by this ES module
+                          instead of Horologium's own (for custom models; it must return a complete
+                          fit result, docs/architecture.md)`;
+
+/** What to fit and how, validated: shared by the run and the plan. */
+export interface CatalogueFitChoice {
+  readonly fit: FitArguments & { readonly model: ModelName };
+  readonly read: CatalogueReadOptions;
+  readonly timeoutSeconds?: number;
+  /** URL of the fit module, when one was given. */
+  readonly fitModule?: string;
+  /** The same choices as command-line arguments, for job scripts. */
+  readonly arguments: readonly string[];
+}
+
+/**
+ * Reads the fit options by the rules every fitting verb shares ({@link fitArguments}), the column options
+ * by those of every reading verb ({@link lightCurveReadOptions}), and the catalogue's own.
+ */
+export function catalogueFitChoice(values: VerbArguments["values"], io: CliIo): CatalogueFitChoice {
+  const fit = fitArguments(values, true);
+  const idColumn = textOption(values, "id-col");
+  const read: CatalogueReadOptions = { ...lightCurveReadOptions(values), ...(idColumn !== undefined ? { idColumn } : {}) };
+  const timeoutSeconds = numberOption(values, "timeout");
+  if (timeoutSeconds !== undefined && !(timeoutSeconds > 0)) throw new UsageError(`--timeout must be a positive number of seconds, got ${timeoutSeconds}`);
+  const modulePath = textOption(values, "fit-module");
+  const list = fitArgumentList(fit);
+  for (const name of ["id-col", ...Object.keys(COLUMN_OPTIONS), "timeout"]) {
+    const value = textOption(values, name);
+    if (value !== undefined) list.push(`--${name}`, value);
+  }
+  if (modulePath !== undefined) list.push("--fit-module", resolve(io.cwd, modulePath));
+  return {
+    fit,
+    read,
+    ...(timeoutSeconds !== undefined ? { timeoutSeconds } : {}),
+    ...(modulePath !== undefined ? { fitModule: pathToFileURL(resolve(io.cwd, modulePath)).href } : {}),
+    arguments: list,
+  };
+}
+
+/** The fit options handed to every object's fit as they are (the model, background and seed go separately). */
+export function perObjectFitOptions(fit: FitArguments): Record<string, string | number | boolean> {
+  const { model: _model, background: _background, seed: _seed, ...rest } = fit;
+  return { ...rest };
+}
+
+/** The format of a results table from its file name. */
+export function resultsFormatOf(path: string, option: string): ResultsFormat {
+  if (/\.csv$/i.test(path)) return "csv";
+  if (/\.parquet$/i.test(path)) return "parquet";
+  throw new UsageError(`${option} ${path}: the results table must end in .csv or .parquet`);
+}
