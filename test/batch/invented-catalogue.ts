@@ -5,7 +5,7 @@ import type { LightCurve } from "../../src/lightcurve/light-curve.js";
 /**
  * Invented light curves of the made-up "Lanternfield" survey for the batch tests: object `lf-NNN` has
  * `points` noisy magnitudes around 19 + NNN/100. Sentinel ids get a sentinel first value understood by
- * fixtures/summary-fit.mjs: `failing` ids -999, `crashing` ids -777, `hanging` ids -555, `hoarding` ids -333.
+ * fixtures/summary-fit.mjs: `failing` ids -111, `crashing` ids -777, `hanging` ids -555, `hoarding` ids -333.
  */
 export function inventedLightCurve(id: string, points: number, firstValue?: number): LightCurve {
   const rng = createRng(`lanternfield/${id}`);
@@ -54,7 +54,7 @@ export async function* inventedCatalogue(ids: readonly string[], sentinels: Sent
       continue;
     }
     const first = sentinels.failing?.includes(id)
-      ? -999
+      ? -111
       : sentinels.crashing?.includes(id)
         ? -777
         : sentinels.hanging?.includes(id)
