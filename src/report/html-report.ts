@@ -42,7 +42,7 @@ export interface HtmlReportOptions {
 export function htmlReport(input: ReportInput, figures: readonly DrawnFigure[], options: HtmlReportOptions = {}): string {
   const files = options.figureFiles ?? true;
   const { result, lightCurve } = input;
-  const title = input.title ?? `${lightCurve.provenance.source}${lightCurve.band ? `, band ${lightCurve.band}` : ""}`;
+  const title = input.title ?? `${sourceStem(lightCurve.provenance.source)}${lightCurve.band ? `, band ${lightCurve.band}` : ""}: ${result.model}`;
   const warnings = reportWarnings(input);
   const byId = new Map(figures.map((f) => [f.figure.id, f]));
   const figure = (id: string) => {
@@ -65,7 +65,7 @@ export function htmlReport(input: ReportInput, figures: readonly DrawnFigure[], 
 <main>
 <header>
 <h1>${escapeHtml(title)}</h1>
-<p class="meta">Model <code>${escapeHtml(result.model)}</code> · seed <code>${escapeHtml(String(result.seed))}</code> · Horologium ${escapeHtml(result.version)} · source <code>${escapeHtml(lightCurve.provenance.source)}</code></p>
+<p class="meta">Model <code>${escapeHtml(result.model)}</code> · seed <code>${escapeHtml(String(result.seed))}</code> · Horologium ${escapeHtml(result.version)}</p>
 </header>
 ${warningsHtml(warnings)}
 <section id="summary">
@@ -76,6 +76,8 @@ ${warningsHtml(warnings)}
 <h2>Parameters</h2>
 ${parameterTable(input)}
 </section>
+${derivedSection(input)}
+${outlierSection(input)}
 ${figure("light-curve")}
 ${figure("corner")}
 ${figure("spectrum")}
@@ -156,6 +158,88 @@ function interval95(s: ParameterSummary): string {
   return `${formatAtDigit(s["q2.5"], power)} to ${formatAtDigit(s["q97.5"], power)}`;
 }
 
+/** The file name without folders and extensions, as the object's name when nothing better is known. */
+function sourceStem(source: string): string {
+  return source.replace(/^.*[\\/]/, "").replace(/\.gz$/i, "").replace(/\.[^.]+$/, "") || source;
+}
+
+function derivedSection(input: ReportInput): string {
+  const entries = Object.entries(input.result.derived);
+  if (entries.length === 0) return "";
+  const redshift = input.result.options.redshift;
+  const rows = entries.map(([name, s]) => {
+    const unit = derivedUnit(input, name);
+    return `<tr><th scope="row">${escapeHtml(s.description)} <span class="name">${escapeHtml(name)}</span></th><td>${escapeHtml(unit === "" ? "–" : unit)}</td><td>${escapeHtml(formatMeasurement(s.median, s.median - s.q16, s.q84 - s.median))}</td><td>${escapeHtml(interval95(s))}</td></tr>`;
+  });
+  return `<section id="derived">
+<h2>Derived quantities</h2>
+<table class="numbers"><thead><tr><th scope="col">Quantity</th><th scope="col">Unit</th><th scope="col">Median and 68% interval</th><th scope="col">95% interval</th></tr></thead><tbody>
+${rows.join("\n")}
+</tbody></table>${redshift === undefined ? "" : `\n<p class="note">Rest-frame quantities use the redshift z = ${escapeHtml(formatSignificant(redshift, 4))} given to the fit (observed-frame time divided by 1 + z).</p>`}
+</section>`;
+}
+
+/** Units of the derived quantities Horologium computes (timescales in the time unit, amplitudes in the value unit). */
+function derivedUnit(input: ReportInput, name: string): string {
+  if (/tau|period|time/i.test(name)) return timeUnitOf(input);
+  if (/^sf|sigma|amplitude/i.test(name)) return input.lightCurve.unit === "mag" ? "mag" : "flux";
+  return "";
+}
+
+/** Most outliers listed; more are counted. */
+const MAX_OUTLIERS_LISTED = 100;
+
+function outlierSection(input: ReportInput): string {
+  const robust = input.result.robust;
+  if (robust === undefined) return "";
+  const { time, value, error } = input.lightCurve;
+  const flagged: number[] = [];
+  robust.outlierProbability.forEach((p, i) => {
+    if (p > 0.5 && i < time.length) flagged.push(i);
+  });
+  const head = `<p>Noise: ${escapeHtml(robust.noise)}. ${flagged.length === 0 ? "No point is more likely than not an outlier." : `${flagged.length} point${flagged.length === 1 ? " is" : "s are"} more likely than not outliers (scatter beyond twice the error bar); the fit down-weights them rather than dropping them.`}</p>`;
+  if (flagged.length === 0) return `<section id="outliers">\n<h2>Outliers</h2>\n${head}\n</section>`;
+  const rows = flagged
+    .slice(0, MAX_OUTLIERS_LISTED)
+    .map(
+      (i) =>
+        `<tr><td>${escapeHtml(formatSignificant(time[i]!, 10))}</td><td>${escapeHtml(formatSignificant(value[i]!, 6))}</td><td>${error ? escapeHtml(formatSignificant(error[i]!, 3)) : "–"}</td><td>${escapeHtml(formatSignificant(robust.outlierProbability[i]!, 3))}</td></tr>`,
+    );
+  const more = flagged.length > MAX_OUTLIERS_LISTED ? `\n<p class="note">The first ${MAX_OUTLIERS_LISTED} of ${flagged.length} are listed; the result JSON has every point's probability (robust.outlierProbability).</p>` : "";
+  return `<section id="outliers">
+<h2>Outliers</h2>
+${head}
+<table class="numbers narrow"><thead><tr><th scope="col">Time [${escapeHtml(timeUnitOf(input))}]</th><th scope="col">Value</th><th scope="col">Error</th><th scope="col">Outlier probability</th></tr></thead><tbody>
+${rows.join("\n")}
+</tbody></table>${more}
+</section>`;
+}
+
+/** The sampler and how the run ended, in words. */
+const DIAGNOSTIC_WORDS: Readonly<Record<string, Readonly<Record<string, string>>>> = {
+  sampler: {
+    ensemble: "walker ensemble (affine-invariant stretch moves)",
+    nuts: "no-U-turn sampler (NUTS)",
+  },
+  stopReason: {
+    converged: "stopped when every convergence criterion held",
+    budget: "stopped at the evaluation budget, before convergence",
+    cancelled: "cancelled before convergence",
+  },
+};
+
+const DIAGNOSTIC_LABELS: Readonly<Record<string, string>> = {
+  sampler: "Sampler",
+  stopReason: "How the run ended",
+  keptDraws: "Posterior draws kept for the summaries",
+};
+
+/** A camelCase key in words, for diagnostics a newer sampler may add: "warmupSteps" -> "Warmup steps". */
+function keyInWords(key: string): string {
+  const words = key.replace(/([a-z0-9])([A-Z])/g, "$1 $2").toLowerCase();
+  return words.charAt(0).toUpperCase() + words.slice(1);
+}
+
 function diagnosticsTable(d: FitDiagnostics): string {
   const known: [string, string, string][] = [
     ["Converged", d.converged ? "yes" : "no", d.converged ? "" : "bad"],
@@ -174,8 +258,10 @@ function diagnosticsTable(d: FitDiagnostics): string {
   const listed = new Set(["converged", "rhatMax", "rhatThreshold", "essMin", "autocorrelationTime", "acceptance", "likelihoodEvaluations", "seconds"]);
   for (const [key, value] of Object.entries(d)) {
     if (listed.has(key)) continue;
-    if (typeof value === "number") known.push([key, formatSignificant(value, 4), ""]);
-    else if (typeof value === "string" || typeof value === "boolean") known.push([key, String(value), ""]);
+    const label = DIAGNOSTIC_LABELS[key] ?? keyInWords(key);
+    if (typeof value === "number") known.push([label, key === "keptDraws" ? String(value) : formatSignificant(value, 4), ""]);
+    else if (typeof value === "string") known.push([label, DIAGNOSTIC_WORDS[key]?.[value] ?? value, value === "budget" ? "bad" : ""]);
+    else if (typeof value === "boolean") known.push([label, value ? "yes" : "no", ""]);
   }
   const rows = known.map(
     ([label, value, cls]) =>
@@ -191,7 +277,9 @@ function dataTable(input: ReportInput): string {
   const rows: [string, string][] = [
     ["Source", lightCurve.provenance.source],
     ["Measurements", String(result.data.n)],
-    ["Rows dropped (missing values)", String(result.data.dropped)],
+    ["Rows dropped (missing values and placeholder codes)", String(result.data.dropped)],
+    ...(result.data.placeholders ? ([["Of these, placeholder codes (99, 99.99, -99, -999)", String(result.data.placeholders)]] as [string, string][]) : []),
+    ["Rows sorted by time on reading", lightCurve.provenance.sorted ? "yes (the file was not in time order)" : "no (already in time order)"],
     ["Baseline", `${formatSignificant(result.data.baseline, 4)} ${timeUnit}`],
     ["Median cadence", `${formatSignificant(result.data.medianCadence, 3)} ${timeUnit}`],
     ["Columns (time, value, error)", `${result.data.timeColumn}, ${result.data.valueColumn}, ${result.data.errorColumn ?? "none"}`],

@@ -1,27 +1,36 @@
 import type { TopLevelSpec } from "vega-lite";
+import { bulkRange } from "./bulk-range.js";
 import { evenIndices } from "./even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
 import { formatSignificant } from "./format-measurement.js";
 import { timeUnitOf, valueUnitOf } from "./parameter-display.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
-import { timeAxisTitle, timeOffset } from "./time-offset.js";
+import { timeAxisTitle, timeOffset, timeScaleName } from "./time-offset.js";
+import type { LayerMember } from "./vega-lite-types.js";
 
 /** The 0.975 quantile of the standard normal: the half-width, in sd, of a central 95% Gaussian band. */
 export const NORMAL_Z95 = 1.959963984540054;
 
 /** Above this many points, error bars are left out: they would merge into a solid smear. */
-const MAX_POINTS_WITH_ERROR_BARS = 5000;
-/** Above this many points, an evenly spaced subset is drawn, to keep the SVG a few megabytes at most. */
-const MAX_POINTS_DRAWN = 20000;
+const MAX_POINTS_WITH_ERROR_BARS = 2000;
+/**
+ * Above this many points, an evenly spaced subset is drawn: a point costs about 150 bytes of SVG, so the
+ * figure stays under a megabyte for any number of points (at 760 pixels across, 5000 points already overlap).
+ */
+const MAX_POINTS_DRAWN = 5000;
 /** Above this many grid times, the predictive curve is thinned evenly, for the same reason. */
-const MAX_GRID_DRAWN = 4000;
+const MAX_GRID_DRAWN = 2000;
+/** A point whose outlier probability (robust noise) exceeds this is drawn apart and listed. */
+const OUTLIER_PROBABILITY = 0.5;
 
 const SERIES_DATA_WITH_ERRORS = "data ± 1σ";
 const SERIES_DATA = "data";
 const SERIES_MEAN = "posterior-predictive mean";
 const SERIES_INNER = "68% band";
 const SERIES_OUTER = "95% band";
+const SERIES_OUTLIER = "likely outlier (robust noise)";
+const SERIES_BEYOND = "beyond the axis (drawn at its edge)";
 
 /**
  * The light curve with its error bars, and the posterior-predictive mean of the latent curve with its
@@ -37,11 +46,26 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
   const drawn = evenIndices(n, MAX_POINTS_DRAWN);
   const withErrors = lightCurve.error !== undefined && n <= MAX_POINTS_WITH_ERROR_BARS;
 
-  const dataRows = drawn.map((i) => {
+  const outlierProbability = input.result.robust?.outlierProbability;
+  const flagged = (i: number) => (outlierProbability?.[i] ?? 0) > OUTLIER_PROBABILITY;
+  const domain = bulkRange(lightCurve.value, prediction.mean);
+  const clamp = (v: number) => Math.min(domain[1], Math.max(domain[0], v));
+  const dataRows = drawn
+    .filter((i) => !flagged(i) && lightCurve.value[i]! >= domain[0] && lightCurve.value[i]! <= domain[1])
+    .map((i) => {
+      const y = lightCurve.value[i]!;
+      const e = lightCurve.error?.[i] ?? 0;
+      return { t: lightCurve.time[i]! - offset, y, lo: clamp(y - e), hi: clamp(y + e) };
+    });
+  // Every flagged or off-axis point is drawn, thinned or not: these are the points a reader looks for.
+  const outlierRows: { t: number; y: number }[] = [];
+  const beyondRows: { t: number; y: number; side: string }[] = [];
+  for (let i = 0; i < n; i++) {
     const y = lightCurve.value[i]!;
-    const e = lightCurve.error?.[i] ?? 0;
-    return { t: lightCurve.time[i]! - offset, y, lo: y - e, hi: y + e };
-  });
+    const beyond = y < domain[0] || y > domain[1];
+    if (beyond) beyondRows.push({ t: lightCurve.time[i]! - offset, y: clamp(y), side: (y > domain[1]) !== (lightCurve.unit === "mag") ? "up" : "down" });
+    else if (flagged(i)) outlierRows.push({ t: lightCurve.time[i]! - offset, y });
+  }
   const gridRows = evenIndices(prediction.time.length, MAX_GRID_DRAWN).map((i) => {
     const m = prediction.mean[i]!;
     const s = prediction.sd[i]!;
@@ -57,21 +81,35 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
 
   const isMag = lightCurve.unit === "mag";
   const yTitle = isMag ? "Magnitude [mag]" : "Flux [flux units]";
-  const xTitle = timeAxisTitle(offset, timeUnit);
+  const xTitle = timeAxisTitle(offset, timeUnit, timeScaleName(lightCurve.provenance.timeColumn));
   const dataSeries = withErrors ? SERIES_DATA_WITH_ERRORS : SERIES_DATA;
-  const seriesDomain = [dataSeries, SERIES_MEAN, SERIES_INNER, SERIES_OUTER];
+  const seriesDomain = [
+    dataSeries,
+    SERIES_MEAN,
+    SERIES_INNER,
+    SERIES_OUTER,
+    ...(outlierRows.length > 0 ? [SERIES_OUTLIER] : []),
+    ...(beyondRows.length > 0 ? [SERIES_BEYOND] : []),
+  ];
   const colorScale = {
     domain: seriesDomain,
-    range: [FIGURE_COLORS.data, FIGURE_COLORS.model, FIGURE_COLORS.modelBandInner, FIGURE_COLORS.modelBandOuter],
+    range: [
+      FIGURE_COLORS.data,
+      FIGURE_COLORS.model,
+      FIGURE_COLORS.modelBandInner,
+      FIGURE_COLORS.modelBandOuter,
+      ...(outlierRows.length > 0 ? [FIGURE_COLORS.marker] : []),
+      ...(beyondRows.length > 0 ? [FIGURE_COLORS.marker] : []),
+    ],
   };
   const x = { field: "t", type: "quantitative" as const, title: xTitle, axis: { format: "~f" }, scale: { zero: false, nice: false } };
-  const yScale = { zero: false, reverse: isMag };
+  const yScale = { zero: false, reverse: isMag, domain, nice: false };
   const legend = { title: null, orient: "top" as const, direction: "horizontal" as const };
 
-  const layers: unknown[] = [
+  const layers: LayerMember[] = [
     {
       data: { name: "grid" },
-      mark: { type: "area", opacity: 0.9 },
+      mark: { type: "area", opacity: 0.9, clip: true },
       encoding: {
         x,
         y: { field: "lo95", type: "quantitative", title: yTitle, scale: yScale },
@@ -81,7 +119,7 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
     },
     {
       data: { name: "grid" },
-      mark: { type: "area", opacity: 0.9 },
+      mark: { type: "area", opacity: 0.9, clip: true },
       encoding: {
         x,
         y: { field: "lo68", type: "quantitative" },
@@ -91,7 +129,7 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
     },
     {
       data: { name: "grid" },
-      mark: { type: "line", strokeWidth: 1.5 },
+      mark: { type: "line", strokeWidth: 1.5, clip: true },
       encoding: { x, y: { field: "m", type: "quantitative" }, color: { datum: SERIES_MEAN } },
     },
   ];
@@ -107,15 +145,34 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
     mark: { type: "point", filled: true, size: n > 2000 ? 6 : 14, opacity: 0.9 },
     encoding: { x, y: { field: "y", type: "quantitative" }, color: { datum: dataSeries } },
   });
+  if (outlierRows.length > 0) {
+    layers.push({
+      data: { name: "outliers" },
+      mark: { type: "point", filled: false, size: 40, strokeWidth: 1.5, shape: "circle" },
+      encoding: { x, y: { field: "y", type: "quantitative" }, color: { datum: SERIES_OUTLIER } },
+    });
+  }
+  if (beyondRows.length > 0) {
+    layers.push({
+      data: { name: "beyond" },
+      mark: { type: "point", filled: true, size: 45, clip: false },
+      encoding: {
+        x,
+        y: { field: "y", type: "quantitative" },
+        shape: { field: "side", type: "nominal", scale: { domain: ["up", "down"], range: ["triangle-up", "triangle-down"] }, legend: null },
+        color: { datum: SERIES_BEYOND },
+      },
+    });
+  }
 
-  const spec = {
+  const spec: TopLevelSpec = {
     $schema: "https://vega.github.io/schema/vega-lite/v6.json",
     config: figureConfig(),
     width: 760,
     height: 320,
-    datasets: { data: dataRows, grid: gridRows },
+    datasets: { data: dataRows, grid: gridRows, outliers: outlierRows, beyond: beyondRows },
     layer: layers,
-  } as unknown as TopLevelSpec;
+  };
 
   const errorNote =
     lightCurve.error === undefined
@@ -123,7 +180,15 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
       : withErrors
         ? "Bars are the 1σ measurement errors."
         : `Error bars are left out above ${MAX_POINTS_WITH_ERROR_BARS} points; the median 1σ error is ${formatSignificant(medianError(lightCurve.error), 2)} ${valueUnit}.`;
-  const thinNote = drawn.length < n ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn.` : "";
+  const thinNote = drawn.length < n ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn (every flagged or off-axis point is).` : "";
+  const outlierNote =
+    outlierRows.length > 0
+      ? ` Open red circles: the ${outlierRows.length} points the robust noise model finds more likely than not to be outliers (listed in the outlier table).`
+      : "";
+  const beyondNote =
+    beyondRows.length > 0
+      ? ` The value axis spans the bulk of the data; ${beyondRows.length} point${beyondRows.length === 1 ? " lies" : "s lie"} beyond it, drawn as red triangles at its edge.`
+      : "";
   const offsetNote = offset === 0 ? "" : ` Times are shown relative to ${offset} ${timeUnit}.`;
   return {
     id: "light-curve",
@@ -131,7 +196,7 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
     caption:
       `Points: the ${n} measurements. ${errorNote} Line and shading: the posterior-predictive mean of the ` +
       `latent (noise-free) light curve with its 68% and 95% bands, continued across the gaps between ` +
-      `observations.${thinNote}${offsetNote}`,
+      `observations.${thinNote}${outlierNote}${beyondNote}${offsetNote}`,
     spec,
   };
 }

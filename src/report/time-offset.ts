@@ -13,8 +13,29 @@ export function timeOffset(times: ArrayLike<number>): number {
   return Math.sign(first) * Math.floor(Math.abs(first) / 1000) * 1000;
 }
 
-/** The time-axis title: "Time [d]" or, with an offset, "Time − 59000 [d]". */
-export function timeAxisTitle(offset: number, timeUnit: string): string {
-  if (offset === 0) return `Time [${timeUnit}]`;
-  return offset > 0 ? `Time − ${offset} [${timeUnit}]` : `Time + ${-offset} [${timeUnit}]`;
+/** Time columns whose name says which time scale they hold, and how an axis names it. */
+const TIME_SCALE_NAMES: Readonly<Record<string, string>> = {
+  mjd: "MJD",
+  jd: "JD",
+  hjd: "HJD",
+  bjd: "BJD",
+  rjd: "RJD",
+  btjd: "BTJD",
+};
+
+/**
+ * What the times are, for an axis: "MJD" when the time column is named mjd (likewise JD, HJD, BJD,
+ * common practice), else "Time".
+ *
+ * @example timeScaleName("MJD_obs") // "MJD"
+ */
+export function timeScaleName(timeColumn: string | undefined): string {
+  const key = (timeColumn ?? "").trim().toLowerCase().replace(/[_\s-].*$/, "");
+  return TIME_SCALE_NAMES[key] ?? "Time";
+}
+
+/** The time-axis title: "Time [d]" or, with an offset, "MJD − 59000 [d]" (the scale's name first). */
+export function timeAxisTitle(offset: number, timeUnit: string, scaleName = "Time"): string {
+  if (offset === 0) return `${scaleName} [${timeUnit}]`;
+  return offset > 0 ? `${scaleName} − ${offset} [${timeUnit}]` : `${scaleName} + ${-offset} [${timeUnit}]`;
 }
