@@ -1,7 +1,8 @@
 import type { Kernel } from "../kernels/kernel.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import type { SemiseparableFactorization } from "../linalg/semiseparable-factorization.js";
-import { semiseparablePredict } from "../linalg/semiseparable-smoother.js";
+import { SemiseparableConditionedStates } from "../linalg/semiseparable-conditioned-states.js";
+import { semiseparablePredict, type LatentPrediction } from "../linalg/semiseparable-smoother.js";
 import type { Rng } from "../random/rng.js";
 import {
   checkCovarianceSize,
@@ -12,11 +13,22 @@ import {
   type ConditionedProcess,
   type MeanAndVariance,
 } from "./gp-options.js";
-import { semiseparablePriorDraw } from "./semiseparable-prior-draw.js";
+import { priorFactorization, semiseparablePriorDraw } from "./semiseparable-prior-draw.js";
+
+/**
+ * Most numbers the smoother's states at every data point may take before `at` stops keeping them
+ * (2^22 numbers, 32 MB: N = 1e5 points of a four-component kernel); above, every `at` runs the smoother
+ * over data and requested times together, O((N + M) R^2) per call.
+ */
+export const CONDITIONED_STATES_LIMIT = 2 ** 22;
 
 /**
  * A semiseparable Gaussian process conditioned on observed values: what `GaussianProcess.given(values)`
- * returns. The values are checked and the residual formed once.
+ * returns. The values are checked and the residual formed once. The first `at` runs the smoother over
+ * data and requested times together (one O((N + M) R^2) pass: a single query costs no more than that);
+ * the second runs it over the data once more and keeps its states
+ * ({@link SemiseparableConditionedStates}, about twice a pass), so that every later requested time costs
+ * O(R^2 + log N), whatever N (`bench/conditioned-queries.ts`).
  *
  * @example
  * const given = gp.given(values);
@@ -25,6 +37,8 @@ import { semiseparablePriorDraw } from "./semiseparable-prior-draw.js";
  */
 export class SemiseparableConditionedProcess implements ConditionedProcess {
   private readonly residual: Float64Array;
+  private states?: SemiseparableConditionedStates;
+  private queries = 0;
 
   /**
    * @internal built by `GaussianProcess.given`, which shares its LDL factorisation through `factorized`
@@ -41,17 +55,33 @@ export class SemiseparableConditionedProcess implements ConditionedProcess {
   }
 
   /**
-   * Conditional mean and variance at any times, by the fixed-interval smoother over data and requested
-   * times together ({@link semiseparablePredict}), O((N + M) R^2).
+   * Conditional mean and variance at any times: by one smoother pass over data and requested times
+   * ({@link semiseparablePredict}) at the first call, from the smoother's kept states from the second on
+   * (O(R^2 + log N) per requested time; not kept above {@link CONDITIONED_STATES_LIMIT}).
    */
   at(times: ArrayLike<number>): MeanAndVariance {
+    checkTargets(times, "at");
+    const latent = this.latentAt(times);
+    const mean = latent.mean;
+    for (let k = 0; k < mean.length; k++) mean[k] += this.inputs.mean;
+    return { mean, variance: latent.variance };
+  }
+
+  private latentAt(times: ArrayLike<number>): LatentPrediction {
+    const { time, noiseVariance } = this.inputs;
+    this.queries++;
+    const keep = SemiseparableConditionedStates.storage(time.length, this.form.observation.length) <= CONDITIONED_STATES_LIMIT;
+    if (keep && this.queries > 1) {
+      this.states ??= new SemiseparableConditionedStates(this.form, time, noiseVariance, this.residual);
+      return this.states.at(times);
+    }
     const { sorted, order } = sortTargets(times, "at");
-    const latent = semiseparablePredict(this.form, this.inputs.time, this.inputs.noiseVariance, this.residual, sorted);
+    const merged = semiseparablePredict(this.form, time, noiseVariance, this.residual, sorted);
     const mean = new Float64Array(times.length);
     const variance = new Float64Array(times.length);
     for (let k = 0; k < order.length; k++) {
-      mean[order[k]] = latent.mean[k] + this.inputs.mean;
-      variance[order[k]] = latent.variance[k];
+      mean[order[k]] = merged.mean[k];
+      variance[order[k]] = merged.variance[k];
     }
     return { mean, variance };
   }
@@ -105,7 +135,7 @@ export class SemiseparableConditionedProcess implements ConditionedProcess {
         isData[k] = 1;
       } else merged[k] = sorted[j++];
     }
-    const joint = semiseparablePriorDraw(this.form, merged, 0, rng);
+    const joint = semiseparablePriorDraw(priorFactorization(this.form, merged), 0, rng);
     const atData = new Float64Array(n);
     const atNew = new Float64Array(m);
     for (let i = 0, j = 0, k = 0; k < n + m; k++) {

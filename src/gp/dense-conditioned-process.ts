@@ -12,6 +12,20 @@ import {
 } from "./gp-options.js";
 import { DRAW_JITTER } from "./semiseparable-prior-draw.js";
 
+/** The conditional mean and covariance factor at the times of the last draw. */
+interface DrawFactor {
+  readonly times: Float64Array;
+  readonly mean: Float64Array;
+  readonly cholesky: DenseCholesky;
+}
+
+/** Whether two lists of times are equal element by element. */
+function sameTimes(a: Float64Array, b: ArrayLike<number>): boolean {
+  if (a.length !== b.length) return false;
+  for (let i = 0; i < a.length; i++) if (a[i] !== b[i]) return false;
+  return true;
+}
+
 /**
  * A dense Gaussian process conditioned on observed values (`DenseGaussianProcess.given`), by the
  * prediction equations of Rasmussen & Williams 2006, Algorithm 2.1 and eq. 2.24: mean
@@ -19,6 +33,7 @@ import { DRAW_JITTER } from "./semiseparable-prior-draw.js";
  */
 export class DenseConditionedProcess implements ConditionedProcess {
   private readonly alpha: Float64Array;
+  private drawFactor?: DrawFactor;
 
   /** @internal built by `DenseGaussianProcess.given`. */
   constructor(
@@ -49,20 +64,30 @@ export class DenseConditionedProcess implements ConditionedProcess {
     return this.jointCovariance(times);
   }
 
-  /** mean + L xi with L L^T the joint conditional covariance (plus {@link DRAW_JITTER} k(0) on the diagonal). */
+  /**
+   * mean + L xi with L L^T the joint conditional covariance (plus {@link DRAW_JITTER} k(0) on the
+   * diagonal). The mean and factor of the last requested times are kept, so repeated draws at the same
+   * times cost O(M^2) each.
+   */
   draw(rng: Rng, times: ArrayLike<number>): Float64Array {
     checkTargets(times, "draw");
+    const m = times.length;
+    const kept = this.drawFactor && sameTimes(this.drawFactor.times, times) ? this.drawFactor : this.factorFor(times);
+    const xi = new Float64Array(m);
+    for (let i = 0; i < m; i++) xi[i] = rng.normal();
+    const out = kept.cholesky.correlate(xi);
+    for (let i = 0; i < m; i++) out[i] += kept.mean[i];
+    return out;
+  }
+
+  private factorFor(times: ArrayLike<number>): DrawFactor {
     const m = times.length;
     const covariance = this.jointCovariance(times);
     const jitter = DRAW_JITTER * this.kernel.covarianceAt(0);
     const matrix = new Matrix(m, m);
     for (let a = 0; a < m; a++) for (let b = 0; b < m; b++) matrix.set(a, b, covariance[a * m + b] + (a === b ? jitter : 0));
-    const xi = new Float64Array(m);
-    for (let i = 0; i < m; i++) xi[i] = rng.normal();
-    const out = new DenseCholesky(matrix).correlate(xi);
-    const mean = this.meanAt(times);
-    for (let i = 0; i < m; i++) out[i] += mean[i];
-    return out;
+    this.drawFactor = { times: Float64Array.from(times), mean: this.meanAt(times), cholesky: new DenseCholesky(matrix) };
+    return this.drawFactor;
   }
 
   /** m + k_*^T alpha at every requested time. */

@@ -24,6 +24,7 @@ export class DenseGaussianProcess {
   readonly kernel: Kernel;
   private readonly inputs: ConditionedInputs;
   private readonly cholesky: DenseCholesky;
+  private priorCholesky?: DenseCholesky;
 
   constructor(kernel: Kernel, time: ArrayLike<number>, options: GaussianProcessOptions = {}) {
     this.kernel = kernel;
@@ -97,14 +98,17 @@ export class DenseGaussianProcess {
     return new DenseConditionedProcess(this.kernel, this.inputs, this.cholesky, values);
   }
 
-  /** A prior draw of the latent process at the observation times (mean included). */
+  /** A prior draw of the latent process at the observation times (mean included); the factor is kept. */
   priorDraw(rng: Rng): Float64Array {
-    const k = this.covarianceMatrix(false);
-    const n = k.rows;
-    const jitter = DRAW_JITTER * this.kernel.covarianceAt(0);
-    for (let i = 0; i < n; i++) k.set(i, i, k.get(i, i) + jitter);
+    if (!this.priorCholesky) {
+      const k = this.covarianceMatrix(false);
+      const jitter = DRAW_JITTER * this.kernel.covarianceAt(0);
+      for (let i = 0; i < k.rows; i++) k.set(i, i, k.get(i, i) + jitter);
+      this.priorCholesky = new DenseCholesky(k);
+    }
+    const n = this.inputs.time.length;
     const xi = Float64Array.from({ length: n }, () => rng.normal());
-    const draw = new DenseCholesky(k).correlate(xi);
+    const draw = this.priorCholesky.correlate(xi);
     for (let i = 0; i < n; i++) draw[i] += this.inputs.mean;
     return draw;
   }

@@ -15,7 +15,7 @@ import {
   type GaussianProcessOptions,
   type GradientResult,
 } from "./gp-options.js";
-import { semiseparablePriorDraw } from "./semiseparable-prior-draw.js";
+import { priorFactorization, semiseparablePriorDraw } from "./semiseparable-prior-draw.js";
 
 /**
  * A Gaussian process with a semiseparable kernel, conditioned on observation times and per-point errors.
@@ -32,6 +32,7 @@ export class GaussianProcess {
   private readonly inputs: ConditionedInputs;
   private readonly form: SemiseparableForm;
   private factorization?: SemiseparableFactorization;
+  private priorFactor?: SemiseparableFactorization;
 
   /**
    * @param kernel any kernel with a semiseparable form
@@ -131,9 +132,13 @@ export class GaussianProcess {
     return new SemiseparableConditionedProcess(this.kernel, this.form, this.inputs, () => this.factorized(), values);
   }
 
-  /** A draw of the latent process at the observation times from the prior (the constant mean included). */
+  /**
+   * A draw of the latent process at the observation times from the prior (the constant mean included);
+   * the noise-free factorisation is formed at the first draw and kept, O(N R) per later draw.
+   */
   priorDraw(rng: Rng): Float64Array {
-    return semiseparablePriorDraw(this.form, this.inputs.time, this.inputs.mean, rng);
+    this.priorFactor ??= priorFactorization(this.form, this.inputs.time);
+    return semiseparablePriorDraw(this.priorFactor, this.inputs.mean, rng);
   }
 
   private factorized(): SemiseparableFactorization {
