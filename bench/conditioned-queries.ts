@@ -2,7 +2,9 @@
  * What `gp.given(values)` saves on repeated queries: the smoother's states kept at every data point
  * (src/linalg/semiseparable-conditioned-states.ts) against one smoother pass over data and requested
  * times together per query (src/linalg/semiseparable-smoother.ts, what every `at` call cost before).
- * Prints a Markdown table; figures in ms (wall clock, medians of 5 rounds). Run with
+ * A second table times the joint covariance at M times: `covarianceAt` (one solve and one semiseparable
+ * product per column, O(M (N + M) R)) against the explicit dot products k_a^T K^{-1} k_b it replaced
+ * (O(M^2 N)). Prints Markdown tables; figures in ms (wall clock, medians of 5 rounds). Run with
  * `npm run build && node dist/bench/conditioned-queries.js` on an otherwise idle machine.
  */
 import { GaussianProcess } from "../src/gp/gaussian-process.js";
@@ -32,7 +34,7 @@ function spread(time: Float64Array, m: number): Float64Array {
 }
 
 const rows: string[][] = [];
-for (const engineCase of engineCases().filter((c) => [1, 2, 4].includes(c.components))) {
+for (const engineCase of (process.argv.includes("--covariance-only") ? [] : engineCases()).filter((c) => [1, 2, 4].includes(c.components))) {
   for (const n of [10_000, 100_000]) {
     const data = benchmarkData(engineCase.kernel, n, createRng(`conditioned-queries:${engineCase.label}:${n}`));
     const gp = new GaussianProcess(engineCase.kernel, data.time, { errors: data.errors, mean: data.mean });
@@ -63,6 +65,20 @@ for (const engineCase of engineCases().filter((c) => [1, 2, 4].includes(c.compon
     console.error(`done: R = ${engineCase.components}, N = ${n}`);
   }
 }
+const covarianceRows: string[][] = [];
+const COVARIANCE_TIMES = 200;
+for (const engineCase of engineCases().filter((c) => [1, 2, 4].includes(c.components))) {
+  const n = 10_000;
+  const data = benchmarkData(engineCase.kernel, n, createRng(`conditioned-covariance:${engineCase.label}`));
+  const gp = new GaussianProcess(engineCase.kernel, data.time, { errors: data.errors, mean: data.mean });
+  const times = spread(data.time, COVARIANCE_TIMES);
+  const given = gp.given(data.value);
+  const product = msPerCall(() => given.covarianceAt(times)[1]);
+  const dots = msPerCall(() => dotProductCovariance(gp, times)[1]);
+  covarianceRows.push([String(engineCase.components), n.toExponential(0), String(COVARIANCE_TIMES), formatSignificant(dots), formatSignificant(product), formatSignificant(dots / product)]);
+  console.error(`done: covariance, R = ${engineCase.components}`);
+}
+
 console.log(`\n## Repeated queries of the conditioned process (M = ${QUERY_TIMES} times per query, ms per call)\n`);
 console.log(
   markdownTable(
@@ -70,3 +86,21 @@ console.log(
     rows,
   ),
 );
+console.log(`\n## Joint covariance at M times (ms per call)\n`);
+console.log(markdownTable(["R", "N", "M", "dot products k_a^T K^-1 k_b", "covarianceAt", "ratio"], covarianceRows));
+
+/** The joint covariance by explicit dot products of the solved columns: the method covarianceAt replaced. */
+function dotProductCovariance(gp: GaussianProcess, times: Float64Array): Float64Array {
+  const t = gp.time;
+  const m = times.length;
+  const cross = Array.from({ length: m }, (_, j) => Float64Array.from(t, (ti) => gp.kernel.covarianceAt(ti - times[j])));
+  const solved = cross.map((column) => gp.solve(column));
+  const covariance = new Float64Array(m * m);
+  for (let a = 0; a < m; a++)
+    for (let b = a; b < m; b++) {
+      let explained = 0;
+      for (let i = 0; i < t.length; i++) explained += cross[a][i] * solved[b][i];
+      covariance[a * m + b] = covariance[b * m + a] = gp.kernel.covarianceAt(times[a] - times[b]) - explained;
+    }
+  return covariance;
+}

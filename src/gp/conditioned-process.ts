@@ -2,6 +2,7 @@ import type { Kernel } from "../kernels/kernel.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import type { SemiseparableFactorization } from "../linalg/semiseparable-factorization.js";
 import { SemiseparableConditionedStates } from "../linalg/semiseparable-conditioned-states.js";
+import { SemiseparableCrossProduct } from "../linalg/semiseparable-cross-product.js";
 import { semiseparablePredict, type LatentPrediction } from "../linalg/semiseparable-smoother.js";
 import type { Rng } from "../random/rng.js";
 import {
@@ -87,31 +88,30 @@ export class SemiseparableConditionedProcess implements ConditionedProcess {
   }
 
   /**
-   * Joint conditional covariance k(a, b) - k_a^T K^{-1} k_b (Rasmussen & Williams 2006, eq. 2.24), one
-   * O(N R) solve per requested time and O(N) per pair.
+   * Joint conditional covariance k(a, b) - k_a^T K^{-1} k_b (Rasmussen & Williams 2006, eq. 2.24): per
+   * requested time b one O(N R) solve z = K^{-1} k_b and one semiseparable product k_a^T z for every a at
+   * once ({@link SemiseparableCrossProduct}), O(M (N + M) R) in all; symmetric to the last bit.
    */
   covarianceAt(times: ArrayLike<number>): Float64Array {
     const m = times.length;
     checkCovarianceSize(m);
-    checkTargets(times, "covarianceAt");
+    const { sorted, order } = sortTargets(times, "covarianceAt");
     const t = this.inputs.time;
     const n = t.length;
-    const cross: Float64Array[] = [];
-    const solved: Float64Array[] = [];
-    for (let j = 0; j < m; j++) {
-      const column = new Float64Array(n);
-      for (let i = 0; i < n; i++) column[i] = this.kernel.covarianceAt(t[i] - times[j]);
-      cross.push(column);
-      solved.push(this.factorized().solve(column));
+    const product = new SemiseparableCrossProduct(this.form, t, sorted);
+    const explained = new Float64Array(m * m);
+    const column = new Float64Array(n);
+    for (let b = 0; b < m; b++) {
+      for (let i = 0; i < n; i++) column[i] = this.kernel.covarianceAt(t[i] - sorted[b]);
+      const g = product.apply(this.factorized().solve(column));
+      for (let a = 0; a < m; a++) explained[a * m + b] = g[a];
     }
     const covariance = new Float64Array(m * m);
-    for (let i = 0; i < m; i++)
-      for (let j = i; j < m; j++) {
-        let explained = 0;
-        for (let k = 0; k < n; k++) explained += cross[i][k] * solved[j][k];
-        const value = this.kernel.covarianceAt(times[i] - times[j]) - explained;
-        covariance[i * m + j] = value;
-        covariance[j * m + i] = value;
+    for (let a = 0; a < m; a++)
+      for (let b = a; b < m; b++) {
+        const value = this.kernel.covarianceAt(sorted[a] - sorted[b]) - 0.5 * (explained[a * m + b] + explained[b * m + a]);
+        covariance[order[a] * m + order[b]] = value;
+        covariance[order[b] * m + order[a]] = value;
       }
     return covariance;
   }
