@@ -1,6 +1,7 @@
 import { FactorizationError } from "./factorization-error.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import type { LatentPrediction } from "./semiseparable-smoother.js";
+import { smootherBackwardStep } from "./smoother-backward-step.js";
 import { absorbPoint, projectState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
 
@@ -91,21 +92,7 @@ export class SemiseparableConditionedStates {
         layout.applyTransposeToVector(rVec, 0);
         layout.applyTransposeCongruence(nMat, 0);
       }
-      const u = k * r;
-      const inverse = 1 / pivots[k];
-      let ur = 0;
-      for (let i = 0; i < r; i++) ur += gains[u + i] * rVec[i];
-      for (let i = 0; i < r; i++) rVec[i] += p[i] * (innovations[k] - ur) * inverse;
-      let uNu = 0;
-      for (let i = 0; i < r; i++) {
-        let acc = 0;
-        for (let j = 0; j < r; j++) acc += nMat[i * r + j] * gains[u + j];
-        nu[i] = acc;
-        uNu += gains[u + i] * acc;
-      }
-      const scale = uNu * inverse * inverse + inverse;
-      for (let i = 0; i < r; i++)
-        for (let j = 0; j < r; j++) nMat[i * r + j] += -(p[i] * nu[j] + nu[i] * p[j]) * inverse + p[i] * p[j] * scale;
+      smootherBackwardStep(rVec, nMat, nu, p, gains, k * r, innovations[k], 1 / pivots[k], r);
       this.backwardVector.set(rVec, k * r);
       this.backwardMatrix.set(nMat, k * r * r);
     }

@@ -1,5 +1,6 @@
 import { FactorizationError } from "./factorization-error.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
+import { smootherBackwardStep } from "./smoother-backward-step.js";
 import { absorbPoint, projectState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
 
@@ -104,22 +105,7 @@ export function semiseparablePredict(
     const index = kinds[k];
     const u = k * r;
     if (index >= 0) {
-      const inverse = 1 / pivots[k];
-      let ur = 0;
-      for (let i = 0; i < r; i++) ur += gains[u + i] * rVec[i];
-      for (let i = 0; i < r; i++) rVec[i] += p[i] * (innovations[k] - ur) * inverse;
-      // N <- N - p (N u)^T / D - (N u) p^T / D + p p^T (u^T N u + 1) / D^2 ... (u^T N u / D^2 + 1 / D)
-      let uNu = 0;
-      for (let i = 0; i < r; i++) {
-        let acc = 0;
-        for (let j = 0; j < r; j++) acc += nMat[i * r + j] * gains[u + j];
-        nu[i] = acc;
-        uNu += gains[u + i] * acc;
-      }
-      const scale = uNu * inverse * inverse + inverse;
-      for (let i = 0; i < r; i++)
-        for (let j = 0; j < r; j++)
-          nMat[i * r + j] += -(p[i] * nu[j] + nu[i] * p[j]) * inverse + p[i] * p[j] * scale;
+      smootherBackwardStep(rVec, nMat, nu, p, gains, u, innovations[k], 1 / pivots[k], r);
     } else {
       let ur = 0;
       let uNu = 0;
