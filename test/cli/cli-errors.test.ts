@@ -49,7 +49,7 @@ describe("command-line errors", () => {
     await expectOneLineError(["predict", "lc.csv", "--from", "r.json", "--grid", "0:1:1"], /r\.json: not valid JSON/, { "lc.csv": GOOD, "r.json": "{oops" });
     await expectOneLineError(["predict", "lc.csv", "--from", "r.json", "--grid", "0:1:1"], /r\.json: not a horologium fit result/, { "lc.csv": GOOD, "r.json": '{"model":"drw"}' });
     // A result of the first format (no formatVersion), and one with a field of the wrong type.
-    const older = JSON.stringify({ model: "drw", seed: 1, parameters: {}, diagnostics: { autocorrTime: 3 } });
+    const older = JSON.stringify({ model: "drw", seed: 1, parameters: {}, diagnostics: { rhatMax: 1.2 } });
     await expectOneLineError(["predict", "lc.csv", "--from", "r.json", "--grid", "0:1:1"], /r\.json: written by an older version of horologium/, { "lc.csv": GOOD, "r.json": older });
     await expectOneLineError(["report", "r.json"], /r\.json: written by an older version of horologium/, { "r.json": older });
     const malformed = JSON.stringify({ ...inventedFitResult(), data: { ...inventedFitResult().data, n: "thirty" } });
