@@ -32,7 +32,7 @@ export const FIT_HELP = `  --model NAME            ${MODEL_NAMES.join(", ")}: dr
   --jitter                fit a white-noise term even when there is an error column
   --robust                Student-t noise: down-weights outliers and reports each point's outlier
                           probability (needs an error column)
-  --sampler nuts|ensemble the sampler (default ${DEFAULT_SAMPLER}, the one bench/samplers-compare.ts measured cheaper)
+  --sampler nuts|ensemble the sampler (default ${DEFAULT_SAMPLER}, the cheaper per effective draw on these models)
   --max-evaluations N     budget in log-likelihood evaluations, a positive integer (default 2e6);
                           a fit that runs out is reported with diagnostics.converged false
   --min-period P          shortest period searched and allowed (periodic models; default twice the

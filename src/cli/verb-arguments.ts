@@ -1,5 +1,6 @@
 import { parseArgs, type ParseArgsConfig } from "node:util";
 import { UsageError } from "../errors/usage-error.js";
+import { nearestOption } from "./nearest-option.js";
 
 type Options = NonNullable<ParseArgsConfig["options"]>;
 
@@ -38,7 +39,12 @@ export function parseVerbArguments(args: string[], options: Options, help: strin
   try {
     parsed = parseArgs({ args, options: { ...options, help: { type: "boolean", short: "h" } }, allowPositionals: true, strict: true });
   } catch (error) {
-    throw new UsageError(`${(error as Error).message.split("\n")[0]} (see --help)`);
+    const message = (error as Error).message.split("\n")[0] ?? "";
+    const unknown = /^Unknown option '--?([^']+)'/.exec(message)?.[1];
+    const nearest = unknown === undefined ? undefined : nearestOption(unknown, [...Object.keys(options), "help"]);
+    if (nearest !== undefined) throw new UsageError(`unknown option --${unknown}: did you mean --${nearest}? (see --help)`);
+    if (unknown !== undefined) throw new UsageError(`unknown option --${unknown} (see --help for the options)`);
+    throw new UsageError(`${message} (see --help)`);
   }
   if (parsed.values.help) {
     print(help);

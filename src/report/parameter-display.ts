@@ -18,6 +18,28 @@ const KNOWN: Readonly<Record<string, { label: string; kind: UnitKind; descriptio
   jitter: { label: "jitter", kind: "value", description: "excess white noise" },
 };
 
+/** Derived quantities of the models and the kind of their unit. */
+const DERIVED_KINDS: Readonly<Record<string, UnitKind>> = {
+  sfInf: "value",
+  tauRest: "time",
+  coherenceTime: "time",
+  dominantPeriod: "time",
+  quality: "none",
+};
+
+/**
+ * The unit of a model parameter or derived quantity: the time unit for timescales and periods, the value
+ * unit for amplitudes and levels, "" for dimensionless ones or names it does not know. Lags (`lag.<band>`)
+ * are times; per-band means are values, per-band amplitudes ratios.
+ *
+ * @example parameterUnit("tau", "mag", "d") // "d"
+ */
+export function parameterUnit(name: string, valueUnit: string, timeUnit: string): string {
+  const base = name.split(".")[0]!;
+  const kind = KNOWN[name]?.kind ?? DERIVED_KINDS[name] ?? (base === "lag" ? "time" : base === "mean" ? "value" : "none");
+  return kind === "time" ? timeUnit : kind === "value" ? valueUnit : "";
+}
+
 /**
  * A positive parameter whose central 99% of draws spans more than this factor (a decade) is drawn on a log axis:
  * on a linear axis such a posterior is a spike against a wall (common practice).
@@ -43,8 +65,7 @@ export function timeUnitOf(input: ReportInput): string {
  */
 export function parameterDisplay(input: ReportInput, name: string): ParameterDisplay {
   const known = KNOWN[name];
-  const unit =
-    known === undefined || known.kind === "none" ? "" : known.kind === "time" ? timeUnitOf(input) : valueUnitOf(input);
+  const unit = parameterUnit(name, valueUnitOf(input), timeUnitOf(input));
   const override = input.parameterDisplay?.[name] ?? {};
   const label = override.label ?? known?.label ?? name;
   const description = override.description ?? known?.description;

@@ -25,7 +25,7 @@ Options:
 ${COLUMN_HELP}
 
 Example:
-  horologium compare lds-spotted-star.csv --out comparison.json
+  horologium compare demo/lds-v2291-spotted-star.csv --out comparison.json
 `;
 
 const OPTIONS = {

@@ -23,6 +23,15 @@ Deep Survey (eight and three seasons with ~6-month gaps):
      the periodogram's aliases.
 Prints a summary and writes to DIR (default horologium-demo): the fit results (JSON), the gap
 forecast (CSV) and an HTML report with figures per object.
+
+Options:
+  --out DIR               output folder (default horologium-demo)
+  --seed N                seed of every random choice (default 1): same seed, same results
+  --no-report             skip the HTML reports
+  --quiet                 print nothing
+
+Example:
+  horologium demo --out demo-results --seed 3
 `;
 
 const OPTIONS = { out: { type: "string" }, seed: { type: "string" }, "no-report": { type: "boolean" }, quiet: { type: "boolean" } } as const;

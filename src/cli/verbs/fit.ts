@@ -26,7 +26,7 @@ ${COLUMN_HELP}
 ${BAND_HELP}
 
 Example (an invented quasar of the Lanternfield Deep Survey):
-  horologium fit lds-quasar.csv --model drw --redshift 1.9 --seed 7 --out quasar.json --report quasar-report
+  horologium fit demo/lds-j0412-2731-quasar.csv --model drw --redshift 1.62 --seed 7 --out quasar.json --report quasar-report
   horologium fit lds-quasar-ugrizy.csv --model drw --lags --out joint.json
 `;
 

@@ -23,7 +23,7 @@ Options:
 ${COLUMN_HELP}
 
 Example:
-  horologium periodogram lds-spotted-star.csv --max-period 60 --out power.csv
+  horologium periodogram demo/lds-v2291-spotted-star.csv --max-period 60 --out power.csv
 `;
 
 const OPTIONS = {

@@ -43,7 +43,8 @@ ${COLUMN_HELP}
 ${BAND_HELP}
 
 Example:
-  horologium predict lds-quasar.csv --from quasar.json --grid 59000:61000:5 --out forecast.csv
+  horologium fit demo/lds-j0412-2731-quasar.csv --model drw --out quasar.json
+  horologium predict demo/lds-j0412-2731-quasar.csv --from quasar.json --grid 58700:62200:5 --out forecast.csv
 `;
 
 const OPTIONS = {

@@ -25,6 +25,7 @@ Options:
   --quiet                 print nothing
 
 Example:
+  horologium fit demo/lds-j0412-2731-quasar.csv --model drw --out quasar.json
   horologium report quasar.json --out quasar-report
 `;
 
