@@ -7,14 +7,15 @@ import { restoredPosterior } from "./fit-mean-restoration.js";
 import { planModes } from "./fit-mode-plan.js";
 import type { FitOptions } from "./fit-options.js";
 import { periodogramPeriod } from "./fit-period-search.js";
-import { pooledDraws } from "./fit-pooling.js";
+import { pooledDraws, summaryDrawLimit, thinnedDraws } from "./fit-pooling.js";
 import { assembleFitResult } from "./fit-result-assembly.js";
 import type { FitResult } from "./fit-result.js";
 import { noiseConditioning } from "./fit-robust-stage.js";
+import { stageTimer, type StageSeconds } from "./fit-stage-timer.js";
 import { sampleStarts } from "./fit-sampling.js";
 import { posteriorSummaries } from "./fit-summaries.js";
 import { buildModel, modelLikelihood, type LightCurveModel } from "./light-curve-model.js";
-import type { PeriodMode } from "./period-modes.js";
+import { drawnPeriodModes, type PeriodMode } from "./period-modes.js";
 import { modelPeriodRange } from "./period-range.js";
 import type { RobustNoise } from "./robust-noise.js";
 
@@ -31,6 +32,8 @@ export interface DetailedFit {
   /** The light curve the posterior is conditioned on (errors inflated by the robust weights, if any). */
   readonly conditioning: LightCurve;
   readonly robust?: RobustNoise;
+  /** Wall time of each stage, seconds (data summary, periodogram, robust noise, modes, sampling, ...). */
+  readonly stageSeconds: StageSeconds;
 }
 
 /**
@@ -58,17 +61,21 @@ export function fitLightCurve(lightCurve: LightCurve, options: FitOptions): FitR
  * 6. pooling (`fit-pooling.ts`): the runs' draws in proportion to their modes' probabilities, so a
  *    multimodal posterior is reported as such;
  * 7. mean restoration (`fit-mean-restoration.ts`): the mean drawn back from its conditional posterior;
- * 8. summaries (`fit-summaries.ts`): parameters and derived quantities;
+ * 8. summaries (`fit-summaries.ts`): parameters and derived quantities, and the modes the pooled draws
+ *    sit in with their shares (`drawnPeriodModes`), which the result reports as `periodModes`;
  * 9. diagnostics (`fit-diagnostics.ts`): the runs' worst convergence figures;
  * 10. result (`fit-result-assembly.ts`): the result JSON with warnings.
  */
 export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOptions): DetailedFit {
   const clock = options.clock ?? (() => performance.now());
   const start = clock();
+  const timer = stageTimer(clock);
   const summary = summarizeLightCurve(lightCurve);
   requireVariableData(lightCurve, summary, options.model);
   const range = modelPeriodRange(options.model, summary, options, lightCurve.provenance.source);
+  timer.lap("data summary");
   const periodGuess = range ? periodogramPeriod(lightCurve, range) : undefined;
+  timer.lap("periodogram");
   const model = buildModel(options.model, summary, {
     ...(options.background ? { background: options.background } : {}),
     ...(options.jitter ? { jitter: true } : {}),
@@ -77,14 +84,22 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   });
   requireEnoughPoints(lightCurve, model);
   const { conditioning, robust } = noiseConditioning(model, lightCurve, options.robust === true);
+  timer.lap("robust noise");
   const likelihood = modelLikelihood(model, conditioning);
-  const plan = planModes(model, likelihood, periodGuess);
+  const plan = planModes(model, likelihood, periodGuess, conditioning.time);
+  timer.lap("modes");
   const { runs, collapsed } = sampleStarts(model, conditioning, likelihood, plan, options, clock);
+  timer.lap("sampling");
   const pooled = pooledDraws(runs.map((run) => posteriorDraws(run.space, run.run)), plan.weights);
-  const { draws, maximumPosterior } = restoredPosterior(model, collapsed, pooled, runs[0].maximum, options.seed);
+  const kept = thinnedDraws(pooled, summaryDrawLimit(summary.n));
+  timer.lap("pooling");
+  const { draws, maximumPosterior } = restoredPosterior(model, collapsed, kept, runs[0].maximum, options.seed);
+  timer.lap("mean restoration");
   const diagnostics = combinedDiagnostics(runs, (clock() - start) / 1000);
   requireKeptDraws(draws, diagnostics);
   const summaries = posteriorSummaries(draws, model.space.names, options.model, options.redshift);
+  const periodModes = plan.modes.length > 0 && draws.columns.period ? drawnPeriodModes(draws.columns.period) : [];
+  timer.lap("summaries");
   const result = assembleFitResult({
     options,
     lightCurve,
@@ -92,11 +107,12 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     model,
     summaries,
     diagnostics,
-    modes: plan.modes,
+    modes: periodModes,
     ...(periodGuess !== undefined ? { periodogramPeriod: periodGuess } : {}),
     ...(robust ? { robust } : {}),
     maximumPosterior,
     draws,
   });
-  return { result, model, summary, draws, runs, modes: plan.modes, conditioning, ...(robust ? { robust } : {}) };
+  timer.lap("result");
+  return { result, model, summary, draws, runs, modes: plan.modes, conditioning, stageSeconds: timer.seconds, ...(robust ? { robust } : {}) };
 }

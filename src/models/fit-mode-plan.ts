@@ -1,6 +1,6 @@
 import type { PhysicalLikelihood } from "../inference/index.js";
 import type { LightCurveModel } from "./light-curve-model.js";
-import { findPeriodModes, type PeriodMode } from "./period-modes.js";
+import { findPeriodModes, hasDailyWindow, type PeriodMode } from "./period-modes.js";
 
 /** Modes carrying less posterior probability than this are reported but not sampled. */
 export const MODE_THRESHOLD = 0.01;
@@ -19,13 +19,19 @@ export interface ModePlan {
 
 /**
  * The modes stage of a fit: for a periodic model with a period guess, the period modes at P, P/2 and 2P
- * weighted by their Laplace evidence ({@link findPeriodModes}); every mode with at least
+ * (and the daily aliases 1 / |1/P +- 1 per day| when the sampling has a one-day window,
+ * {@link hasDailyWindow}) weighted by their Laplace evidence ({@link findPeriodModes}); every mode with at least
  * {@link MODE_THRESHOLD} of the probability is sampled, with a share of the pooled draws proportional
  * to its probability. Otherwise one start at the model's first guess.
  */
-export function planModes(model: LightCurveModel, likelihood: PhysicalLikelihood, periodGuess: number | undefined): ModePlan {
+export function planModes(
+  model: LightCurveModel,
+  likelihood: PhysicalLikelihood,
+  periodGuess: number | undefined,
+  time: ArrayLike<number>,
+): ModePlan {
   const modes = periodGuess !== undefined && model.initialGuess.period !== undefined
-    ? findPeriodModes(model, likelihood, model.initialGuess.period)
+    ? findPeriodModes(model, likelihood, model.initialGuess.period, hasDailyWindow(time) ? [1] : [])
     : [];
   const sampled = modes.filter((m) => m.probability >= MODE_THRESHOLD);
   if (sampled.length === 0) return { modes, starts: [model.initialGuess], weights: [1], startsAtModes: false };

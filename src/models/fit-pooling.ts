@@ -51,3 +51,31 @@ function chainCount(chain: Int32Array): number {
   for (let i = 0; i < chain.length; i++) if (chain[i] > largest) largest = chain[i];
   return largest + 1;
 }
+
+/**
+ * At most `limit` of the draws, spread evenly (every column alike), or the draws themselves when there
+ * are no more than that. Bounds the cost of what is done draw by draw after sampling (the mean drawn
+ * back costs one O(N) pass per draw).
+ */
+export function thinnedDraws(draws: PosteriorDraws, limit: number): PosteriorDraws {
+  if (draws.chain.length <= limit) return draws;
+  const picks = evenlySpacedIndices(draws.chain.length, limit);
+  const columns: Record<string, Float64Array> = {};
+  for (const name of draws.names) columns[name] = Float64Array.from(picks, (i) => draws.columns[name][i]);
+  return {
+    names: draws.names,
+    columns,
+    chain: Int32Array.from(picks, (i) => draws.chain[i]),
+    iteration: Int32Array.from(picks, (i) => draws.iteration[i]),
+    logPosterior: Float64Array.from(picks, (i) => draws.logPosterior[i]),
+  };
+}
+
+/**
+ * Draws kept for the summaries of a light curve of `n` points: all of them up to 2e8 / n (so that the
+ * per-draw work after sampling stays below about 2e8 point operations), never fewer than 1000; the
+ * effective sample size the sampler must reach (400) fits in that. For n <= 2e5 no run reaches the limit.
+ */
+export function summaryDrawLimit(n: number): number {
+  return Math.max(1000, Math.floor(2e8 / Math.max(n, 1)));
+}

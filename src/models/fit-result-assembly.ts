@@ -8,7 +8,8 @@ import { RESULT_FORMAT_VERSION, type FitDiagnostics, type FitResult, type Robust
 import type { PosteriorSummaries } from "./fit-summaries.js";
 import { fitWarnings } from "./fit-warnings.js";
 import type { LightCurveModel } from "./light-curve-model.js";
-import type { PeriodMode } from "./period-modes.js";
+import type { DrawnPeriodMode } from "./period-modes.js";
+import { grossOutlierThreshold, grossOutliers } from "./outlier-screen.js";
 import type { RobustNoise } from "./robust-noise.js";
 
 /** Everything the result JSON is assembled from. */
@@ -19,7 +20,8 @@ export interface ResultParts {
   readonly model: LightCurveModel;
   readonly summaries: PosteriorSummaries;
   readonly diagnostics: FitDiagnostics;
-  readonly modes: readonly PeriodMode[];
+  /** The modes the pooled draws sit in, with the share of the draws in each (`drawnPeriodModes`). */
+  readonly modes: readonly DrawnPeriodMode[];
   readonly periodogramPeriod?: number;
   readonly robust?: RobustNoise;
   readonly maximumPosterior: Readonly<Record<string, number>>;
@@ -60,8 +62,8 @@ export function assembleFitResult(parts: ResultParts): FitResult {
     derived: summaries.derived,
     diagnostics,
     warnings: [
-      ...fitWarnings({ model, summary, lightCurve, parameters: summaries.parameters, diagnostics, modes, redshift: options.redshift }),
-      ...(robust ? robustWarnings(robust) : []),
+      ...fitWarnings({ model, summary, lightCurve, parameters: summaries.parameters, derived: summaries.derived, diagnostics, modes, redshift: options.redshift }),
+      ...(robust ? robustWarnings(robust) : outlierWarnings(lightCurve)),
     ],
     options: {
       ...(options.background ? { background: options.background } : {}),
@@ -99,9 +101,26 @@ function robustSection(robust: RobustNoise): RobustNoiseSummary {
 
 function robustWarnings(robust: RobustNoise): string[] {
   const likely = likelyOutlierCount(robust);
-  return likely > 0
-    ? [`${likely} points are likely outliers (probability > 0.5 that their scatter exceeds twice their error bar); the Student-t noise down-weights them.`]
-    : [];
+  return [
+    ...(likely > 0
+      ? [`${likely} points are likely outliers (probability > 0.5 that their scatter exceeds twice their error bar); the Student-t noise down-weights them.`]
+      : []),
+    ...(robust.converged
+      ? []
+      : [`The robust noise weights had not settled after ${robust.iterations} iterations: the outlier probabilities are approximate.`]),
+  ];
+}
+
+/** A fit with Gaussian noise whose data hold gross outliers says that --robust exists. */
+function outlierWarnings(lightCurve: LightCurve): string[] {
+  const found = grossOutliers(lightCurve);
+  if (found.length === 0) return [];
+  const shown = found.slice(0, 5).map((i) => lightCurve.time[i]).join(", ") + (found.length > 5 ? ", ..." : "");
+  return [
+    `${found.length} point(s) lie more than ${grossOutlierThreshold(lightCurve.time.length).toFixed(1)} standard deviations from a running median of ` +
+      `their neighbours (at times ${shown}), far more than Gaussian noise allows: the fit treats them as real. ` +
+      (lightCurve.error ? "Refit with --robust (Student-t noise) to down-weight outliers." : "With an error column, --robust (Student-t noise) would down-weight them."),
+  ];
 }
 
 /** At most `count` draws spread evenly over the pooled draws, for predictions and reports from the JSON. */

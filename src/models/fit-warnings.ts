@@ -2,7 +2,7 @@ import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { DataSummary } from "./data-summary.js";
 import type { FitDiagnostics, ParameterSummary } from "./fit-result.js";
 import type { LightCurveModel } from "./light-curve-model.js";
-import type { PeriodMode } from "./period-modes.js";
+import type { DrawnPeriodMode } from "./period-modes.js";
 
 /** What the warnings are drawn from. */
 export interface WarningInputs {
@@ -11,7 +11,10 @@ export interface WarningInputs {
   readonly lightCurve: LightCurve;
   readonly parameters: Readonly<Record<string, ParameterSummary>>;
   readonly diagnostics: FitDiagnostics & { readonly stopReason?: string };
-  readonly modes: readonly PeriodMode[];
+  /** The modes the posterior draws sit in, with their shares. */
+  readonly modes: readonly DrawnPeriodMode[];
+  /** Summaries of the derived quantities (`dominantPeriod` for rotation). */
+  readonly derived?: Readonly<Record<string, ParameterSummary>>;
   readonly redshift?: number;
 }
 
@@ -69,8 +72,21 @@ export function fitWarnings(inputs: WarningInputs): string[] {
   }
   const significant = modes.filter((m) => m.probability >= 0.01);
   if (significant.length > 1) {
-    const list = significant.map((m) => `${fmt(m.period)} (${(100 * m.probability).toFixed(0)}%)`).join(", ");
-    warnings.push(`The period posterior is multimodal: ${list}. The summaries pool the modes; quote them with care.`);
+    const list = significant.map((m) => `${fmt(m.period)} (${(100 * m.probability).toFixed(0)}% of the draws)`).join(", ");
+    warnings.push(
+      `The data cannot decide between several periods: ${list}. The summaries pool them; quote the period with its modes ` +
+        "(periodModes), not as one number.",
+    );
+  }
+  const dominant = inputs.derived?.dominantPeriod;
+  const period = parameters.period;
+  if (dominant && period && Math.abs(dominant.median / period.median - 1) > 0.05) {
+    warnings.push(
+      `Most of the variance repeats every ${fmt(dominant.median)} (dominantPeriod, 95%: ${fmt(dominant["q2.5"])} to ${fmt(dominant["q97.5"])}), ` +
+        `half the fitted period ${fmt(period.median)}: the harmonic carries more of the signal than the fundamental ` +
+        `(harmonicWeight ${fmt(parameters.harmonicWeight?.median ?? NaN)}). Quote dominantPeriod as the photometric period; ` +
+        "period is the repeat of the whole pattern, which the data may not distinguish from it.",
+    );
   }
   const { dropped, placeholders = 0 } = lightCurve.provenance;
   if (dropped > 0) {

@@ -3,6 +3,10 @@ import { gammaCdf } from "../inference/distribution-functions.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { LightCurveModel } from "./light-curve-model.js";
 import { modelLikelihood } from "./light-curve-model.js";
+import { robustResiduals } from "./outlier-screen.js";
+
+/** Smallest weight a point may get: its error grows at most a million-fold (keeps the solver finite). */
+const MINIMUM_WEIGHT = 1e-12;
 
 /** Degrees of freedom of the Student-t noise (heavy enough for outliers, common practice: 3 to 5). */
 export const ROBUST_DEGREES_OF_FREEDOM = 4;
@@ -16,6 +20,8 @@ export interface RobustNoise {
   readonly outlierProbability: Float64Array;
   /** EM iterations used. */
   readonly iterations: number;
+  /** Whether the weights settled (largest change below 1e-3) within the iterations allowed. */
+  readonly converged: boolean;
 }
 
 /**
@@ -32,19 +38,29 @@ export interface RobustNoise {
  * fixed point, a flexible kernel absorbs an outlier as signal and every weight stays near 1. The posterior
  * is then sampled with the weights held at their final values (a plug-in approximation), and
  * lambda_i | y ~ Gamma((nu + 1)/2, rate (nu + E[eps_i^2]/s_i^2)/2) gives each point's outlier probability.
+ *
+ * The start decides which fixed point EM reaches. The first weights come from the points' standardised
+ * residuals about a running median of their neighbours ({@link robustResiduals}), which outliers of any
+ * size cannot pull, w_i = (nu + 1) / (nu + z_i^2); the first maximisation uses them. Started from equal
+ * weights, or from a model already fitted to the outliers, a gross outlier of 1-4 mag is absorbed as
+ * signal (a short timescale, a large sigma) and keeps a weight near 1.
  */
-export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurve, maxIterations = 15): RobustNoise {
+export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurve, maxIterations = 50): RobustNoise {
   const errors = lightCurve.error;
   if (!errors) throw new RangeError("robust noise needs per-point errors (an error column)");
   const nu = ROBUST_DEGREES_OF_FREEDOM;
   const n = lightCurve.time.length;
-  let weights = new Float64Array(n).fill(1);
-  let point = model.space.toUnconstrained(model.space.physicalFromRecord(model.initialGuess));
+  const z = robustResiduals(lightCurve);
+  let weights = Float64Array.from(z, (zi) => Math.max((nu + 1) / (nu + zi * zi), MINIMUM_WEIGHT));
+  const maximise = (from: Float64Array) =>
+    findMaximumPosterior(unconstrainedPosterior(model.space, modelLikelihood(model, withNoiseWeights(lightCurve, weights)), { jacobian: false }), {
+      starts: [from],
+    }).x;
+  let point = maximise(model.space.toUnconstrained(model.space.physicalFromRecord(model.initialGuess)));
   /** E[eps_i^2 | y] / s_i^2 at the last E-step. */
-  const standardised = new Float64Array(n);
+  const standardised = Float64Array.from(z, (zi) => zi * zi);
   let iteration = 0;
-  // The first E-step is taken at the smooth first guess, before any maximisation: maximising first with
-  // equal weights lets a short timescale absorb the outliers as signal, a local optimum EM cannot leave.
+  let converged = false;
   for (; iteration < maxIterations; iteration++) {
     const weighted = withNoiseWeights(lightCurve, weights);
     const physical = model.space.toPhysical(point);
@@ -56,8 +72,11 @@ export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurv
     for (let i = 0; i < n; i++) {
       const noise = weighted.error![i] ** 2;
       const variance = latent.variance[i];
-      const looVariance = variance < noise ? 1 / (1 / variance - 1 / noise) : variance;
-      const looMean = variance < noise ? looVariance * (latent.mean[i] / variance - lightCurve.value[i] / noise) : latent.mean[i];
+      // Removing the point's own precision is ill-conditioned when the latent variance is almost all the
+      // point's own noise; then the latent posterior itself is the (slightly optimistic) prediction.
+      const removed = variance < noise ? 1 / (1 / variance - 1 / noise) : NaN;
+      const looVariance = Number.isFinite(removed) && removed > 0 ? removed : variance;
+      const looMean = looVariance !== variance ? looVariance * (latent.mean[i] / variance - lightCurve.value[i] / noise) : latent.mean[i];
       const residual = lightCurve.value[i] - looMean;
       const base = errors[i] ** 2;
       let w = weights[i];
@@ -71,23 +90,23 @@ export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurv
         w = updated;
         if (settled) break;
       }
-      next[i] = w;
-      standardised[i] = e2 / base;
+      next[i] = Number.isFinite(w) ? Math.max(w, MINIMUM_WEIGHT) : weights[i];
+      standardised[i] = Number.isFinite(e2) ? e2 / base : standardised[i];
     }
     let change = 0;
     for (let i = 0; i < n; i++) change = Math.max(change, Math.abs(next[i] - weights[i]));
     weights = next;
-    if (iteration > 0 && change < 1e-3) {
+    if (change < 1e-3) {
       iteration++;
+      converged = true;
       break;
     }
-    const target = unconstrainedPosterior(model.space, modelLikelihood(model, withNoiseWeights(lightCurve, weights)), { jacobian: false });
-    point = findMaximumPosterior(target, { starts: [point] }).x;
+    point = maximise(point);
   }
   const outlierProbability = Float64Array.from({ length: n }, (_, i) =>
     gammaCdf(0.25, (nu + 1) / 2, (nu + standardised[i]) / 2),
   );
-  return { degreesOfFreedom: nu, weights, outlierProbability, iterations: iteration };
+  return { degreesOfFreedom: nu, weights, outlierProbability, iterations: iteration, converged };
 }
 
 /** The light curve with each error divided by sqrt(weight): variance error^2 / weight. */
