@@ -51,24 +51,19 @@ export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurv
   const nu = ROBUST_DEGREES_OF_FREEDOM;
   const n = lightCurve.time.length;
   const z = robustResiduals(lightCurve);
-  let weights = Float64Array.from(z, (zi) => Math.max((nu + 1) / (nu + zi * zi), MINIMUM_WEIGHT));
-  const maximise = (from: Float64Array) =>
+  const maximise = (weights: Float64Array, from: Float64Array) =>
     findMaximumPosterior(unconstrainedPosterior(model.space, modelLikelihood(model, withNoiseWeights(lightCurve, weights)), { jacobian: false }), {
       starts: [from],
     }).x;
-  let point = maximise(model.space.toUnconstrained(model.space.physicalFromRecord(model.initialGuess)));
-  /** E[eps_i^2 | y] / s_i^2 at the last E-step. */
-  const standardised = Float64Array.from(z, (zi) => zi * zi);
-  let iteration = 0;
-  let converged = false;
-  for (; iteration < maxIterations; iteration++) {
+  /** One E-step at `point` from `weights`: the new weights and E[eps_i^2 | y] / s_i^2. */
+  const expectation = (point: Float64Array, weights: Float64Array) => {
     const weighted = withNoiseWeights(lightCurve, weights);
-    const physical = model.space.toPhysical(point);
-    const latent = model.processAt(physical, weighted).given(weighted.value).at(weighted.time);
+    const latent = model.processAt(model.space.toPhysical(point), weighted).given(weighted.value).at(weighted.time);
     // The point's own precision removed from the latent posterior gives the prediction of all the other
     // points, N(mu_-i, V_-i); the E-step for lambda_i is then a scalar fixed point (the point's noise enters
     // its own posterior), iterated to convergence at fixed parameters.
     const next = new Float64Array(n);
+    const standardised = new Float64Array(n);
     for (let i = 0; i < n; i++) {
       const noise = weighted.error![i] ** 2;
       const variance = latent.variance[i];
@@ -91,22 +86,62 @@ export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurv
         if (settled) break;
       }
       next[i] = Number.isFinite(w) ? Math.max(w, MINIMUM_WEIGHT) : weights[i];
-      standardised[i] = Number.isFinite(e2) ? e2 / base : standardised[i];
+      standardised[i] = Number.isFinite(e2) ? e2 / base : z[i] * z[i];
     }
+    return { next, standardised };
+  };
+  // The start: each point's weight is the smaller of two that outliers cannot pull, the Student-t weight of
+  // its residual about the running median, and an E-step at the first guess with amplitudes from the
+  // median absolute deviation (the sample sd that the guess would otherwise use is inflated by the
+  // outliers themselves).
+  const guess = model.space.toUnconstrained(model.space.physicalFromRecord(robustFirstGuess(model, lightCurve)));
+  const fromMedian = Float64Array.from(z, (zi) => Math.max((nu + 1) / (nu + zi * zi), MINIMUM_WEIGHT));
+  const fromGuess = expectation(guess, new Float64Array(n).fill(1)).next;
+  let weights = Float64Array.from(fromMedian, (w, i) => Math.min(w, fromGuess[i]));
+  let point = maximise(weights, guess);
+  let standardised = Float64Array.from(z, (zi) => zi * zi);
+  let iteration = 0;
+  let converged = false;
+  for (; iteration < maxIterations; iteration++) {
+    const step = expectation(point, weights);
     let change = 0;
-    for (let i = 0; i < n; i++) change = Math.max(change, Math.abs(next[i] - weights[i]));
-    weights = next;
+    for (let i = 0; i < n; i++) change = Math.max(change, Math.abs(step.next[i] - weights[i]));
+    weights = step.next;
+    standardised = step.standardised;
     if (change < 1e-3) {
       iteration++;
       converged = true;
       break;
     }
-    point = maximise(point);
+    point = maximise(weights, point);
   }
   const outlierProbability = Float64Array.from({ length: n }, (_, i) =>
     gammaCdf(0.25, (nu + 1) / 2, (nu + standardised[i]) / 2),
   );
   return { degreesOfFreedom: nu, weights, outlierProbability, iterations: iteration, converged };
+}
+
+/**
+ * The model's first guess with its amplitudes (sigma, backgroundSigma) set from the robust spread of the
+ * values, 1.4826 x their median absolute deviation (less the median error in quadrature), instead of
+ * a spread that gross outliers inflate.
+ */
+function robustFirstGuess(model: LightCurveModel, lightCurve: LightCurve): Record<string, number> {
+  const { value } = lightCurve;
+  const sorted = Float64Array.from(value).sort();
+  const median = sorted[sorted.length >> 1];
+  const deviations = Float64Array.from(value, (v) => Math.abs(v - median)).sort();
+  const spread = 1.4826 * deviations[deviations.length >> 1];
+  const errors = Float64Array.from(lightCurve.error ?? [0]).sort();
+  const medianError = errors[errors.length >> 1];
+  const amplitude = Math.sqrt(Math.max(spread * spread - medianError * medianError, 0.01 * spread * spread));
+  const guess: Record<string, number> = { ...model.initialGuess };
+  for (const name of ["sigma", "backgroundSigma"]) {
+    const prior = model.space.free.find((p) => p.name === name)?.prior;
+    if (guess[name] !== undefined && prior && amplitude > prior.lower && amplitude < prior.upper) guess[name] = name === "sigma" ? amplitude : amplitude / 2;
+  }
+  if (guess.mean !== undefined) guess.mean = median;
+  return guess;
 }
 
 /** The light curve with each error divided by sqrt(weight): variance error^2 / weight. */
