@@ -86,18 +86,31 @@ export function runCalibration(options: CalibrationOptions): CalibrationResult {
     const total = draws.chain.length;
     // A fit stopped before it kept any draws has no ranks; it must not pass as rank 0.
     if (total < drawsPerRank) throw new Error(`replicate ${r}: the fit kept ${total} draws (${fit.stopReason})`);
-    names.forEach((name, i) => {
-      const column = draws.columns[name]!;
-      let rank = 0;
-      // Evenly spaced draws across the pooled chains; with ESS >= 400 of several thousand draws they are
-      // close to independent, as the rank statistic needs (Talts et al. 2018, sec. 4.1).
-      for (let k = 0; k < drawsPerRank; k++) {
-        const index = Math.floor(((k + 0.5) * total) / drawsPerRank);
-        if (column[index]! < truthVector[i]!) rank++;
-      }
-      ranks[i]!.push(rank);
-    });
+    names.forEach((name, i) => ranks[i]!.push(rankOfTruth(draws.columns[name]!, truthVector[i]!, drawsPerRank)));
   }
+  return { names, ranks, converged, ...rankUniformity(ranks, drawsPerRank, bins) };
+}
+
+/**
+ * The rank of a true value among `drawsPerRank` draws spaced evenly across the pooled chains (0 to
+ * drawsPerRank); with ESS >= 400 of several thousand draws they are close to independent, as the rank
+ * statistic needs (Talts et al. 2018, sec. 4.1).
+ */
+export function rankOfTruth(column: ArrayLike<number>, truth: number, drawsPerRank: number): number {
+  let rank = 0;
+  for (let k = 0; k < drawsPerRank; k++) {
+    const index = Math.floor(((k + 0.5) * column.length) / drawsPerRank);
+    if (column[index]! < truth) rank++;
+  }
+  return rank;
+}
+
+/** Rank histograms (`bins` counts per parameter) and their chi-square p-values of uniformity (stdlib chi2gof). */
+export function rankUniformity(
+  ranks: readonly number[][],
+  drawsPerRank: number,
+  bins: number,
+): { histograms: number[][]; pValues: number[] } {
   const width = (drawsPerRank + 1) / bins;
   const histograms = ranks.map((rs) => {
     const h = new Array<number>(bins).fill(0);
@@ -105,5 +118,5 @@ export function runCalibration(options: CalibrationOptions): CalibrationResult {
     return h;
   });
   const pValues = histograms.map((h) => chi2gof(h, new Array<number>(bins).fill(1 / bins)).pValue);
-  return { names, ranks, histograms, pValues, converged };
+  return { histograms, pValues };
 }

@@ -1,0 +1,89 @@
+/**
+ * Simulation-based calibration (Talts, Betancourt, Simpson, Vehtari & Gelman 2018, arXiv:1804.06788) of
+ * the quasi-periodic rotation model, the slow check of its period and decay time (test/models has the
+ * fast recovery and coverage test). For each replicate: parameters are drawn from the prior below, a
+ * light curve is simulated from them on a continuous stare with downlink gaps, the posterior is sampled
+ * from the periodogram's first guess (as a fit does), and the rank of each true value among 99 posterior
+ * draws is recorded. If priors, likelihood, transforms and sampler are right, every rank is uniform; a
+ * chi-square test (stdlib chi2gof) of 10-bin histograms checks this per parameter. Exits non-zero when a
+ * p-value is below 0.01 / (number of parameters).
+ *
+ * The prior keeps harmonicWeight below 1/2, so that `period` is always the dominant period: (period,
+ * harmonicWeight = 1) and (period / 2, harmonicWeight = 0) are the same kernel, a label switch that the
+ * fit resolves by its search over P, P/2 and 2P (models/period-modes.ts), not the sampler.
+ *
+ * Run: npx tsx bench/rotation-calibration.ts [replicates=100] [seed=41] [nuts|ensemble]
+ * Figures of the runs are recorded in bench/README.md.
+ */
+import { createParameterSpace, type ParameterSpace } from "../src/inference/parameter-space.js";
+import { logUniformPrior, normalPrior, uniformPrior } from "../src/inference/priors.js";
+import { posteriorDraws } from "../src/inference/posterior-draws.js";
+import { DEFAULT_SAMPLER, samplePosterior, type SamplerKind } from "../src/inference/sample-posterior.js";
+import { GaussianProcess } from "../src/gp/gaussian-process.js";
+import { kernels } from "../src/kernels/index.js";
+import { continuousSpaceCadence } from "../src/lightcurve/cadence.js";
+import { computePeriodogram } from "../src/periodogram/periodogram.js";
+import { childSeed, createRng } from "../src/random/rng.js";
+import { rankOfTruth, rankUniformity } from "./samplers-calibration.js";
+import { quasiPeriodicLikelihood } from "./samplers-gp-models.js";
+
+/** The prior the calibration draws from and fits with: period, decayTime (days), harmonicWeight, sigma, mean (relative flux). */
+export function rotationCalibrationSpace(): ParameterSpace {
+  return createParameterSpace([
+    { name: "period", prior: logUniformPrior(2, 15) },
+    { name: "decayTime", prior: logUniformPrior(4, 150) },
+    { name: "harmonicWeight", prior: uniformPrior(0, 0.5) },
+    { name: "sigma", prior: logUniformPrior(0.01, 0.05) },
+    { name: "mean", prior: normalPrior(1, 0.02) },
+  ]);
+}
+
+const replicates = Number(process.argv[2] ?? 100);
+const seed = Number(process.argv[3] ?? 41);
+const sampler = (process.argv[4] ?? DEFAULT_SAMPLER) as SamplerKind;
+const drawsPerRank = 99;
+const bins = 10;
+const errorLevel = 0.004;
+const started = performance.now();
+const space = rotationCalibrationSpace();
+const names = space.free.map((p) => p.name);
+const ranks: number[][] = names.map(() => []);
+let converged = 0;
+for (let r = 0; r < replicates; r++) {
+  const rng = createRng(childSeed(seed, r));
+  const truth = space.toPhysical(space.drawFromPrior(rng));
+  const [period, decayTime, harmonicWeight, sigma, mean] = truth;
+  // 90 days, an exposure every 12 hours, a day lost every 13.7 days: about 170 points, at least 6 cycles.
+  const time = continuousSpaceCadence({ start: 0, duration: 90, interval: 0.5, gapEvery: 13.7 }, rng);
+  const kernel = kernels.quasiPeriodic({ sigma: sigma!, period: period!, decayTime: decayTime!, harmonicWeight: harmonicWeight! });
+  const latent = new GaussianProcess(kernel, time, { mean: mean! }).priorDraw(rng);
+  const error = Float64Array.from(time, () => errorLevel);
+  const value = Float64Array.from(latent, (v, i) => v + error[i]! * rng.normal());
+  const peak = computePeriodogram({ time, value, error }, { minimumFrequency: 1 / 15, maximumFrequency: 1 / 2, peaks: 1 }).peaks[0];
+  const guess = peak?.period ?? 5;
+  const fit = samplePosterior(space, quasiPeriodicLikelihood(time, value, error), {
+    seed: childSeed(seed, 100000 + r),
+    sampler,
+    initial: { period: guess, decayTime: Math.min(3 * guess, 140), harmonicWeight: 0.25, sigma: 0.02, mean: 1 },
+    maxEvaluations: 2e6,
+  });
+  if (fit.diagnostics.converged) converged++;
+  const draws = posteriorDraws(space, fit.run);
+  if (draws.chain.length < drawsPerRank) throw new Error(`replicate ${r}: the fit kept ${draws.chain.length} draws (${fit.stopReason})`);
+  names.forEach((name, i) => ranks[i]!.push(rankOfTruth(draws.columns[name]!, truth[i]!, drawsPerRank)));
+  if ((r + 1) % 10 === 0 || !fit.diagnostics.converged) {
+    const elapsed = (performance.now() - started) / 1000;
+    console.error(`replicate ${r + 1}/${replicates}${fit.diagnostics.converged ? "" : " (not converged)"}, ${elapsed.toFixed(0)} s`);
+  }
+}
+const { histograms, pValues } = rankUniformity(ranks, drawsPerRank, bins);
+console.log(`simulation-based calibration, quasi-periodic rotation model, ${sampler}, ${replicates} replicates, seed ${seed}`);
+console.log(`converged fits: ${converged}/${replicates}; ranks among ${drawsPerRank} draws, ${bins} bins`);
+const threshold = 0.01 / names.length;
+let failed = false;
+names.forEach((name, i) => {
+  if (pValues[i]! < threshold) failed = true;
+  console.log(`${name.padEnd(15)} histogram ${histograms[i]!.map((c) => String(c).padStart(3)).join(" ")}  chi-square p = ${pValues[i]!.toFixed(3)}`);
+});
+console.log(`${((performance.now() - started) / 1000).toFixed(0)} s; ${failed ? "FAILED" : "passed"} (every p >= ${threshold.toFixed(4)})`);
+process.exitCode = failed ? 1 : 0;
