@@ -11,7 +11,14 @@
  * @module
  */
 export { kernels, Kernel, SumKernel, ProductKernel, CarmaKernel, DampedRandomWalkKernel, Matern32Kernel, OscillatorKernel, PeriodicSquaredExponentialKernel, QuasiPeriodicKernel } from "./kernels/index.js";
+export { KERNEL_FAMILIES, parameterUnit, parameterValidity } from "./kernels/index.js";
 export type {
+  AnyKernelFamily,
+  FamilyParameter,
+  KernelConstructors,
+  KernelFamily,
+  ParameterKind,
+  ParameterUnit,
   CarmaOscillation,
   CarmaParameters,
   DampedRandomWalkParameters,
@@ -43,7 +50,7 @@ export { computePeriodogram, type Periodogram } from "./periodogram/periodogram.
 export { fitLightCurve, fitLightCurveDetailed, type DetailedFit } from "./models/fit-light-curve.js";
 export type { FitOptions } from "./models/fit-options.js";
 export type { FitResult, ParameterSummary, FitDiagnostics, FitDataSummary } from "./models/fit-result.js";
-export { buildModel, modelLikelihood, MODEL_NAMES, type ModelName, type LightCurveModel } from "./models/light-curve-model.js";
+export { buildModel, modelLikelihood, modelParameterNames, MODEL_NAMES, type ModelName, type LightCurveModel } from "./models/light-curve-model.js";
 export { posteriorPredictive, type PredictiveCurve } from "./models/posterior-predictive.js";
 export { compareModels, type ModelComparison } from "./models/compare-models.js";
 export { summarizeLightCurve, type DataSummary } from "./models/data-summary.js";

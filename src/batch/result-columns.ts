@@ -1,3 +1,4 @@
+import { MODEL_NAMES, modelParameterNames, type ModelName } from "../models/light-curve-model.js";
 import { LEADING_COLUMNS, type ResultRow } from "./result-row.js";
 
 /**
@@ -18,13 +19,6 @@ export const DIAGNOSTIC_KEYS = [
   "seconds",
 ] as const;
 
-/** Parameter names of each model (DESIGN.md, "Parameter names"). */
-const MODEL_PARAMETERS: Readonly<Record<string, readonly string[]>> = {
-  drw: ["tau", "sigma", "mean"],
-  oscillator: ["period", "quality", "sigma", "mean"],
-  "quasi-periodic": ["period", "decayTime", "harmonicWeight", "sigma", "mean"],
-};
-
 /**
  * The columns a results table is expected to have for a model, in order, from the fit-result contract:
  * the leading columns, `data.*`, every statistic of every parameter (with the background parameters when
@@ -33,7 +27,7 @@ const MODEL_PARAMETERS: Readonly<Record<string, readonly string[]>> = {
  * of the columns actually seen (see {@link unionColumns}).
  */
 export function expectedColumns(model: string, background: string | undefined): string[] {
-  const parameters = [...(MODEL_PARAMETERS[model] ?? [])];
+  const parameters = (MODEL_NAMES as readonly string[]).includes(model) ? modelParameterNames(model as ModelName) : [];
   if (background) parameters.push("backgroundTau", "backgroundSigma");
   parameters.push("jitter");
   return [

@@ -4,6 +4,7 @@ import { OscillatorTransition } from "../linalg/oscillator-transition.js";
 import { formAutocovariance, type SemiseparableForm } from "../linalg/semiseparable-form.js";
 import type { TransitionBlock } from "../linalg/transition-block.js";
 import { Kernel } from "./kernel.js";
+import type { KernelFamily } from "./kernel-family.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** One damped oscillation of a CARMA process: a quadratic factor s^2 + (w0/Q) s + w0^2 of its AR polynomial. */
@@ -275,3 +276,37 @@ function richardsonDerivative(f: (x: number) => Float64Array, x: number): Float6
   const fine = central(h / 2);
   return fine.map((v, i) => (4 * v - coarse[i]) / 3);
 }
+
+/** The indices k of the names `<prefix><k>` among `names`, ascending. */
+function indicesOf(names: readonly string[], prefix: string): number[] {
+  const pattern = new RegExp(`^${prefix}\\d+$`);
+  return names.filter((name) => pattern.test(name)).map((name) => Number(name.slice(prefix.length))).sort((a, b) => a - b);
+}
+
+/**
+ * The CARMA descriptor: `kernels.carma`, and in kernel expressions
+ * `carma(sigma=..,period0=..,quality0=..,tau0=..,ma1=..)`, the oscillations, timescales and moving-average
+ * coefficients numbered in any order (they are taken in ascending order of their index).
+ */
+export const carmaFamily: KernelFamily<"carma", CarmaParameters, never> = {
+  name: "carma",
+  expressionName: "carma",
+  summary: "CARMA(p, q) (Kelly et al. 2014), stationary by construction: spectra with several breaks or bumps",
+  parameters: [
+    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    { name: "period<k>", kind: "period", description: "undamped period of oscillation k" },
+    { name: "quality<k>", kind: "quality", description: "quality factor of oscillation k" },
+    { name: "tau<k>", kind: "timescale", description: "relaxation timescale k" },
+    { name: "ma<j>", kind: "coefficient", description: "moving-average coefficient b_j" },
+  ],
+  create: (parameters) => new CarmaKernel(parameters),
+  fromExpression: (values) => {
+    const names = Object.keys(values);
+    return new CarmaKernel({
+      sigma: values.sigma,
+      oscillations: indicesOf(names, "period").map((k) => ({ period: values[`period${k}`], quality: values[`quality${k}`] })),
+      timescales: indicesOf(names, "tau").map((k) => values[`tau${k}`]),
+      movingAverage: indicesOf(names, "ma").map((j) => values[`ma${j}`]),
+    });
+  },
+};

@@ -1,6 +1,7 @@
 import { ExponentialTransition } from "../linalg/exponential-transition.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { Kernel } from "./kernel.js";
+import { fixedParameterFamily } from "./kernel-family.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** Parameters of the damped random walk. */
@@ -61,3 +62,16 @@ export class DampedRandomWalkKernel extends Kernel {
     };
   }
 }
+
+/** The damped random walk's descriptor: `kernels.dampedRandomWalk`, `drw(sigma=..,tau=..)`, the `drw` model. */
+export const dampedRandomWalkFamily = fixedParameterFamily({
+  name: "dampedRandomWalk",
+  expressionName: "drw",
+  summary: "sigma^2 exp(-|t| / tau): quasar and AGN variability",
+  parameters: [
+    { name: "sigma", kind: "amplitude", description: "long-term standard deviation" },
+    { name: "tau", kind: "timescale", description: "damping timescale" },
+  ],
+  create: (parameters: DampedRandomWalkParameters) => new DampedRandomWalkKernel(parameters),
+  model: { name: "drw", periodCycles: 1 },
+});

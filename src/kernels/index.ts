@@ -8,7 +8,19 @@ import {
 } from "./periodic-squared-exponential.js";
 import { QuasiPeriodicKernel, type QuasiPeriodicParameters } from "./quasi-periodic.js";
 
+import { KERNEL_FAMILIES } from "./families.js";
+
 export { Kernel, SumKernel, ProductKernel, autocovarianceFromForm } from "./kernel.js";
+export { KERNEL_FAMILIES, familyOfExpression, familyOfModel, type ModelName } from "./families.js";
+export {
+  parameterUnit,
+  parameterValidity,
+  type AnyKernelFamily,
+  type FamilyParameter,
+  type KernelFamily,
+  type ParameterKind,
+  type ParameterUnit,
+} from "./kernel-family.js";
 export { CarmaKernel, DampedRandomWalkKernel, Matern32Kernel, OscillatorKernel, PeriodicSquaredExponentialKernel, QuasiPeriodicKernel };
 export type {
   CarmaOscillation,
@@ -20,27 +32,19 @@ export type {
   QuasiPeriodicParameters,
 };
 
+/** The `kernels` namespace: one constructor per family of {@link KERNEL_FAMILIES}, under the family's name. */
+export type KernelConstructors = {
+  readonly [Family in (typeof KERNEL_FAMILIES)[number] as Family["name"]]: Family["create"];
+};
+
 /**
- * The kernel families in physical parameters. Every family rejects invalid parameters with a RangeError
- * naming the parameter and value.
+ * The kernel families in physical parameters, one constructor per family descriptor (`KERNEL_FAMILIES`,
+ * where each family's summary and parameters are listed). Every family rejects invalid parameters with a
+ * RangeError naming the parameter and value.
  *
  * @example
  * const rotation = kernels.quasiPeriodic({ sigma: 0.02, period: 11.3, decayTime: 30, harmonicWeight: 0.3 });
  * const trend = kernels.dampedRandomWalk({ sigma: 0.05, tau: 400 });
  * const k = rotation.plus(trend);
  */
-export const kernels = {
-  /** sigma^2 exp(-|t| / tau): quasar variability. */
-  dampedRandomWalk: (parameters: DampedRandomWalkParameters) => new DampedRandomWalkKernel(parameters),
-  /** Stochastically driven damped harmonic oscillator. */
-  oscillator: (parameters: OscillatorParameters) => new OscillatorKernel(parameters),
-  /** Rotation: a damped oscillation at period and one at period / 2 sharing one decay time. */
-  quasiPeriodic: (parameters: QuasiPeriodicParameters) => new QuasiPeriodicKernel(parameters),
-  /** sigma^2 (1 + sqrt(3)|t|/scale) exp(-sqrt(3)|t|/scale). */
-  matern32: (parameters: Matern32Parameters) => new Matern32Kernel(parameters),
-  /** CARMA(p, q) (Kelly et al. 2014), stationary by construction. */
-  carma: (parameters: CarmaParameters) => new CarmaKernel(parameters),
-  /** Squared exponential times periodic: dense engine only. */
-  periodicSquaredExponential: (parameters: PeriodicSquaredExponentialParameters) =>
-    new PeriodicSquaredExponentialKernel(parameters),
-};
+export const kernels = Object.fromEntries(KERNEL_FAMILIES.map((family) => [family.name, family.create])) as KernelConstructors;

@@ -1,6 +1,7 @@
 import { dampedHyperbolicPair, OscillatorTransition } from "../linalg/oscillator-transition.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { Kernel } from "./kernel.js";
+import { fixedParameterFamily } from "./kernel-family.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** Parameters of the stochastically driven damped harmonic oscillator. */
@@ -93,3 +94,17 @@ export function oscillatorSpectrum(variance: number, w0: number, quality: number
   const d = omega * omega - w0 * w0;
   return (2 * variance * w0 * w0 * w0) / quality / (d * d + (w0 * w0 * omega * omega) / (quality * quality));
 }
+
+/** The oscillator's descriptor: `kernels.oscillator`, `oscillator(sigma=..,period=..,quality=..)`, the `oscillator` model. */
+export const oscillatorFamily = fixedParameterFamily({
+  name: "oscillator",
+  expressionName: "oscillator",
+  summary: "stochastically driven damped harmonic oscillator: one damped mode, pulsations, or (Q < 1/2) smooth noise",
+  parameters: [
+    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    { name: "period", kind: "period", description: "undamped period 2 pi / w0" },
+    { name: "quality", kind: "quality", description: "quality factor Q" },
+  ],
+  create: (parameters: OscillatorParameters) => new OscillatorKernel(parameters),
+  model: { name: "oscillator", periodCycles: 1 },
+});

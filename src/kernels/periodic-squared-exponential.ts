@@ -1,5 +1,6 @@
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { Kernel } from "./kernel.js";
+import { fixedParameterFamily } from "./kernel-family.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** Parameters of the squared-exponential times periodic kernel. */
@@ -111,3 +112,16 @@ function logFactorial(n: number): number {
   for (let i = 2; i <= n; i++) total += Math.log(i);
   return total;
 }
+
+/** The periodicSquaredExponential descriptor: `kernels.periodicSquaredExponential` (dense engine only, so not in the CLI). */
+export const periodicSquaredExponentialFamily = fixedParameterFamily({
+  name: "periodicSquaredExponential",
+  summary: "squared exponential times periodic: the dense-engine reference for rotation (O(N^3))",
+  parameters: [
+    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    { name: "period", kind: "period", description: "period" },
+    { name: "scale", kind: "timescale", description: "length scale of the squared exponential" },
+    { name: "gamma", kind: "shape", description: "sharpness of the periodic factor" },
+  ],
+  create: (parameters: PeriodicSquaredExponentialParameters) => new PeriodicSquaredExponentialKernel(parameters),
+});

@@ -2,6 +2,7 @@ import { OscillatorTransition } from "../linalg/oscillator-transition.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import type { ParameterDependence } from "../linalg/transition-block.js";
 import { Kernel } from "./kernel.js";
+import { fixedParameterFamily } from "./kernel-family.js";
 import { requirePositive, requireWithin } from "./parameter-checks.js";
 
 /** Parameters of the quasi-periodic (rotation) kernel. */
@@ -149,3 +150,22 @@ export function dampedOscillationSpectrum(variance: number, w: number, a: number
   const above = omega + w;
   return (4 * variance * a * (a * a + w * w)) / ((a * a + below * below) * (a * a + above * above));
 }
+
+/**
+ * The quasi-periodic kernel's descriptor: `kernels.quasiPeriodic`,
+ * `quasi-periodic(sigma=..,period=..,decayTime=..,harmonicWeight=..)`, the `quasi-periodic` model (whose
+ * period must repeat at least twice within the baseline).
+ */
+export const quasiPeriodicFamily = fixedParameterFamily({
+  name: "quasiPeriodic",
+  expressionName: "quasi-periodic",
+  summary: "damped oscillations at period and period / 2 sharing one decay time: rotation of a spotted star",
+  parameters: [
+    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    { name: "period", kind: "period", description: "period of the autocorrelation (rotation period)" },
+    { name: "decayTime", kind: "coherence", description: "decay (coherence) time of the pattern" },
+    { name: "harmonicWeight", kind: "fraction", description: "fraction of the variance at period / 2" },
+  ],
+  create: (parameters: QuasiPeriodicParameters) => new QuasiPeriodicKernel(parameters),
+  model: { name: "quasi-periodic", periodCycles: 2 },
+});

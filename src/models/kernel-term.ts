@@ -1,4 +1,4 @@
-import { kernels, type Kernel } from "../kernels/index.js";
+import type { AnyKernelFamily, Kernel } from "../kernels/index.js";
 
 /**
  * One additive term of a model's kernel, in the model's parameter names. `build` receives the values of
@@ -10,23 +10,14 @@ export interface KernelTerm {
   build(values: readonly number[]): Kernel;
 }
 
-/** sigma^2 exp(-|t|/tau) with parameters named `<sigma>`, `<tau>`. */
-export function dampedRandomWalkTerm(sigma = "sigma", tau = "tau"): KernelTerm {
-  return { names: [sigma, tau], build: ([s, t]) => kernels.dampedRandomWalk({ sigma: s, tau: t }) };
-}
-
-/** The driven damped oscillator with parameters sigma, period, quality. */
-export function oscillatorTerm(): KernelTerm {
-  return {
-    names: ["sigma", "period", "quality"],
-    build: ([sigma, period, quality]) => kernels.oscillator({ sigma, period, quality }),
-  };
-}
-
-/** The quasi-periodic rotation kernel with parameters sigma, period, decayTime, harmonicWeight. */
-export function quasiPeriodicTerm(): KernelTerm {
-  return {
-    names: ["sigma", "period", "decayTime", "harmonicWeight"],
-    build: ([sigma, period, decayTime, harmonicWeight]) => kernels.quasiPeriodic({ sigma, period, decayTime, harmonicWeight }),
-  };
+/**
+ * The term of one kernel family with a fixed parameter list, its parameters named as in the family's
+ * descriptor unless `rename` gives model names for them.
+ *
+ * @example familyTerm(dampedRandomWalkFamily, { sigma: "backgroundSigma", tau: "backgroundTau" })
+ */
+export function familyTerm(family: AnyKernelFamily, rename: Readonly<Record<string, string>> = {}): KernelTerm {
+  const build = family.fromValues;
+  if (!build) throw new RangeError(`the ${family.name} family has no fixed parameter list, so it cannot be a model term`);
+  return { names: family.parameters.map((p) => rename[p.name] ?? p.name), build };
 }

@@ -3,23 +3,41 @@ import {
   createParameterSpace,
   logUniformPrior,
   normalPrior,
-  uniformPrior,
   type ParameterSpace,
   type ParameterSpec,
   type PhysicalLikelihood,
 } from "../inference/index.js";
-import type { Kernel } from "../kernels/index.js";
+import { dampedRandomWalkFamily } from "../kernels/damped-random-walk.js";
+import { familyOfModel, KERNEL_FAMILIES, type AnyKernelFamily, type FamilyParameter, type Kernel, type ModelName } from "../kernels/index.js";
 import { FactorizationError } from "../linalg/factorization-error.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { DataSummary } from "./data-summary.js";
 import type { PeriodRange } from "./period-range.js";
-import { dampedRandomWalkTerm, oscillatorTerm, quasiPeriodicTerm, type KernelTerm } from "./kernel-term.js";
+import { familyTerm, type KernelTerm } from "./kernel-term.js";
+import { guessForKind, priorForKind, type PriorScales } from "./parameter-priors.js";
 
-/** The models of the trade. */
-export type ModelName = "drw" | "oscillator" | "quasi-periodic";
+export type { ModelName } from "../kernels/index.js";
 
-/** The model names accepted by `fit --model`. */
-export const MODEL_NAMES: readonly ModelName[] = ["drw", "oscillator", "quasi-periodic"];
+/**
+ * The model names accepted by `fit --model`: one per kernel family that declares a model of the trade
+ * (kernels/families.ts), in the families' order.
+ */
+export const MODEL_NAMES: readonly ModelName[] = (KERNEL_FAMILIES as readonly AnyKernelFamily[]).flatMap((family) =>
+  family.model ? [family.model.name as ModelName] : [],
+);
+
+/**
+ * A model's kernel parameters in the order of its results: the family's parameters with the amplitude last
+ * (drw: tau, sigma; oscillator: period, quality, sigma; quasi-periodic: period, decayTime, harmonicWeight, sigma).
+ */
+function modelOrder(family: AnyKernelFamily): FamilyParameter[] {
+  return [...family.parameters.filter((p) => p.kind !== "amplitude"), ...family.parameters.filter((p) => p.kind === "amplitude")];
+}
+
+/** The parameters of a model without a background or jitter, in the order of its results: its kernel's, then `mean`. */
+export function modelParameterNames(name: ModelName): string[] {
+  return [...modelOrder(familyOfModel(name)).map((p) => p.name), "mean"];
+}
 
 /** Options that change a model's structure. */
 export interface ModelStructure {
@@ -55,66 +73,46 @@ export interface LightCurveModel {
 }
 
 /**
- * Builds a model with priors derived from the data's own scales (`summary`):
- * - amplitudes (sigma, backgroundSigma): log-uniform from 1e-3 to 10 times the spread of the values;
- * - damping timescales (tau, backgroundTau): log-uniform from a tenth of the median cadence to ten times the
- *   baseline (Kozlowski 2017, A&A 597, A128: timescales beyond a tenth of the baseline are biased, so the
- *   prior must allow them for the warning to be meaningful);
- * - periods: log-uniform over `structure.periodRange`, by default from twice the typical spacing of
- *   visits on different nights (`summary.visitSpacing`) to the baseline (oscillator) or half of it
- *   (quasi-periodic, which needs two cycles to see a repeat: the range the fit's periodogram searches,
- *   {@link periodSearchRange}); quality: log-uniform on [0.05, 1000] for the oscillator;
- * - decayTime (quasi-periodic): log-uniform from the shortest period of that range to ten baselines, so
- *   that it reaches from a pattern that forgets itself within one cycle to one coherent over the whole
- *   light curve (then the data give only a lower limit, and the warnings say so); harmonicWeight: uniform on [0, 1];
- * - mean: normal around the median with ten times the spread; jitter: log-uniform from 1e-4 to 2 times the spread.
+ * Builds the model of the trade on the kernel family that declares `name` (kernels/families.ts), with
+ * priors derived from the data's own scales (`summary`), each parameter's by its kind (`priorForKind` in
+ * parameter-priors.ts: amplitudes from the spread, timescales from the cadence to ten baselines, periods
+ * over the period range, coherence times from the shortest period to ten baselines, quality factors on
+ * [0.05, 1000], fractions uniform), and a first guess by kind (`guessForKind`). Periods run over
+ * `structure.periodRange`, by default from twice the typical spacing of visits on different nights
+ * ({@link periodSearchRange}) to the baseline divided by the cycles the model needs (oscillator 1,
+ * quasi-periodic 2: a rotation must repeat to be seen). Then:
+ * - mean: normal around the median with ten times the spread;
+ * - background (a damped random walk for trends): backgroundTau and backgroundSigma, priors as tau and sigma;
+ * - jitter: log-uniform from 1e-4 to 2 times the spread.
  */
 export function buildModel(name: ModelName, summary: DataSummary, structure: ModelStructure = {}): LightCurveModel {
-  const { spread, baseline, medianCadence, median } = summary;
-  const amplitude = () => logUniformPrior(1e-3 * spread, 10 * spread);
-  const timescale = () => logUniformPrior(medianCadence / 10, 10 * baseline);
-  const terms: KernelTerm[] = [];
+  if (!MODEL_NAMES.includes(name)) throw new RangeError(`unknown model "${String(name)}" (choose ${MODEL_NAMES.join(", ")})`);
+  const family = familyOfModel(name);
+  const { spread, baseline, median } = summary;
+  const range = periodSearchRange(summary);
+  const scales: PriorScales = {
+    summary,
+    shortestPeriod: structure.periodRange?.shortest ?? range.shortest,
+    longestPeriod: structure.periodRange?.longest ?? baseline / (family.model?.periodCycles ?? 1),
+    ...(structure.periodGuess !== undefined ? { periodGuess: structure.periodGuess } : {}),
+  };
+  const terms: KernelTerm[] = [familyTerm(family)];
   const specs: ParameterSpec[] = [];
   const guess: Record<string, number> = {};
-  const signal = Math.sqrt(Math.max(spread * spread - summary.medianError ** 2, 0.01 * spread * spread));
-  const shortestPeriod = structure.periodRange?.shortest ?? periodSearchRange(summary).shortest;
-  const longestPeriod = (cycles: number) => structure.periodRange?.longest ?? baseline / cycles;
-  const clampPeriod = (value: number | undefined, upper: number) =>
-    value !== undefined && value > shortestPeriod && value < upper ? value : Math.sqrt(shortestPeriod * upper);
-  if (name === "drw") {
-    terms.push(dampedRandomWalkTerm());
-    specs.push({ name: "tau", prior: timescale() }, { name: "sigma", prior: amplitude() });
-    Object.assign(guess, { tau: Math.max(baseline / 10, medianCadence), sigma: signal });
-  } else if (name === "oscillator") {
-    terms.push(oscillatorTerm());
-    specs.push(
-      { name: "period", prior: logUniformPrior(shortestPeriod, longestPeriod(1)) },
-      { name: "quality", prior: logUniformPrior(0.05, 1000) },
-      { name: "sigma", prior: amplitude() },
-    );
-    Object.assign(guess, { period: clampPeriod(structure.periodGuess, longestPeriod(1)), quality: 2, sigma: signal });
-  } else if (name === "quasi-periodic") {
-    const range = { shortest: shortestPeriod, longest: longestPeriod(2) };
-    const decayPrior = logUniformPrior(range.shortest, 10 * baseline);
-    const period = clampPeriod(structure.periodGuess, range.longest);
-    terms.push(quasiPeriodicTerm());
-    specs.push(
-      { name: "period", prior: logUniformPrior(range.shortest, range.longest) },
-      { name: "decayTime", prior: decayPrior },
-      { name: "harmonicWeight", prior: uniformPrior(0, 1) },
-      { name: "sigma", prior: amplitude() },
-    );
-    // The first start only (the optimiser moves it): a pattern that stays coherent for a few cycles.
-    const decayTime = Math.min(Math.max(3 * period, decayPrior.lower * 1.01), decayPrior.upper / 1.01);
-    Object.assign(guess, { period, decayTime, harmonicWeight: 0.3, sigma: signal });
-  } else {
-    throw new RangeError(`unknown model "${String(name)}" (choose ${MODEL_NAMES.join(", ")})`);
+  for (const parameter of modelOrder(family)) {
+    const prior = priorForKind(parameter.kind, scales);
+    specs.push({ name: parameter.name, prior });
+    guess[parameter.name] = guessForKind(parameter.kind, scales, prior);
   }
+  const signal = guessForKind("amplitude", scales, priorForKind("amplitude", scales));
   specs.push({ name: "mean", prior: normalPrior(median, 10 * spread) });
   guess.mean = median;
   if (structure.background === "drw") {
-    terms.push(dampedRandomWalkTerm("backgroundSigma", "backgroundTau"));
-    specs.push({ name: "backgroundTau", prior: timescale() }, { name: "backgroundSigma", prior: amplitude() });
+    terms.push(familyTerm(dampedRandomWalkFamily, { sigma: "backgroundSigma", tau: "backgroundTau" }));
+    specs.push(
+      { name: "backgroundTau", prior: priorForKind("timescale", scales) },
+      { name: "backgroundSigma", prior: priorForKind("amplitude", scales) },
+    );
     Object.assign(guess, { backgroundTau: baseline, backgroundSigma: signal / 2 });
   }
   const fitsJitter = structure.jitter === true || !summary.hasErrors;

@@ -5,7 +5,7 @@ import { observeMagnitudes } from "../../lightcurve/simulated-photometry.js";
 import { createRng } from "../../random/rng.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { UsageError } from "../../errors/usage-error.js";
-import { EXPRESSION_FAMILIES, parseKernelExpression } from "../kernel-expression.js";
+import { expressionFamiliesHelp, parseKernelExpression } from "../kernel-expression.js";
 import { numberOption, parseVerbArguments, seedOption, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
@@ -18,8 +18,8 @@ the columns time,mag,mag_err (times in days).
 
 Kernel expressions combine families with + and * (for example a rotating star with a slow trend):
   quasi-periodic(sigma=0.02,period=11.3,decayTime=30,harmonicWeight=0.3)+drw(sigma=0.05,tau=400)
-Families and parameters:
-${Object.entries(EXPRESSION_FAMILIES).map(([name, params]) => `  ${name.padEnd(16)} ${params}`).join("\n")}
+Families and parameters (time: the input time unit, in days here; value: the data's unit, mag):
+${expressionFamiliesHelp()}
 
 Options:
   --kernel EXPRESSION     the kernel (required)
