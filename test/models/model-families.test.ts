@@ -3,7 +3,7 @@ import { expectedColumns } from "../../src/batch/result-columns.js";
 import { buildModel, MODEL_NAMES, modelParameterNames } from "../../src/models/light-curve-model.js";
 import type { DataSummary } from "../../src/models/data-summary.js";
 
-const summary: DataSummary = { n: 300, baseline: 900, medianCadence: 2.1, minimumSpacing: 0.3, median: 16.2, spread: 0.04, medianError: 0.01, hasErrors: true };
+const summary: DataSummary = { n: 300, baseline: 900, medianCadence: 2.1, minimumSpacing: 0.3, median: 16.2, spread: 0.04, medianError: 0.01, hasErrors: true, visitSpacing: 0.3 };
 
 // Reference: the fit-result contract in docs/choosing-a-kernel.md ("The models of the trade") and the
 // parameter names of each model it lists.
@@ -19,7 +19,7 @@ describe("the models of the trade, read from the kernel family descriptors", () 
   it("priors by kind: the rotation period stops at half the baseline, the oscillator's at the baseline; the decay time from the shortest period to ten baselines", () => {
     const rotation = buildModel("quasi-periodic", summary, { periodGuess: 7.4 });
     const prior = (name: string) => rotation.space.free.find((p) => p.name === name)!.prior;
-    // Shortest period twice the smallest spacing (0.3 d).
+    // Shortest period twice the typical spacing of visits on different nights (0.3 d).
     expect(prior("period").settings).toEqual({ lower: 0.6, upper: 450 });
     expect(prior("decayTime").settings).toEqual({ lower: 0.6, upper: 9000 });
     expect(prior("harmonicWeight").settings).toEqual({ lower: 0, upper: 1 });
