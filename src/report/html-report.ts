@@ -49,7 +49,7 @@ export function htmlReport(input: ReportInput, figures: readonly DrawnFigure[], 
     const drawn = byId.get(id);
     return drawn === undefined ? "" : figureHtml(drawn, files);
   };
-  const others = figures.filter((f) => !["light-curve", "corner", "spectrum", "traces"].includes(f.figure.id));
+  const others = figures.filter((f) => !["light-curve", "phase", "zoom", "corner", "spectrum", "traces"].includes(f.figure.id));
 
   return `<!DOCTYPE html>
 <html lang="en">
@@ -79,6 +79,8 @@ ${parameterTable(input)}
 ${derivedSection(input)}
 ${outlierSection(input)}
 ${figure("light-curve")}
+${figure("phase")}
+${figure("zoom")}
 ${figure("corner")}
 ${figure("spectrum")}
 ${figure("traces")}

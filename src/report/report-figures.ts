@@ -1,13 +1,15 @@
 import { checkReportInput } from "./check-report-input.js";
 import { cornerFigure } from "./corner-figure.js";
 import { lightCurveFigure } from "./light-curve-figure.js";
+import { phaseFigure, zoomFigure } from "./periodic-figures.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
 import { spectrumFigure } from "./spectrum-figure.js";
 import { traceFigure } from "./trace-figure.js";
 
 /**
- * The figures of a report, in reading order: light curve with prediction (and, for a joint multi-band
+ * The figures of a report, in reading order: light curve with prediction (for a model with a period, then
+ * the light curve folded at it and a zoom on a few periods; and, for a joint multi-band
  * fit, one panel per band), corner plot, power spectrum
  * (when a periodogram or PSD band is given) and chain traces. Specifications only; nothing is rendered.
  * Throws a RangeError when the input's arrays do not fit together (see {@link checkReportInput}).
@@ -19,8 +21,10 @@ export function reportFigures(input: ReportInput): ReportFigure[] {
     const figure = lightCurveFigure({ ...input, lightCurve: panel.lightCurve, prediction: panel.prediction });
     return { ...figure, id: `light-curve-band-${panel.band}`, title: `Band ${panel.band}: light curve and posterior prediction given every band` };
   });
+  const periodic = [phaseFigure(input), zoomFigure(input)].filter((f): f is ReportFigure => f !== undefined);
   return [
     lightCurveFigure(input),
+    ...periodic,
     ...bandFigures,
     cornerFigure(input),
     ...(spectrum === undefined ? [] : [spectrum]),

@@ -77,14 +77,44 @@ export function reportInputFromDraws(lightCurve: LightCurve, result: FitResult, 
   const frequencies = Float64Array.from({ length: 200 }, (_, i) => fLow * Math.pow(fHigh / fLow, i / 199));
   const spectra = used.map((row) => model.kernelAt(row).psd(frequencies.map((f) => 2 * Math.PI * f)));
   const band = (q: number) => frequencies.map((_, i) => quantile(spectra.map((s) => s[i]), q));
+  const period = result.parameters["period"]?.median;
+  const periodic = period !== undefined && period > 0 ? periodicCurves(lightCurve, period, (grid) => model.predict(used, grid)) : undefined;
   return {
     result,
     lightCurve,
     prediction,
     draws,
+    ...(periodic ? { periodic } : {}),
     periodogram: { frequency: periodogram.frequency, power: periodogram.power, label: "Lomb-Scargle power" },
     psdBand: { frequency: frequencies, median: band(0.5), lower: band(0.16), upper: band(0.84), mass: 0.68 },
   };
+}
+
+/** Data times used for the folded model curve at most (evenly thinned beyond). */
+const MAX_FOLDED_TIMES = 2000;
+/** Periods shown by the zoom. */
+const ZOOM_PERIODS = 4;
+/** Grid points of the zoom's curve. */
+const ZOOM_POINTS = 400;
+
+/**
+ * The predictive curves of a periodic model's figures: at the data's times (thinned to
+ * {@link MAX_FOLDED_TIMES}) and on a fine grid over the stretch of {@link ZOOM_PERIODS} periods that holds
+ * the most measurements.
+ */
+function periodicCurves(lightCurve: LightCurve, period: number, predict: (grid: Float64Array) => PredictiveCurve) {
+  const { time } = lightCurve;
+  const thinned = evenlySpacedItems(Array.from(time), MAX_FOLDED_TIMES);
+  const width = ZOOM_PERIODS * period;
+  let bestStart = time[0];
+  let bestCount = 0;
+  let last = 0;
+  for (let first = 0; first < time.length; first++) {
+    while (last < time.length && time[last] <= time[first] + width) last++;
+    if (last - first > bestCount) (bestCount = last - first), (bestStart = time[first]);
+  }
+  const zoomGrid = Float64Array.from({ length: ZOOM_POINTS }, (_, i) => bestStart + (width * i) / (ZOOM_POINTS - 1));
+  return { atData: predict(Float64Array.from(thinned)), zoom: predict(zoomGrid) };
 }
 
 function quantile(values: number[], q: number): number {

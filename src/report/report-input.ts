@@ -91,6 +91,14 @@ export interface ReportInput {
   readonly timeUnit?: string;
   /** Overrides of the default labels and units, by parameter name. */
   readonly parameterDisplay?: Readonly<Record<string, Partial<ParameterDisplay>>>;
+  /**
+   * Models with a period: the posterior-predictive curve at (an evenly thinned subset of) the data's own
+   * times, for the phase-folded figure, and on a fine grid over a stretch of a few periods, for the zoom.
+   */
+  readonly periodic?: {
+    readonly atData: PredictiveCurve;
+    readonly zoom: PredictiveCurve;
+  };
   /** A heading for the report, for example the object's identifier (default: the light curve's source). */
   readonly title?: string;
 }
