@@ -27,7 +27,7 @@ const fmt = (x: number) => (Math.abs(x) >= 1e4 || Math.abs(x) < 1e-2 ? x.toExpon
  *   A128), and one shorter than the median cadence is not resolved by the sampling;
  * - a posterior piled against a prior bound gives only a limit;
  * - the period posterior has several modes (aliases);
- * - rows were dropped, or no error column was given and a white-noise term was fitted.
+ * - rows were dropped or had to be sorted by time, or no error column was given and a white-noise term was fitted.
  */
 export function fitWarnings(inputs: WarningInputs): string[] {
   const { model, summary, lightCurve, parameters, diagnostics, modes } = inputs;
@@ -97,6 +97,7 @@ export function fitWarnings(inputs: WarningInputs): string[] {
     ];
     warnings.push(`${dropped} rows were dropped: ${parts.join(", ")}.`);
   }
+  if (lightCurve.provenance.sorted) warnings.push("The rows of the file were not in time order; they were sorted by time before the fit.");
   if (!summary.hasErrors) {
     warnings.push("The light curve has no error column: a white-noise term (jitter) was fitted for the measurement errors.");
   }

@@ -40,7 +40,9 @@ async function fitRequest(request: FitRequest): Promise<WorkerMessage> {
   });
   const lightCurve = set.lightCurves[0];
   if (lightCurve === undefined) throw new InputError("the file holds no light curve", { file: request.fileName });
-  const readingNotes = [...set.warnings];
+  // Dropped and sorted rows are in the fit's own warnings already; the other notes of reading (an assumed
+  // unit, converted timestamps) go first.
+  const readingNotes = set.warnings.filter((w) => !/dropped|sorted by time/.test(w));
   if (set.lightCurves.length > 1) {
     const bands = set.lightCurves.map((lc) => lc.band ?? "?");
     readingNotes.push(`the file holds ${bands.length} bands (${bands.join(", ")}); the page fitted band ${lightCurve.band ?? bands[0]}`);
