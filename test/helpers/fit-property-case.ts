@@ -109,3 +109,27 @@ function resultProblems(result: FitResult): string[] {
   if (d.converged && !(Number.isFinite(d.rhatMax) && Number.isFinite(d.essMin))) problems.push("converged with a figure not computed");
   return problems;
 }
+
+/** The outcome counts of a property run and the failures, one line each. */
+export interface CaseTally {
+  readonly counts: Record<CaseOutcome["kind"], number>;
+  readonly failures: string[];
+}
+
+/**
+ * Runs `numRuns` generated cases (N up to `maximumPoints`) with a fixed fast-check seed, counting the
+ * outcomes; every case runs (a failure is recorded, not raised), so the tally is complete.
+ */
+export function tallyFitCases(maximumPoints: number, maxEvaluations: number, seed: number, numRuns: number): CaseTally {
+  const counts: Record<CaseOutcome["kind"], number> = { result: 0, "one-line error": 0, failure: 0 };
+  const failures: string[] = [];
+  fc.assert(
+    fc.property(fitCases(maximumPoints), (c) => {
+      const outcome = runCase(c, maxEvaluations);
+      counts[outcome.kind]++;
+      if (outcome.kind === "failure") failures.push(`${JSON.stringify(c)}: ${outcome.message}`);
+    }),
+    { seed, numRuns },
+  );
+  return { counts, failures };
+}
