@@ -103,9 +103,19 @@ export function computePeriodogram(series: SampledSeries, options: PeriodogramOp
   };
 }
 
-/** The power on a grid, by the fast sums where they are cheaper than the direct ones. */
+/**
+ * The power on a grid, by the fast sums where they are cheaper than the direct ones and applicable (a
+ * step of at most 1 / baseline, which the automatic grids always have).
+ */
 function gridPower(series: SampledSeries, grid: FrequencyGrid): Float64Array {
-  return fastGlsIsCheaper(series.time.length, grid.count) ? fastGlsPower(series, grid) : glsPower(series, grid);
+  let first = Infinity;
+  let last = -Infinity;
+  for (let i = 0; i < series.time.length; i++) {
+    first = Math.min(first, series.time[i]);
+    last = Math.max(last, series.time[i]);
+  }
+  const fits = grid.step * (last - first) <= 1;
+  return fits && fastGlsIsCheaper(series.time.length, grid.count) ? fastGlsPower(series, grid) : glsPower(series, grid);
 }
 
 /** Fine frequencies per band of a coarse-then-fine search (bounds the memory of one pass). */
