@@ -35,7 +35,7 @@ export function robustResiduals(lightCurve: LightCurve): Float64Array {
 /**
  * The standardised residual beyond which a point is a gross outlier for Gaussian noise among `n`:
  * the |z| that n Gaussian points exceed with probability 1% in all, P(|z| > z*) = 0.01 / n, at least 5.
- * For n = 400 it is 4.6 -> 5; for n = 1e6, 6.5.
+ * For n = 400 it is 4.21 -> 5; for n = 1e6, 5.73.
  */
 export function grossOutlierThreshold(n: number): number {
   return Math.max(5, normalQuantile(1 - 0.005 / Math.max(n, 1), 0, 1));
