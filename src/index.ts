@@ -31,9 +31,13 @@ export { GaussianProcess } from "./gp/gaussian-process.js";
 export { DenseGaussianProcess } from "./gp/dense-gaussian-process.js";
 export { SemiseparableConditionedProcess } from "./gp/conditioned-process.js";
 export { DenseConditionedProcess } from "./gp/dense-conditioned-process.js";
-export { MAX_COVARIANCE_SIZE, type ConditionedProcess, type GaussianProcessOptions, type GradientResult, type MeanAndVariance } from "./gp/gp-options.js";
+export { MAX_COVARIANCE_SIZE, type ConditionedInputs, type ConditionedProcess, type GaussianProcessOptions, type GradientResult, type MeanAndVariance } from "./gp/gp-options.js";
 export { FactorizationError } from "./linalg/factorization-error.js";
 export type { SemiseparableForm } from "./linalg/semiseparable-form.js";
+export type { SemiseparableFactorization } from "./linalg/semiseparable-factorization.js";
+export type { DenseCholesky } from "./linalg/dense-cholesky.js";
+export type { GradientWorkspace } from "./linalg/semiseparable-gradient.js";
+export type { MeanMarginal, MeanPrior } from "./linalg/mean-marginal-likelihood.js";
 export type { TransitionBlock } from "./linalg/transition-block.js";
 export { createRng, childSeed, type Rng } from "./random/rng.js";
 
@@ -41,15 +45,42 @@ export * as inference from "./inference/index.js";
 
 export type { LightCurve, LightCurveProvenance, PhotometricUnit } from "./lightcurve/light-curve.js";
 export { InputError } from "./errors/input-error.js";
-export { parseLightCurveBytes } from "./lightcurve/parse-light-curve-bytes.js";
-export { seasonalGroundCadence, continuousSpaceCadence } from "./lightcurve/cadence.js";
-export { photometricError } from "./lightcurve/photometric-error.js";
+export { parseLightCurveBytes, type LightCurveReadOptions } from "./lightcurve/parse-light-curve-bytes.js";
+export type { LightCurveSet } from "./lightcurve/assemble-light-curves.js";
+export type { LightCurveFormat } from "./lightcurve/light-curve-format.js";
+export type { Delimiter } from "./lightcurve/delimited-text.js";
+export { seasonalGroundCadence, continuousSpaceCadence, type SeasonalCadenceOptions, type ContinuousCadenceOptions } from "./lightcurve/cadence.js";
+export { photometricError, type PhotometricErrorOptions } from "./lightcurve/photometric-error.js";
 
-export { computePeriodogram, type Periodogram } from "./periodogram/periodogram.js";
+export { computePeriodogram, type Periodogram, type PeriodogramOptions, type RankedPeak } from "./periodogram/periodogram.js";
+export type { FrequencyGrid, FrequencyGridOptions } from "./periodogram/frequency-grid.js";
+export type { SampledSeries } from "./periodogram/time-series.js";
+export type { SinusoidFit } from "./periodogram/sinusoid-fit.js";
 
 export { fitLightCurve, fitLightCurveDetailed, type DetailedFit } from "./models/fit-light-curve.js";
 export type { FitOptions } from "./models/fit-options.js";
-export type { FitResult, ParameterSummary, FitDiagnostics, FitDataSummary } from "./models/fit-result.js";
+export {
+  RESULT_FORMAT_VERSION,
+  type FitResult,
+  type ParameterSummary,
+  type FitDiagnostics,
+  type FitDataSummary,
+  type FitParameterSummary,
+  type DerivedSummary,
+  type FitChoices,
+  type RobustNoiseSummary,
+  type PriorDescription,
+  type PeriodModeSummary,
+  type StoredPosteriorSample,
+  type JointBandsSummary,
+} from "./models/fit-result.js";
+export { parseFitResult } from "./models/parse-fit-result.js";
+export type { KernelTerm } from "./models/kernel-term.js";
+export type { ModelStanding } from "./models/compare-models.js";
+export type { ModelStructure } from "./models/light-curve-model.js";
+export type { PeriodMode } from "./models/period-modes.js";
+export type { PeriodLimits, PeriodRange } from "./models/period-range.js";
+export type { RobustNoise } from "./models/robust-noise.js";
 export { buildModel, modelLikelihood, modelParameterNames, MODEL_NAMES, type ModelName, type LightCurveModel } from "./models/light-curve-model.js";
 export { posteriorPredictive, type PredictiveCurve } from "./models/posterior-predictive.js";
 export { compareModels, type ModelComparison } from "./models/compare-models.js";

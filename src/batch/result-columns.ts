@@ -2,12 +2,12 @@ import { MODEL_NAMES, modelParameterNames, type ModelName } from "../models/ligh
 import { LEADING_COLUMNS, type ResultRow } from "./result-row.js";
 
 /**
- * The statistics of each parameter summary in the fit JSON: those of DESIGN.md ("Fit result JSON"),
+ * The statistics of each parameter summary in the fit JSON: those of docs/architecture.md ("Result JSON"),
  * and the 95% highest-density interval that models/fit-light-curve.ts adds.
  */
 export const SUMMARY_STATISTICS = ["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5", "hdi95.lower", "hdi95.upper"] as const;
 
-/** The diagnostics of the fit JSON (DESIGN.md, "Fit result JSON"). */
+/** The diagnostics of the fit JSON (docs/architecture.md, "Result JSON"). */
 export const DIAGNOSTIC_KEYS = [
   "converged",
   "rhatMax",

@@ -57,7 +57,7 @@ export class SemiseparableConditionedProcess implements ConditionedProcess {
 
   /**
    * Conditional mean and variance at any times: by one smoother pass over data and requested times
-   * ({@link semiseparablePredict}) at the first call, from the smoother's kept states from the second on
+   * (`semiseparablePredict`) at the first call, from the smoother's kept states from the second on
    * (O(R^2 + log N) per requested time; not kept above {@link CONDITIONED_STATES_LIMIT}).
    */
   at(times: ArrayLike<number>): MeanAndVariance {

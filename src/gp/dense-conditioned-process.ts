@@ -65,7 +65,7 @@ export class DenseConditionedProcess implements ConditionedProcess {
   }
 
   /**
-   * mean + L xi with L L^T the joint conditional covariance (plus {@link DRAW_JITTER} k(0) on the
+   * mean + L xi with L L^T the joint conditional covariance (plus `DRAW_JITTER` k(0) on the
    * diagonal). The mean and factor of the last requested times are kept, so repeated draws at the same
    * times cost O(M^2) each.
    */

@@ -90,7 +90,7 @@ export class GaussianProcess {
 
   /**
    * log p(values | kernel) with the constant mean integrated out under a normal prior, and the mean's
-   * Gaussian posterior given the kernel ({@link semiseparableMeanMarginal}, Rybicki & Press 1992). The
+   * Gaussian posterior given the kernel (`semiseparableMeanMarginal`, Rybicki & Press 1992). The
    * process's own `mean` option plays no part. One O(N R^2) pass.
    */
   meanMarginal(values: ArrayLike<number>, prior: MeanPrior): MeanMarginal {

@@ -8,7 +8,7 @@ import type { Rng } from "../random/rng.js";
  */
 export const DRAW_JITTER = 1e-10;
 
-/** The LDL factorisation of the noise-free kernel matrix at sorted `time` (plus {@link DRAW_JITTER} k(0)). */
+/** The LDL factorisation of the noise-free kernel matrix at sorted `time` (plus `DRAW_JITTER` k(0)). */
 export function priorFactorization(form: SemiseparableForm, time: Float64Array): SemiseparableFactorization {
   const jitter = DRAW_JITTER * formVariance(form);
   return new SemiseparableFactorization(form, time, new Float64Array(time.length).fill(jitter));

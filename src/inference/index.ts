@@ -33,9 +33,9 @@ export {
   type FreeParameter,
 } from "./parameter-space.js";
 export { unconstrainedPosterior, type PhysicalLikelihood, type UnconstrainedPosteriorOptions } from "./unconstrained-posterior.js";
-export { minimizeLbfgs, type LbfgsOptions, type LocalMinimum, type GradientObjective } from "./lbfgs.js";
+export { minimizeLbfgs, type MinimizationStop, type LbfgsOptions, type LocalMinimum, type GradientObjective } from "./lbfgs.js";
 export { minimizeNelderMead, type NelderMeadOptions } from "./nelder-mead.js";
-export { findMaximumPosterior, startingPoints, type MaximumPosterior, type LocalMaximum } from "./maximum-posterior.js";
+export { findMaximumPosterior, startingPoints, type MaximumPosteriorOptions, type MaximumPosterior, type LocalMaximum } from "./maximum-posterior.js";
 export { modeScales } from "./mode-curvature.js";
 export { stretchProposal, differentialEvolutionProposal, defaultWalkerProposals, type WalkerProposal, type WeightedProposal } from "./walker-proposals.js";
 export { createWalkerEnsemble, defaultWalkerCount, type WalkerEnsembleOptions } from "./walker-ensemble.js";
@@ -53,6 +53,7 @@ export {
 } from "./run-sampler.js";
 export {
   assessConvergence,
+  rhatThreshold,
   DEFAULT_CONVERGENCE_CRITERIA,
   type ConvergenceCriteria,
   type ConvergenceReport,
@@ -79,3 +80,5 @@ export {
   type PosteriorSamplingOptions,
   type PosteriorSample,
 } from "./sample-posterior.js";
+export { planWarmup, type WarmupPlan } from "./warmup-schedule.js";
+export { checkGrowthAfter } from "./check-schedule.js";

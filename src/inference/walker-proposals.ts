@@ -39,7 +39,8 @@ export function stretchProposal(a = 2): WalkerProposal {
  * sqrt(2 d) is optimal for Gaussian targets; gamma = 1 lets walkers jump between modes. The small
  * e ~ N(0, (jitter |x_j - x_k|)^2) per coordinate keeps the chain irreducible.
  *
- * @param gamma the scale of the difference vector; by default 2.38 / sqrt(2 d)
+ * @param options `gamma`, the scale of the difference vector (default 2.38 / sqrt(2 d)); `jitter`, the relative
+ *   spread of e (default 1e-4)
  */
 export function differentialEvolutionProposal(options: { gamma?: number; jitter?: number } = {}): WalkerProposal {
   const jitter = options.jitter ?? 1e-4;

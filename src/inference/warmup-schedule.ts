@@ -23,8 +23,8 @@ export const WARMUP_WINDOW_GROWTH = 3;
  *    by its curvature, with that curvature as the first mass matrix, so they need only to settle into
  *    the typical set before their draws say anything about its shape;
  * 2. a middle span tiled exactly by k windows whose lengths grow geometrically by
- *    {@link WARMUP_WINDOW_GROWTH}, k being the largest number for which the first window still holds
- *    {@link MIN_WARMUP_WINDOW} draws. Each window ends with a new mass matrix and a fresh step-size
+ *    `WARMUP_WINDOW_GROWTH`, k being the largest number for which the first window still holds
+ *    `MIN_WARMUP_WINDOW` draws. Each window ends with a new mass matrix and a fresh step-size
  *    search. Growth 3 rather than 2 halves the restarts (each costs the dual averaging some tens of
  *    iterations to settle) and gives the last window, whose estimate is the one kept, two thirds of the span;
  * 3. a closing of round(W / 10) iterations in which the step size settles for the final mass matrix.

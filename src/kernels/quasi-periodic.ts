@@ -32,7 +32,7 @@ export interface QuasiPeriodicParameters {
  * eta w0 = w, i.e. w0 = sqrt(w^2 + a^2) and Q = w0 / (2a) = sqrt((w decayTime)^2 + 1) / 2 > 1/2: it is
  * positive definite for every w, decayTime > 0, and its state-space form is an oscillator block. Four
  * semiseparable components (R = 4), two complex pairs. Its spectrum is the oscillators' (see
- * {@link dampedOscillationSpectrum}).
+ * `dampedOscillationSpectrum`).
  *
  * @example const k = kernels.quasiPeriodic({ sigma: 0.02, period: 11.3, decayTime: 30, harmonicWeight: 0.3 });
  */

@@ -25,7 +25,7 @@ export interface ObservationColumns {
 export interface AssembleOptions {
   /** Keep only this band (needs a band column). */
   readonly band?: string;
-  /** Fewest usable points per light curve (default {@link DEFAULT_MINIMUM_POINTS}). */
+  /** Fewest usable points per light curve (default `DEFAULT_MINIMUM_POINTS`). */
   readonly minimumPoints?: number;
   /** Convert values and errors to this unit (first-order error propagation). */
   readonly convertTo?: PhotometricUnit;

@@ -4,7 +4,7 @@ import type { PhotometricUnit } from "./light-curve.js";
 
 /**
  * Which table columns hold the time, the value, the error and the band: explicit choices first, then
- * the names recognised in DESIGN.md.
+ * the names recognised by default (docs/architecture.md, "Command line").
  */
 
 /** Time column names recognised without `--time-col`, in order of preference (case-insensitive). */
@@ -14,7 +14,7 @@ export const VALUE_COLUMN_NAMES: readonly string[] = ["mag", "flux", "value", "y
 /** Error column names recognised without `--error-col`, in order of preference (case-insensitive). */
 export const ERROR_COLUMN_NAMES: readonly string[] = ["err", "mag_err", "magerr", "flux_err", "sigma", "error"];
 /**
- * Band column names recognised without `--band-col`. DESIGN.md lists none; these two are the usual
+ * Band column names recognised without `--band-col`: these two are the usual
  * headers of multi-band tables, and mixing bands silently would be worse than recognising them.
  */
 export const BAND_COLUMN_NAMES: readonly string[] = ["band", "filter"];

@@ -42,7 +42,7 @@ export interface PhotometricErrorOptions {
 
 /**
  * Total per-visit photometric error in magnitudes: sqrt(sigma_sys^2 + sigma_rand^2), with sigma_rand from
- * {@link randomMagnitudeError} (Ivezic et al. 2019, eqs. 4-5).
+ * `randomMagnitudeError` (Ivezic et al. 2019, eqs. 4-5).
  *
  * @example photometricError(21, { depth5Sigma: 24.5 }) // ~0.0113 mag
  */

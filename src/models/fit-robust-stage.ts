@@ -11,7 +11,7 @@ export interface NoiseConditioning {
 
 /**
  * The robust-noise stage of a fit: with `robust`, Student-t noise as per-point weights
- * ({@link robustNoiseWeights}) folded into the errors; otherwise the light curve unchanged.
+ * (`robustNoiseWeights`) folded into the errors; otherwise the light curve unchanged.
  */
 export function noiseConditioning(model: LightCurveModel, lightCurve: LightCurve, robust: boolean): NoiseConditioning {
   if (!robust) return { conditioning: lightCurve };

@@ -79,7 +79,7 @@ export interface LightCurveModel {
  * over the period range, coherence times from the shortest period to ten baselines, quality factors on
  * [0.05, 1000], fractions uniform), and a first guess by kind (`guessForKind`). Periods run over
  * `structure.periodRange`, by default from twice the typical spacing of visits on different nights
- * ({@link periodSearchRange}) to the baseline divided by the cycles the model needs (oscillator 1,
+ * (`periodSearchRange`) to the baseline divided by the cycles the model needs (oscillator 1,
  * quasi-periodic 2: a rotation must repeat to be seen). Then:
  * - mean: normal around the median with ten times the spread;
  * - background (a damped random walk for trends): backgroundTau and backgroundSigma, priors as tau and sigma;

@@ -11,7 +11,7 @@ const MINIMUM_WEIGHT = 1e-12;
 /** Degrees of freedom of the Student-t noise (heavy enough for outliers, common practice: 3 to 5). */
 export const ROBUST_DEGREES_OF_FREEDOM = 4;
 
-/** The outcome of {@link robustNoiseWeights}. */
+/** The outcome of `robustNoiseWeights`. */
 export interface RobustNoise {
   readonly degreesOfFreedom: number;
   /** E[lambda_i | data]: each point's noise variance is its error^2 / weight. */

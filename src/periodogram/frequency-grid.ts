@@ -17,13 +17,13 @@ export interface FrequencyGrid {
   readonly fineStep?: number;
 }
 
-/** Options of {@link automaticFrequencyGrid}. */
+/** Options of `automaticFrequencyGrid`. */
 export interface FrequencyGridOptions {
   /** Lowest frequency; default 1 / baseline (a period as long as the data). */
   readonly minimumFrequency?: number;
   /**
    * Highest frequency; default half the reciprocal of the typical spacing of visits on different nights
-   * ({@link typicalVisitSpacing}), a "pseudo-Nyquist" frequency of the visits (common practice;
+   * (`typicalVisitSpacing`), a "pseudo-Nyquist" frequency of the visits (common practice;
    * VanderPlas 2018, sect. 4.1.2, explains why irregular sampling has no true Nyquist limit, and why
    * the smallest spacing, minutes for visits clustered within a night, is not a useful limit).
    */

@@ -57,7 +57,7 @@ export function timeUnitOf(input: ReportInput): string {
 }
 
 /**
- * The display of a parameter: defaults for the model parameters named in DESIGN.md (units taken from
+ * The display of a parameter: defaults for the model parameters named in docs/architecture.md ("Result JSON"; units taken from
  * the light curve and the time unit), overridden by `input.parameterDisplay`. When `logScale` is not
  * given, it is chosen from the spread of the draws.
  *

@@ -5,7 +5,7 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { runInProcess } from "./run-cli-in-process.js";
 
-/** The DESIGN.md fit-result contract: these keys must be present (more may be added). */
+/** The fit-result contract (docs/architecture.md, "Result JSON"): these keys must be present (more may be added). */
 const CONTRACT = {
   top: ["model", "seed", "version", "data", "parameters", "diagnostics", "warnings"],
   data: ["n", "dropped", "baseline", "medianCadence", "timeColumn", "valueColumn", "errorColumn"],

@@ -67,7 +67,7 @@ describe("kernel autocovariance and power spectrum", () => {
     }
   });
 
-  it("oscillator: every damping regime matches the DESIGN.md formula, and Q within 1e-8 of 1/2 matches the critical limit", () => {
+  it("oscillator: every damping regime matches the formula of docs/architecture.md (Public library API), and Q within 1e-8 of 1/2 matches the critical limit", () => {
     const sigma = 1.3;
     const period = 5;
     const w0 = (2 * Math.PI) / period;

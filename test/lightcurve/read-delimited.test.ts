@@ -141,7 +141,7 @@ describe("delimited text: explicit columns and units", () => {
     expect(a.lightCurves[0].provenance.errorColumn).toBeNull();
     const b = parseDelimitedLightCurves("mjd,flux,mag_err,flux_err\n" + rows(5).replace(/\n/g, ",0.5\n"), "x.csv");
     expect(b.lightCurves[0].provenance.errorColumn).toBe("flux_err");
-    // Preference follows the DESIGN.md order: time before mjd, mag before flux.
+    // Preference follows the documented order (docs/architecture.md, "Command line"): time before mjd, mag before flux.
     const c = parseDelimitedLightCurves("mjd,time,flux,mag\n" + rows(5).replace(/\n/g, ",0.5\n"), "x.csv");
     expect(c.lightCurves[0].provenance.timeColumn).toBe("time");
     expect(c.lightCurves[0].provenance.valueColumn).toBe("mag");

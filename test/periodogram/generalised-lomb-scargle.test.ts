@@ -64,7 +64,7 @@ describe("generalised Lomb-Scargle (Zechmeister & Kurster 2009)", () => {
   });
 
   it("keeps its accuracy over a long grid with Julian-date times", () => {
-    // Times near 2.46e6 (Julian dates): the periodogram must not depend on the time origin (DESIGN.md numerics).
+    // Times near 2.46e6 (Julian dates): the periodogram must not depend on the time origin (docs/architecture.md, "Numerics").
     const shifted = irregular(60, 2, 2_460_000.5);
     const plain = irregular(60, 2, 0);
     const grid = { start: 0.01, step: 0.0005, count: 20_000 };

@@ -96,7 +96,7 @@ export const verb: CliVerb = {
         say(`   report: ${written.html}\n`);
       }
     });
-    say(`\nDone. The JSON results follow the contract in DESIGN.md; try "horologium report ${join(out, "quasar-result.json")}" or "horologium fit --help".\n`);
+    say(`\nDone. The JSON results follow the format in docs/architecture.md ("Result JSON"); try "horologium report ${join(out, "quasar-result.json")}" or "horologium fit --help".\n`);
     return 0;
   },
 };
