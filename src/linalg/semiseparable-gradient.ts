@@ -40,7 +40,7 @@ export interface GradientOptions {
   readonly workspace?: GradientWorkspace;
 }
 
-/** Reusable memory for the gradient's tape (see {@link GradientOptions.workspace}). */
+/** Reusable memory for the gradient's tape (see `GradientOptions.workspace`). */
 export interface GradientWorkspace {
   tape?: Float64Array;
 }
