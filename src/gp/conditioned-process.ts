@@ -28,7 +28,7 @@ export const CONDITIONED_STATES_LIMIT = 2 ** 22;
  * returns. The values are checked and the residual formed once. The first `at` runs the smoother over
  * data and requested times together (one O((N + M) R^2) pass: a single query costs no more than that);
  * the second runs it over the data once more and keeps its states
- * ({@link SemiseparableConditionedStates}, about twice a pass), so that every later requested time costs
+ * (`SemiseparableConditionedStates`, about twice a pass), so that every later requested time costs
  * O(R^2 + log N), whatever N (`bench/conditioned-queries.ts`).
  *
  * @example
@@ -58,7 +58,7 @@ export class SemiseparableConditionedProcess implements ConditionedProcess {
   /**
    * Conditional mean and variance at any times: by one smoother pass over data and requested times
    * (`semiseparablePredict`) at the first call, from the smoother's kept states from the second on
-   * (O(R^2 + log N) per requested time; not kept above {@link CONDITIONED_STATES_LIMIT}).
+   * (O(R^2 + log N) per requested time; not kept above `CONDITIONED_STATES_LIMIT`).
    */
   at(times: ArrayLike<number>): MeanAndVariance {
     checkTargets(times, "at");
@@ -90,7 +90,7 @@ export class SemiseparableConditionedProcess implements ConditionedProcess {
   /**
    * Joint conditional covariance k(a, b) - k_a^T K^{-1} k_b (Rasmussen & Williams 2006, eq. 2.24): per
    * requested time b one O(N R) solve z = K^{-1} k_b and one semiseparable product k_a^T z for every a at
-   * once ({@link SemiseparableCrossProduct}), O(M (N + M) R) in all; symmetric to the last bit.
+   * once (`SemiseparableCrossProduct`), O(M (N + M) R) in all; symmetric to the last bit.
    */
   covarianceAt(times: ArrayLike<number>): Float64Array {
     const m = times.length;
