@@ -58,6 +58,7 @@ export type { SampledSeries } from "./periodogram/time-series.js";
 export type { SinusoidFit } from "./periodogram/sinusoid-fit.js";
 
 export { fitLightCurve, fitLightCurveDetailed, type DetailedFit } from "./models/fit-light-curve.js";
+export type { StageSeconds } from "./models/fit-stage-timer.js";
 export type { FitOptions } from "./models/fit-options.js";
 export {
   RESULT_FORMAT_VERSION,
