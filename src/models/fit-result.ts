@@ -43,7 +43,10 @@ export interface FitResult {
   readonly priors: Readonly<Record<string, PriorDescription>>;
   /** The parameters at the maximum of the posterior found by the optimiser, physical units. */
   readonly maximumPosterior: Readonly<Record<string, number>>;
-  /** Periodic models: the modes in the period that were weighed (P, P/2, 2P of the periodogram peak). */
+  /**
+   * Periodic models: the modes in the period that the pooled posterior draws sit in (after P, P/2, 2P and
+   * the daily aliases of the periodogram peak were weighed and sampled), each with its share of the draws.
+   */
   readonly periodModes?: readonly PeriodModeSummary[];
   /** Periodic models: the period of the highest periodogram peak, the first guess. */
   readonly periodogramPeriod?: number;
@@ -133,9 +136,11 @@ export interface PriorDescription {
   readonly settings: Readonly<Record<string, number>>;
 }
 
-/** One mode in the period and its posterior probability (Laplace approximation). */
+/** One mode in the period of the posterior draws. */
 export interface PeriodModeSummary {
+  /** Median period of the draws in the mode. */
   readonly period: number;
+  /** Share of the pooled draws in the mode: the posterior mass the draws give it. */
   readonly probability: number;
 }
 
