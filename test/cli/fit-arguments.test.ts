@@ -4,6 +4,8 @@ import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { UsageError } from "../../src/errors/usage-error.js";
 import { fitArgumentList, fitArguments } from "../../src/cli/fit-arguments.js";
+import { parseVerbArguments } from "../../src/cli/verb-arguments.js";
+import { CATALOGUE_FIT_OPTIONS, catalogueFitChoice } from "../../src/cli/verbs/batch/catalogue-fit-arguments.js";
 import { runInProcess } from "./run-cli-in-process.js";
 
 const LIGHT_CURVE = "time,mag,mag_err\n" + Array.from({ length: 30 }, (_, i) => `${i * 1.5},${(19 + 0.1 * Math.sin(i)).toFixed(4)},0.02`).join("\n") + "\n";
@@ -42,6 +44,19 @@ describe("fitArguments: one set of rules for every verb that fits", () => {
     expect(fitArguments({}, false)).toEqual({ seed: 1 });
     expect(() => fitArguments({}, true)).toThrow(new UsageError("--model is required (drw, oscillator, quasi-periodic)"));
     expect(() => fitArguments({ model: "sine" }, false)).toThrow('--model must be one of drw, oscillator, quasi-periodic, got "sine"');
+  });
+});
+
+describe("batch plan: the arguments written into the job script", () => {
+  it("read back to the same choice, flags included (the tasks fit exactly as asked)", () => {
+    const io = { stdout: () => undefined, stderr: () => undefined, stderrIsTty: false, env: {}, cwd: "/lds", now: () => 0 };
+    const args = ["--model", "oscillator", "--seed", "7", "--robust", "--unit", "flux", "--keep-placeholders", "--id-col", "objid", "--error-col", "none", "--timeout", "30", "--min-period", "0.5"];
+    const parse = (list: string[]) => parseVerbArguments(list, CATALOGUE_FIT_OPTIONS, "", () => undefined)!.values;
+    const first = catalogueFitChoice(parse(args), io);
+    const again = catalogueFitChoice(parse([...first.arguments]), io);
+    expect(again).toEqual(first);
+    expect(first.read).toEqual({ unit: "flux", keepPlaceholders: true, idColumn: "objid", errorColumn: null });
+    expect(first.fit).toEqual({ model: "oscillator", seed: 7, robust: true, minimumPeriod: 0.5 });
   });
 });
 

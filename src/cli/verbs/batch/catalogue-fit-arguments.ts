@@ -49,8 +49,9 @@ export function catalogueFitChoice(values: VerbArguments["values"], io: CliIo): 
   const modulePath = textOption(values, "fit-module");
   const list = fitArgumentList(fit);
   for (const name of ["id-col", ...Object.keys(COLUMN_OPTIONS), "timeout"]) {
-    const value = textOption(values, name);
-    if (value !== undefined) list.push(`--${name}`, value);
+    const value = values[name];
+    if (typeof value === "string") list.push(`--${name}`, value);
+    else if (value === true) list.push(`--${name}`);
   }
   if (modulePath !== undefined) list.push("--fit-module", resolve(io.cwd, modulePath));
   return {
