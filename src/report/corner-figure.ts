@@ -130,6 +130,11 @@ function positionScale(axis: PairAxis) {
   return axis.log ? { type: "log" as const, domain: axis.extent, nice: false } : { type: "linear" as const, domain: axis.extent, nice: false, zero: false };
 }
 
+/** Log axes print 100 and 0.001, not 1e+2; linear axes keep Vega's own tick format. */
+function tickFormat(axis: PairAxis): { format?: string } {
+  return axis.log ? { format: "~g" } : {};
+}
+
 function marginalCell(axis: PairAxis, name: string, datasets: Record<string, DataRows>, size: number, bottom: boolean): ViewSpec {
   const low = toPlot(axis, axis.extent[0]);
   const high = toPlot(axis, axis.extent[1]);
@@ -153,7 +158,7 @@ function marginalCell(axis: PairAxis, name: string, datasets: Record<string, Dat
   datasets[name] = rows;
   let peak = 0;
   for (const d of curve.density) peak = Math.max(peak, d);
-  const x = { field: "x", type: "quantitative" as const, scale: positionScale(axis), axis: bottom ? { title: axis.title, format: "~g" } : { title: null, labels: false } };
+  const x = { field: "x", type: "quantitative" as const, scale: positionScale(axis), axis: bottom ? { title: axis.title, ...tickFormat(axis) } : { title: null, labels: false } };
   const y = { field: "d", type: "quantitative" as const, scale: { domain: [0, 1.12 * (peak > 0 ? peak : 1)], nice: false }, axis: null };
   const band = (part: "95%" | "68%", color: string): LayerMember => ({
     transform: [{ filter: { field: "part", equal: part } }],
@@ -224,8 +229,8 @@ function pairCell(
     }
   }
   datasets[name] = rows;
-  const x = { field: "x", type: "quantitative" as const, scale: positionScale(xAxis), axis: bottom ? { title: xAxis.title, format: "~g" } : { title: null, labels: false } };
-  const y = { field: "y", type: "quantitative" as const, scale: positionScale(yAxis), axis: left ? { title: yAxis.title, format: "~g" } : { title: null, labels: false } };
+  const x = { field: "x", type: "quantitative" as const, scale: positionScale(xAxis), axis: bottom ? { title: xAxis.title, ...tickFormat(xAxis) } : { title: null, labels: false } };
+  const y = { field: "y", type: "quantitative" as const, scale: positionScale(yAxis), axis: left ? { title: yAxis.title, ...tickFormat(yAxis) } : { title: null, labels: false } };
   return {
     width: size,
     height: size,
