@@ -66,7 +66,7 @@ describe("horologium batch", () => {
       [["batch", "lanternfield", "--model", "drw"], /--out is required/],
       [["batch", "lanternfield", "--model", "drw", "--out", "x.txt"], /must end in \.csv or \.parquet/],
       [["batch", "lanternfield", "--model", "drw", "--out", "x.csv", "--shard", "3/3"], /K runs from 0 to N-1/],
-      [["batch", "lanternfield", "--model", "drw", "--out", "x.csv", "--frobnicate"], /Unknown option '--frobnicate'/],
+      [["batch", "lanternfield", "--model", "drw", "--out", "x.csv", "--frobnicate"], /unknown option --frobnicate/],
       [["batch", "nowhere", "--model", "drw", "--out", "x.csv"], /nowhere: no such file or folder/],
       [["batch", "lanternfield/lf-000.csv", "--model", "drw", "--out", "x.csv"], /is a file: name its object-id column with --id-col/],
       [["batch", "lanternfield", ...fitArgs.slice(0, 4), "--fit-module", "missing.mjs", "--out", "x.csv"], /cannot load the fit module/],
