@@ -2,6 +2,7 @@ import { FactorizationError } from "../linalg/factorization-error.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { projectState } from "../linalg/state-update.js";
 import { TransitionLayout } from "../linalg/transition-layout.js";
+import { LOG_TWO_PI } from "../numerics/gaussian-constants.js";
 
 /** The sums a multi-band likelihood with its band means integrated out needs. */
 export interface BandMeanSums {
@@ -99,7 +100,6 @@ export interface BandMeanMarginal {
   readonly precisionFactor: Float64Array;
 }
 
-const LOG_TWO_PI = Math.log(2 * Math.PI);
 
 /**
  * Integrates the band means m ~ N(m0, diag(s^2)) out of y = X m + a f + noise (X the band indicators),

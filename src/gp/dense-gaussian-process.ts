@@ -2,6 +2,7 @@ import { Matrix } from "ml-matrix";
 import type { Kernel } from "../kernels/kernel.js";
 import { DenseCholesky } from "../linalg/dense-cholesky.js";
 import { formCovarianceDerivatives } from "../linalg/semiseparable-form.js";
+import { HALF_LOG_TWO_PI } from "../numerics/gaussian-constants.js";
 import type { Rng } from "../random/rng.js";
 import {
   conditionInputs,
@@ -13,7 +14,6 @@ import {
 import { DenseConditionedProcess } from "./dense-conditioned-process.js";
 import { DRAW_JITTER } from "./semiseparable-prior-draw.js";
 
-const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
 
 /**
  * The same interface as `GaussianProcess`, on dense O(N^3) linear algebra (ml-matrix Cholesky), for any

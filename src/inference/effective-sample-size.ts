@@ -1,5 +1,6 @@
 import { autocovariances } from "./autocorrelation.js";
-import { pooled, sortedCopy, sortedQuantile } from "./sample-quantile.js";
+import { sortedCopy, sortedQuantile } from "../numerics/order-statistics.js";
+import { pooledChains } from "../numerics/pooled-chains.js";
 import { rankNormalize, splitChains } from "./rank-normalization.js";
 import { varianceComponents } from "./split-rhat.js";
 
@@ -49,7 +50,7 @@ export function bulkEffectiveSampleSize(chains: readonly ArrayLike<number>[]): n
  */
 export function tailEffectiveSampleSize(chains: readonly ArrayLike<number>[]): number {
   const split = splitChains(chains);
-  const sorted = sortedCopy(pooled(split));
+  const sorted = sortedCopy(pooledChains(split));
   const q05 = sortedQuantile(sorted, 0.05);
   const q95 = sortedQuantile(sorted, 0.95);
   const lower = split.map((c) => Float64Array.from(c, (x) => (x <= q05 ? 1 : 0)));

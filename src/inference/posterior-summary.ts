@@ -1,5 +1,5 @@
 import { highestDensityInterval } from "./highest-density-interval.js";
-import { sortedCopy, sortedQuantile } from "./sample-quantile.js";
+import { sortedCopy, sortedQuantile } from "../numerics/order-statistics.js";
 
 /**
  * Posterior summary of one scalar: the keys every result of a fit carries for each parameter

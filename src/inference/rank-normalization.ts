@@ -1,5 +1,6 @@
 import { normalQuantile } from "./distribution-functions.js";
-import { pooled, sortedCopy, sortedQuantile } from "./sample-quantile.js";
+import { sortedCopy, sortedQuantile } from "../numerics/order-statistics.js";
+import { pooledChains } from "../numerics/pooled-chains.js";
 
 /**
  * Splits each chain into its first and second half, doubling the number of chains; with an odd
@@ -28,7 +29,7 @@ export function splitChains(chains: readonly ArrayLike<number>[]): Float64Array[
  * (Vehtari et al. 2021, Bayesian Analysis 16, 667, eq. 14; the offsets are Blom's 1958).
  */
 export function rankNormalize(chains: readonly ArrayLike<number>[]): Float64Array[] {
-  const sorted = sortedCopy(pooled(chains));
+  const sorted = sortedCopy(pooledChains(chains));
   const total = sorted.length;
   // The normal score of each run of equal sorted values [a, b): average rank (a + 1 + b) / 2, computed
   // once per run (ensemble draws repeat whenever a move is rejected).
@@ -64,6 +65,6 @@ function firstAtOrAbove(sorted: Float64Array, x: number): number {
  * judge the spread and tails rather than the location (Vehtari et al. 2021, sec. 4.1).
  */
 export function foldAboutMedian(chains: readonly ArrayLike<number>[]): Float64Array[] {
-  const median = sortedQuantile(sortedCopy(pooled(chains)), 0.5);
+  const median = sortedQuantile(sortedCopy(pooledChains(chains)), 0.5);
   return chains.map((chain) => Float64Array.from(chain as ArrayLike<number>, (x) => Math.abs(x - median)));
 }

@@ -1,3 +1,5 @@
+import { sortedCopy, sortedQuantile } from "../numerics/order-statistics.js";
+
 /** What a warm-up iteration should do. */
 export interface WarmupPlan {
   /** Iterations at whose end the mass matrix is re-estimated from the window just finished. */
@@ -107,11 +109,6 @@ export class WindowSpread {
 
 /** Interquartile range / 1.3490 of `values` (linear interpolation between order statistics). */
 function interquartileScale(values: readonly number[]): number {
-  const sorted = Float64Array.from(values).sort();
-  const at = (p: number): number => {
-    const h = (sorted.length - 1) * p;
-    const lo = Math.floor(h);
-    return sorted[lo]! + (h - lo) * ((sorted[Math.min(lo + 1, sorted.length - 1)] ?? 0) - sorted[lo]!);
-  };
-  return (at(0.75) - at(0.25)) / 1.349;
+  const sorted = sortedCopy(values);
+  return (sortedQuantile(sorted, 0.75) - sortedQuantile(sorted, 0.25)) / 1.349;
 }

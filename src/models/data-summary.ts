@@ -1,3 +1,4 @@
+import { medianOf } from "../numerics/order-statistics.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { visitSpacing } from "../periodogram/frequency-grid.js";
 
@@ -56,12 +57,4 @@ export function summarizeLightCurve(lightCurve: LightCurve): DataSummary {
     medianError,
     hasErrors: error !== undefined,
   };
-}
-
-/** The median of a list (the mean of the two middle values for an even count); NaN for none. */
-export function medianOf(values: ArrayLike<number>): number {
-  if (values.length === 0) return NaN;
-  const sorted = Float64Array.from(values).sort();
-  const mid = sorted.length >> 1;
-  return sorted.length % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
 }

@@ -1,15 +1,6 @@
 import type { PosteriorDraws } from "../inference/index.js";
+import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 
-/**
- * Indices of `count` items spread evenly over `0..length-1` (at most `length`): k * length / count,
- * rounded down, so the first item is always kept.
- */
-export function evenlySpacedIndices(length: number, count: number): Int32Array {
-  const n = Math.max(0, Math.min(length, count));
-  const picks = new Int32Array(n);
-  for (let k = 0; k < n; k++) picks[k] = Math.floor((k * length) / n);
-  return picks;
-}
 
 /**
  * The pooling stage of a fit: the draws of several runs (one per period mode) in one set, each run

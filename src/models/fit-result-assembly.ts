@@ -3,7 +3,7 @@ import type { PosteriorDraws } from "../inference/index.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
 import type { DataSummary } from "./data-summary.js";
 import type { FitOptions } from "./fit-options.js";
-import { evenlySpacedIndices } from "./fit-pooling.js";
+import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { RESULT_FORMAT_VERSION, type FitDiagnostics, type FitResult, type RobustNoiseSummary, type StoredPosteriorSample } from "./fit-result.js";
 import type { PosteriorSummaries } from "./fit-summaries.js";
 import { fitWarnings } from "./fit-warnings.js";
@@ -125,7 +125,7 @@ function outlierWarnings(lightCurve: LightCurve): string[] {
 
 /** At most `count` draws spread evenly over the pooled draws, for predictions and reports from the JSON. */
 export function thinnedSample(draws: PosteriorDraws, count: number): StoredPosteriorSample {
-  const picks = Array.from(evenlySpacedIndices(draws.chain.length, count));
+  const picks = evenlySpacedIndices(draws.chain.length, count);
   return {
     names: draws.names,
     chain: picks.map((i) => draws.chain[i]),

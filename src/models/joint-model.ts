@@ -11,7 +11,8 @@ import {
 import type { Kernel } from "../kernels/index.js";
 import { FactorizationError } from "../linalg/factorization-error.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
-import { medianOf, summarizeLightCurve, type DataSummary } from "./data-summary.js";
+import { medianOf } from "../numerics/order-statistics.js";
+import { summarizeLightCurve, type DataSummary } from "./data-summary.js";
 import { buildModel, type ModelName, type ModelStructure } from "./light-curve-model.js";
 
 /** Options that shape a joint multi-band model. */

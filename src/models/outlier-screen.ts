@@ -1,3 +1,4 @@
+import { sortedQuantile } from "../numerics/order-statistics.js";
 import { normalQuantile } from "../inference/distribution-functions.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 
@@ -51,8 +52,5 @@ export function grossOutliers(lightCurve: LightCurve): number[] {
 }
 
 function medianInPlace(values: Float64Array): number {
-  if (values.length === 0) return NaN;
-  values.sort();
-  const mid = values.length >> 1;
-  return values.length % 2 ? values[mid] : 0.5 * (values[mid - 1] + values[mid]);
+  return sortedQuantile(values.sort(), 0.5);
 }

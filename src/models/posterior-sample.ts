@@ -13,9 +13,3 @@ export function storedPosteriorSample(result: FitResult, expectedNames: readonly
     if (!row.every(Number.isFinite)) throw new RangeError(`posteriorSample row ${k} holds a value that is not a finite number`);
   return sample;
 }
-
-/** At most `count` items spread evenly over a list (every chain of a chain-ordered sample gets its share). */
-export function evenlySpacedItems<T>(items: readonly T[], count: number): T[] {
-  const n = Math.min(items.length, count);
-  return Array.from({ length: n }, (_, k) => items[Math.floor((k * items.length) / n)]);
-}

@@ -1,4 +1,4 @@
-import { logGamma } from "./log-gamma.js";
+import { logGamma } from "../numerics/log-gamma.js";
 import { normalisedWeights, weightedMeanTime, type SampledSeries } from "./time-series.js";
 
 /**

@@ -1,3 +1,4 @@
+import { medianOf, sortedQuantile } from "../numerics/order-statistics.js";
 import type { SampledSeries } from "./time-series.js";
 
 /**
@@ -87,11 +88,11 @@ export function gridFrequencies(grid: FrequencyGrid): Float64Array {
 export function visitSpacing(spacings: Float64Array, meanSpacing: number): number {
   let count = 0;
   for (let i = 0; i < spacings.length; i++) if (spacings[i] >= 0.1 * meanSpacing) count++;
-  if (count === 0) return medianOfSorted(Float64Array.from(spacings).sort());
+  if (count === 0) return medianOf(spacings);
   const kept = new Float64Array(count);
   let k = 0;
   for (let i = 0; i < spacings.length; i++) if (spacings[i] >= 0.1 * meanSpacing) kept[k++] = spacings[i];
-  return medianOfSorted(kept.sort());
+  return sortedQuantile(kept.sort(), 0.5);
 }
 
 /**
@@ -115,14 +116,9 @@ function distinctSpacings(sortedTimes: ArrayLike<number>): Float64Array {
   return gaps.subarray(0, count);
 }
 
-function medianOfSorted(sorted: Float64Array): number {
-  const mid = sorted.length >> 1;
-  return sorted.length % 2 ? sorted[mid] : 0.5 * (sorted[mid - 1] + sorted[mid]);
-}
-
 /** Median spacing between consecutive distinct times of a sorted array. */
 export function medianSpacing(sortedTimes: ArrayLike<number>): number {
   const gaps = distinctSpacings(sortedTimes);
   if (gaps.length === 0) throw new RangeError("no two distinct times");
-  return medianOfSorted(gaps.sort());
+  return sortedQuantile(gaps.sort(), 0.5);
 }

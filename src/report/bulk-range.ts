@@ -1,4 +1,4 @@
-import { quantileSorted } from "./quantile.js";
+import { sortedQuantile } from "../numerics/order-statistics.js";
 
 /** The central fraction of the values an axis must show; the rest may lie beyond its edges. */
 const BULK_MASS = 0.99;
@@ -15,8 +15,8 @@ export function bulkRange(values: ArrayLike<number>, alsoShow: ArrayLike<number>
   const finite = Float64Array.from(Array.prototype.filter.call(values, Number.isFinite) as number[]).sort();
   if (finite.length === 0) return [0, 1];
   const tail = (1 - BULK_MASS) / 2;
-  let low = quantileSorted(finite, tail);
-  let high = quantileSorted(finite, 1 - tail);
+  let low = sortedQuantile(finite, tail);
+  let high = sortedQuantile(finite, 1 - tail);
   const span = high - low;
   low -= MARGIN * span;
   high += MARGIN * span;

@@ -1,11 +1,11 @@
 import type { TopLevelSpec } from "vega-lite";
 import { credibleRegions } from "./credible-regions.js";
-import { evenIndices } from "./even-thinning.js";
+import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
 import { kernelDensity } from "./marginal-density.js";
 import { parameterDisplay } from "./parameter-display.js";
 import { pooledDraws } from "./pooled-draws.js";
-import { quantileSorted } from "./quantile.js";
+import { sortedQuantile } from "../numerics/order-statistics.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
 import type { DataRows, LayerMember, ViewSpec } from "./vega-lite-types.js";
@@ -90,13 +90,13 @@ export function cornerFigure(input: ReportInput): ReportFigure {
 function pairAxis(input: ReportInput, name: string): PairAxis {
   const display = parameterDisplay(input, name);
   const pooled = pooledDraws(input.draws, name);
-  const thinned = Float64Array.from(evenIndices(pooled.length, MAX_DRAWS), (i) => pooled[i]!);
+  const thinned = Float64Array.from(evenlySpacedIndices(pooled.length, MAX_DRAWS), (i) => pooled[i]!);
   const log = display.logScale === true;
   const sorted = Float64Array.from(thinned).sort();
   const tail = (1 - AXIS_MASS) / 2;
-  const extent = padDegenerate(quantileSorted(sorted, tail), quantileSorted(sorted, 1 - tail), log);
+  const extent = padDegenerate(sortedQuantile(sorted, tail), sortedQuantile(sorted, 1 - tail), log);
   const summary = input.result.parameters[name];
-  const q = (p: number) => quantileSorted(sorted, p);
+  const q = (p: number) => sortedQuantile(sorted, p);
   const quantiles: PairAxis["quantiles"] = summary
     ? [summary["q2.5"], summary.q16, summary.median, summary.q84, summary["q97.5"]]
     : [q(0.025), q(0.16), q(0.5), q(0.84), q(0.975)];

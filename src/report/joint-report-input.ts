@@ -1,6 +1,7 @@
 import type { DetailedJointFit } from "../models/fit-joint.js";
 import { jointPredictive } from "../models/joint-predictive.js";
-import { evenlySpacedItems, storedPosteriorSample } from "../models/posterior-sample.js";
+import { evenlySpacedItems } from "../numerics/even-thinning.js";
+import { storedPosteriorSample } from "../models/posterior-sample.js";
 import { reportInputFromDraws, type ReportSizes } from "./report-from-fit.js";
 import type { BandPanel, ReportInput } from "./report-input.js";
 

@@ -1,6 +1,7 @@
+import { medianOf } from "../numerics/order-statistics.js";
 import type { TopLevelSpec } from "vega-lite";
 import { bulkRange } from "./bulk-range.js";
-import { evenIndices } from "./even-thinning.js";
+import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
 import { formatSignificant } from "./format-measurement.js";
 import { timeUnitOf, valueUnitOf } from "./parameter-display.js";
@@ -43,7 +44,7 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
   const valueUnit = valueUnitOf(input);
   const offset = timeOffset(lightCurve.time.length > 0 ? lightCurve.time : prediction.time);
   const n = lightCurve.time.length;
-  const drawn = evenIndices(n, MAX_POINTS_DRAWN);
+  const drawn = evenlySpacedIndices(n, MAX_POINTS_DRAWN);
   const withErrors = lightCurve.error !== undefined && n <= MAX_POINTS_WITH_ERROR_BARS;
 
   const outlierProbability = input.result.robust?.outlierProbability;
@@ -66,7 +67,7 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
     if (beyond) beyondRows.push({ t: lightCurve.time[i]! - offset, y: clamp(y), side: (y > domain[1]) !== (lightCurve.unit === "mag") ? "up" : "down" });
     else if (flagged(i)) outlierRows.push({ t: lightCurve.time[i]! - offset, y });
   }
-  const gridRows = evenIndices(prediction.time.length, MAX_GRID_DRAWN).map((i) => {
+  const gridRows = evenlySpacedIndices(prediction.time.length, MAX_GRID_DRAWN).map((i) => {
     const m = prediction.mean[i]!;
     const s = prediction.sd[i]!;
     return {
@@ -179,7 +180,7 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
       ? "The file gives no errors, so a white-noise term was fitted and no error bars are drawn."
       : withErrors
         ? "Bars are the 1σ measurement errors."
-        : `Error bars are left out above ${MAX_POINTS_WITH_ERROR_BARS} points; the median 1σ error is ${formatSignificant(medianError(lightCurve.error), 2)} ${valueUnit}.`;
+        : `Error bars are left out above ${MAX_POINTS_WITH_ERROR_BARS} points; the median 1σ error is ${formatSignificant(medianOf(lightCurve.error), 2)} ${valueUnit}.`;
   const thinNote = drawn.length < n ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn (every flagged or off-axis point is).` : "";
   const outlierNote =
     outlierRows.length > 0
@@ -199,10 +200,4 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
       `observations.${thinNote}${outlierNote}${beyondNote}${offsetNote}`,
     spec,
   };
-}
-
-function medianError(error: Float64Array): number {
-  const sorted = Float64Array.from(error).sort();
-  const mid = sorted.length >> 1;
-  return sorted.length % 2 === 1 ? sorted[mid]! : 0.5 * (sorted[mid - 1]! + sorted[mid]!);
 }

@@ -1,4 +1,4 @@
-import { quantileSorted } from "./quantile.js";
+import { sortedQuantile } from "../numerics/order-statistics.js";
 
 /** A one-dimensional density on an even grid. */
 export interface DensityCurve {
@@ -26,7 +26,7 @@ export function kernelDensity(values: ArrayLike<number>, low: number, high: numb
   let square = 0;
   for (let i = 0; i < n; i++) square += (sorted[i]! - mean) ** 2;
   const sd = Math.sqrt(square / Math.max(1, n - 1));
-  const iqr = quantileSorted(sorted, 0.75) - quantileSorted(sorted, 0.25);
+  const iqr = sortedQuantile(sorted, 0.75) - sortedQuantile(sorted, 0.25);
   const spread = iqr > 0 ? Math.min(sd, iqr / 1.34) : sd;
   const h = 0.9 * spread * Math.pow(n, -0.2);
   if (!(h > 0)) {

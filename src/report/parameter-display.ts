@@ -1,6 +1,6 @@
 import type { ParameterDisplay, ReportInput } from "./report-input.js";
 import { pooledDraws } from "./pooled-draws.js";
-import { quantileSorted } from "./quantile.js";
+import { sortedQuantile } from "../numerics/order-statistics.js";
 
 /** Which kind of unit a parameter carries, so a default unit can be filled in from the data. */
 type UnitKind = "time" | "value" | "none";
@@ -83,7 +83,7 @@ function spansDecades(input: ReportInput, name: string): boolean {
   if (input.draws.chains[name] === undefined) return false;
   const sorted = pooledDraws(input.draws, name).sort();
   if (sorted.length === 0 || sorted[0]! <= 0) return false;
-  const low = quantileSorted(sorted, 0.005);
-  const high = quantileSorted(sorted, 0.995);
+  const low = sortedQuantile(sorted, 0.005);
+  const high = sortedQuantile(sorted, 0.995);
   return high / low > LOG_AXIS_SPAN;
 }

@@ -1,12 +1,12 @@
 import type { TopLevelSpec } from "vega-lite";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { bulkRange } from "./bulk-range.js";
-import { evenIndices } from "./even-thinning.js";
+import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
 import { formatSignificant } from "./format-measurement.js";
 import { lightCurveFigure } from "./light-curve-figure.js";
 import { timeUnitOf } from "./parameter-display.js";
-import { quantileSorted } from "./quantile.js";
+import { sortedQuantile } from "../numerics/order-statistics.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
 
@@ -30,7 +30,7 @@ export function phaseFigure(input: ReportInput): ReportFigure | undefined {
   const { lightCurve } = input;
   const t0 = lightCurve.time[0]!;
   const phase = (t: number) => (((t - t0) / P) % 1 + 1) % 1;
-  const drawn = evenIndices(lightCurve.time.length, MAX_POINTS_DRAWN);
+  const drawn = evenlySpacedIndices(lightCurve.time.length, MAX_POINTS_DRAWN);
   const points = drawn.flatMap((i) => {
     const p = phase(lightCurve.time[i]!);
     return [{ phase: p, y: lightCurve.value[i]! }, { phase: p + 1, y: lightCurve.value[i]! }];
@@ -42,7 +42,7 @@ export function phaseFigure(input: ReportInput): ReportFigure | undefined {
   const model = binned.flatMap((values, b) => {
     if (values.length < 3) return [];
     const sorted = Float64Array.from(values).sort();
-    const row = { m: quantileSorted(sorted, 0.5), lo: quantileSorted(sorted, 0.16), hi: quantileSorted(sorted, 0.84) };
+    const row = { m: sortedQuantile(sorted, 0.5), lo: sortedQuantile(sorted, 0.16), hi: sortedQuantile(sorted, 0.84) };
     const centre = (b + 0.5) / PHASE_BINS;
     return [{ phase: centre, ...row }, { phase: centre + 1, ...row }];
   });

@@ -3,7 +3,9 @@ import type { FitResult } from "../models/fit-result.js";
 import type { LightCurveModel } from "../models/light-curve-model.js";
 import type { Kernel } from "../kernels/index.js";
 import { posteriorPredictive, type PredictiveCurve } from "../models/posterior-predictive.js";
-import { evenlySpacedItems, storedPosteriorSample } from "../models/posterior-sample.js";
+import { evenlySpacedItems } from "../numerics/even-thinning.js";
+import { storedPosteriorSample } from "../models/posterior-sample.js";
+import { quantileOf } from "../numerics/order-statistics.js";
 import { computePeriodogram } from "../periodogram/periodogram.js";
 import type { ReportInput } from "./report-input.js";
 
@@ -76,7 +78,7 @@ export function reportInputFromDraws(lightCurve: LightCurve, result: FitResult, 
   const fHigh = 1 / (2 * smallest);
   const frequencies = Float64Array.from({ length: 200 }, (_, i) => fLow * Math.pow(fHigh / fLow, i / 199));
   const spectra = used.map((row) => model.kernelAt(row).psd(frequencies.map((f) => 2 * Math.PI * f)));
-  const band = (q: number) => frequencies.map((_, i) => quantile(spectra.map((s) => s[i]), q));
+  const band = (q: number) => frequencies.map((_, i) => quantileOf(spectra.map((s) => s[i]), q));
   const period = result.parameters["period"]?.median;
   const periodic = period !== undefined && period > 0 ? periodicCurves(lightCurve, period, (grid) => model.predict(used, grid)) : undefined;
   return {
@@ -115,12 +117,4 @@ function periodicCurves(lightCurve: LightCurve, period: number, predict: (grid: 
   }
   const zoomGrid = Float64Array.from({ length: ZOOM_POINTS }, (_, i) => bestStart + (width * i) / (ZOOM_POINTS - 1));
   return { atData: predict(Float64Array.from(thinned)), zoom: predict(zoomGrid) };
-}
-
-function quantile(values: number[], q: number): number {
-  const sorted = [...values].sort((a, b) => a - b);
-  const position = q * (sorted.length - 1);
-  const lo = Math.floor(position);
-  const hi = Math.ceil(position);
-  return sorted[lo] + (sorted[hi] - sorted[lo]) * (position - lo);
 }

@@ -1,9 +1,9 @@
 import type { TopLevelSpec } from "vega-lite";
-import { evenIndices } from "./even-thinning.js";
+import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
 import { formatSignificant } from "./format-measurement.js";
 import { timeUnitOf, valueUnitOf } from "./parameter-display.js";
-import { quantileSorted } from "./quantile.js";
+import { sortedQuantile } from "../numerics/order-statistics.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
 import type { DataRows, LayeredView, LayerMember } from "./vega-lite-types.js";
@@ -95,7 +95,7 @@ function spectrumRows(input: ReportInput): SpectrumRows {
   let fMin = Infinity;
   let fMax = -Infinity;
   if (psdBand !== undefined) {
-    const psd = evenIndices(psdBand.frequency.length, MAX_FREQUENCIES)
+    const psd = evenlySpacedIndices(psdBand.frequency.length, MAX_FREQUENCIES)
       .map((i) => ({ f: psdBand.frequency[i]!, m: psdBand.median[i]!, lo: psdBand.lower[i]!, hi: psdBand.upper[i]! }))
       .filter((r) => r.f > 0 && r.m > 0 && r.lo > 0 && r.hi > 0);
     for (const r of psd) (fMin = Math.min(fMin, r.f)), (fMax = Math.max(fMax, r.f));
@@ -104,12 +104,12 @@ function spectrumRows(input: ReportInput): SpectrumRows {
   let powerDomain: [number, number] = [1, 1];
   let periodogramDomain: [number, number] = [1, 1];
   if (periodogram !== undefined) {
-    const power = evenIndices(periodogram.frequency.length, MAX_FREQUENCIES)
+    const power = evenlySpacedIndices(periodogram.frequency.length, MAX_FREQUENCIES)
       .map((i) => ({ f: periodogram.frequency[i]!, period: 1 / periodogram.frequency[i]!, p: periodogram.power[i]! }))
       .filter((r) => r.f > 0 && r.p > 0);
     const sorted = Float64Array.from(power, (r) => r.p).sort();
     // Headroom above the highest peak, so it is not flattened against the frame.
-    powerDomain = [quantileSorted(sorted, POWER_FLOOR_QUANTILE), 1.5 * quantileSorted(sorted, 1)];
+    powerDomain = [sortedQuantile(sorted, POWER_FLOOR_QUANTILE), 1.5 * sortedQuantile(sorted, 1)];
     let low = Infinity;
     let high = -Infinity;
     for (const r of power) (low = Math.min(low, r.f)), (high = Math.max(high, r.f));

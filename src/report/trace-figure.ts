@@ -1,5 +1,5 @@
 import type { TopLevelSpec } from "vega-lite";
-import { evenIndices } from "./even-thinning.js";
+import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
 import { parameterAxisTitle, parameterDisplay } from "./parameter-display.js";
 import type { ReportFigure } from "./report-figure.js";
@@ -20,7 +20,7 @@ export function traceFigure(input: ReportInput): ReportFigure {
   const chainCount = input.draws.chains[names[0]!]!.length;
   const steps = input.draws.chains[names[0]!]![0]?.length ?? 0;
   const perChain = Math.max(50, Math.floor(MAX_POINTS_PER_PARAMETER / Math.max(1, chainCount)));
-  const keptSteps = evenIndices(steps, perChain);
+  const keptSteps = evenlySpacedIndices(steps, perChain);
   const coloured = chainCount <= MAX_COLOURED_CHAINS;
 
   const datasets: Record<string, unknown[]> = {};

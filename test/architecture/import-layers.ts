@@ -5,10 +5,10 @@ import ts from "typescript";
 /**
  * The layer order of src/ (docs/architecture.md, "Layers"), lowest first. A file may import files of its own
  * layer and of the layers below it, never above. The ground floor (errors, random, version, ambient types)
- * holds what every layer may need.
+ * holds what every layer may need (numerics: the shared sample arithmetic, quantiles, thinning, constants).
  */
 export const LAYER_ORDER: readonly (readonly string[])[] = [
-  ["errors", "random", "types", "version.ts"],
+  ["errors", "numerics", "random", "types", "version.ts"],
   ["lightcurve"],
   ["linalg"],
   ["kernels"],
@@ -27,7 +27,7 @@ export const LAYER_ORDER: readonly (readonly string[])[] = [
  * Layers that bundle for the browser: neither they nor anything they import (transitively) may import a
  * Node built-in module or one of {@link NODE_ONLY_PACKAGES}.
  */
-export const BROWSER_SAFE_LAYERS: readonly string[] = ["linalg", "kernels", "gp", "inference", "models", "periodogram", "index.ts", "browser.ts"];
+export const BROWSER_SAFE_LAYERS: readonly string[] = ["numerics", "linalg", "kernels", "gp", "inference", "models", "periodogram", "index.ts", "browser.ts"];
 
 /** Where the verbs of the command line live: `cli/verbs/<verb>.ts` or `cli/verbs/<verb>/...`. */
 const VERBS_FOLDER = "src/cli/verbs/";

@@ -3,7 +3,7 @@ import exponentialQuantile from "@stdlib/stats/base/dists/exponential/quantile";
 import normalQuantile from "@stdlib/stats/base/dists/normal/quantile";
 import { highestDensityInterval } from "../../src/inference/highest-density-interval.js";
 import { summarizeDraws } from "../../src/inference/posterior-summary.js";
-import { sortedQuantile } from "../../src/inference/sample-quantile.js";
+import { sortedQuantile } from "../../src/numerics/order-statistics.js";
 
 /** n evenly spread probability points (i - 1/2)/n mapped through a quantile function: a "perfect" sample. */
 const grid = (n: number, quantile: (p: number) => number): Float64Array =>

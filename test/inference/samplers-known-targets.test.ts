@@ -4,7 +4,8 @@ import { effectiveSampleSize } from "../../src/inference/effective-sample-size.j
 import { countEvaluations } from "../../src/inference/evaluation-counter.js";
 import { createNutsSampler } from "../../src/inference/nuts-sampler.js";
 import { runSampler, type SamplerRun } from "../../src/inference/run-sampler.js";
-import { sortedCopy, pooled, sortedQuantile } from "../../src/inference/sample-quantile.js";
+import { sortedCopy, sortedQuantile } from "../../src/numerics/order-statistics.js";
+import { pooledChains as pooled } from "../../src/numerics/pooled-chains.js";
 import { createWalkerEnsemble, defaultWalkerCount } from "../../src/inference/walker-ensemble.js";
 import { banana, correlatedGaussian, twoModeMixture, type KnownTarget } from "./helpers/known-targets.js";
 

@@ -10,7 +10,6 @@ import {
 } from "../../src/periodogram/false-alarm-probability.js";
 import { automaticFrequencyGrid } from "../../src/periodogram/frequency-grid.js";
 import { glsPower, glsPowerAt } from "../../src/periodogram/generalised-lomb-scargle.js";
-import { logGamma } from "../../src/periodogram/log-gamma.js";
 import { childSeed, createRng, type Rng } from "../../src/random/rng.js";
 
 function noiseSeries(rng: Rng, n: number, signal = 0, equalErrors = false) {
@@ -24,21 +23,6 @@ function noiseSeries(rng: Rng, n: number, signal = 0, equalErrors = false) {
   for (let i = 0; i < n; i++) value[i] = 3 + signal * Math.sin(2 * Math.PI * 0.21 * time[i]) + error[i] * rng.normal();
   return { time, value, error };
 }
-
-describe("log Gamma (Lanczos approximation)", () => {
-  it("matches exact factorials and Gamma(1/2) = sqrt(pi)", () => {
-    // Gamma(n) = (n - 1)!; Gamma(1/2) = sqrt(pi); Gamma(n + 1/2) = (2n)! sqrt(pi) / (4^n n!) (Abramowitz & Stegun 6.1.12).
-    let factorial = 1;
-    for (let n = 1; n <= 25; n++) {
-      expect(logGamma(n)).toBeCloseTo(Math.log(factorial), 10);
-      factorial *= n;
-    }
-    expect(logGamma(0.5)).toBeCloseTo(0.5 * Math.log(Math.PI), 13);
-    expect(logGamma(3.5)).toBeCloseTo(Math.log((720 * Math.sqrt(Math.PI)) / (64 * 6)), 13);
-    expect(logGamma(0.1)).toBeCloseTo(Math.log(9.513507698668732), 12); // Gamma(0.1), from memory
-    expect(() => logGamma(0)).toThrow(RangeError);
-  });
-});
 
 describe("single-frequency false-alarm probability", () => {
   it("matches the Beta(1, (N - 3) / 2) law of the power for Gaussian noise (KS test, @stdlib/stats)", () => {

@@ -3,7 +3,7 @@ import { fileURLToPath } from "node:url";
 import { dirname, join, resolve } from "node:path";
 import { readLightCurves } from "../../lightcurve/read-light-curves.js";
 import { posteriorPredictive } from "../../models/posterior-predictive.js";
-import { evenlySpacedItems } from "../../models/posterior-sample.js";
+import { evenlySpacedItems } from "../../numerics/even-thinning.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { writeReport } from "../../report/write-report.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
