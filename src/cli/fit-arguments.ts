@@ -2,6 +2,7 @@ import { UsageError } from "../errors/usage-error.js";
 import { DEFAULT_SAMPLER, type SamplerKind } from "../inference/index.js";
 import type { FitOptions } from "../models/fit-options.js";
 import { MODEL_NAMES, type ModelName } from "../models/light-curve-model.js";
+import { carmaOrderOf, orderText, parseCarmaOrder, type CarmaOrder } from "../models/carma-model.js";
 import { integerOption, numberOption, seedOption, textOption, type VerbArguments } from "./verb-arguments.js";
 
 /**
@@ -11,6 +12,7 @@ import { integerOption, numberOption, seedOption, textOption, type VerbArguments
  */
 export const FIT_OPTIONS = {
   model: { type: "string" },
+  order: { type: "string" },
   background: { type: "string" },
   seed: { type: "string" },
   redshift: { type: "string" },
@@ -24,7 +26,9 @@ export const FIT_OPTIONS = {
 
 /** The help lines of {@link FIT_OPTIONS}. */
 export const FIT_HELP = `  --model NAME            ${MODEL_NAMES.join(", ")}: drw (quasar timescale), oscillator,
-                          quasi-periodic (stellar rotation)
+                          quasi-periodic (stellar rotation), carma (continuous-time ARMA,
+                          Kelly et al. 2014; needs --order)
+  --order p,q             the CARMA order: p autoregressive roots (1 to 4), q < p moving-average terms
   --background drw        add a slow damped random walk for trends
   --seed N                seed of every random choice, a non-negative integer (default 1):
                           same seed, same result
@@ -54,7 +58,7 @@ export type FitArguments = Omit<FitOptions, "model" | "seed" | "onProgress" | "s
  * 2^53 - 1 (default 1; the per-object seeds of a batch are 48-bit integers, so `fit --seed` reproduces
  * them); `--redshift` a finite number >= 0; `--sampler` nuts or ensemble; `--max-evaluations` a positive
  * integer (exponent notation such as 2e6 allowed); `--min-period` and `--max-period` positive, the first
- * below the second.
+ * below the second; `--order p,q` (q < p <= 4) with `--model carma` only, and required by it.
  */
 export function fitArguments(values: VerbArguments["values"], modelRequired: true): FitArguments & { readonly model: ModelName };
 export function fitArguments(values: VerbArguments["values"], modelRequired: false): FitArguments;
@@ -70,9 +74,11 @@ export function fitArguments(values: VerbArguments["values"], modelRequired: boo
   const redshift = numberOption(values, "redshift");
   if (redshift !== undefined && !(redshift >= 0)) throw new UsageError(`--redshift must be a number >= 0, got "${textOption(values, "redshift")}"`);
   const maxEvaluations = integerOption(values, "max-evaluations", 1);
+  const order = carmaOrderOption(values, model);
   return {
     ...(model !== undefined ? { model: model as ModelName } : {}),
     seed: seedOption(values),
+    ...(order !== undefined ? { order } : {}),
     ...(background !== undefined ? { background: "drw" as const } : {}),
     ...(values.jitter === true ? { jitter: true } : {}),
     ...(values.robust === true ? { robust: true } : {}),
@@ -96,6 +102,7 @@ export function modelName(text: string, option: string): ModelName {
 export function fitArgumentList(choice: FitArguments): string[] {
   const list: string[] = [];
   if (choice.model !== undefined) list.push("--model", choice.model);
+  if (choice.order !== undefined) list.push("--order", orderText(carmaOrderOf(choice.order)));
   list.push("--seed", String(choice.seed));
   if (choice.background !== undefined) list.push("--background", choice.background);
   if (choice.redshift !== undefined) list.push("--redshift", String(choice.redshift));
@@ -106,6 +113,19 @@ export function fitArgumentList(choice: FitArguments): string[] {
   if (choice.minimumPeriod !== undefined) list.push("--min-period", String(choice.minimumPeriod));
   if (choice.maximumPeriod !== undefined) list.push("--max-period", String(choice.maximumPeriod));
   return list;
+}
+
+/** `--order p,q`: required with `--model carma`, refused with any other model. */
+function carmaOrderOption(values: VerbArguments["values"], model: string | undefined): CarmaOrder | undefined {
+  const text = textOption(values, "order");
+  if (model === "carma" && text === undefined) throw new UsageError("--model carma needs --order p,q (q < p <= 4), for example --order 2,1");
+  if (text === undefined) return undefined;
+  if (model !== undefined && model !== "carma") throw new UsageError("--order applies to --model carma only");
+  try {
+    return parseCarmaOrder(text);
+  } catch (error) {
+    throw new UsageError(`--order: ${(error as Error).message}`);
+  }
 }
 
 /** `--min-period` and `--max-period` as positive numbers, the first below the second (either may be absent). */

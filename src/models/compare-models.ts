@@ -5,11 +5,16 @@ import { summarizeLightCurve } from "./data-summary.js";
 import { laplaceLogEvidence } from "./laplace-evidence.js";
 import { periodogramPeriod } from "./fit-period-search.js";
 import { buildModel, modelLikelihood, type ModelName } from "./light-curve-model.js";
+import { MAX_CARMA_ORDER, type CarmaOrder } from "./carma-model.js";
 import { modelPeriodRange, periodRange, type PeriodLimits } from "./period-range.js";
 
 /** One model's standing in a comparison. */
 export interface ModelStanding {
   readonly model: ModelName;
+  /** CARMA only: the order "p,q". */
+  readonly order?: string;
+  /** The model's name as shown: the model, or "carma(p,q)". */
+  readonly label: string;
   /** Laplace-approximated ln evidence (marginal likelihood) of the model. */
   readonly logEvidence: number;
   /** ln L at the maximum a posteriori. */
@@ -46,16 +51,27 @@ export interface ModelComparison {
 export function compareModels(
   lightCurve: LightCurve,
   models: readonly ModelName[],
-  options: { readonly seed: number | string; readonly background?: "drw"; readonly starts?: number; readonly periodLimits?: PeriodLimits },
+  options: {
+    readonly seed: number | string;
+    readonly background?: "drw";
+    readonly starts?: number;
+    readonly periodLimits?: PeriodLimits;
+    /** The CARMA orders compared when `models` holds "carma" (default {@link carmaOrderGrid}). */
+    readonly carmaOrders?: readonly CarmaOrder[];
+  },
 ): ModelComparison {
   const summary = summarizeLightCurve(lightCurve);
   const source = lightCurve.provenance.source;
   const limits = options.periodLimits ?? {};
   const searched = models.some((name) => name !== "drw") ? periodRange(summary, 2, limits, source) : undefined;
   const periodGuess = searched ? periodogramPeriod(lightCurve, searched) : undefined;
-  const standings = models.map((name, k) => {
+  const candidates = models.flatMap((name): { name: ModelName; order: CarmaOrder | undefined }[] =>
+    name === "carma" ? (options.carmaOrders ?? carmaOrderGrid()).map((order) => ({ name, order })) : [{ name, order: undefined }],
+  );
+  const standings = candidates.map(({ name, order }, k) => {
     const range = modelPeriodRange(name, summary, limits, source);
     const model = buildModel(name, summary, {
+      ...(order ? { order } : {}),
       ...(options.background ? { background: options.background } : {}),
       ...(periodGuess !== undefined ? { periodGuess } : {}),
       ...(range ? { periodRange: range } : {}),
@@ -79,6 +95,8 @@ export function compareModels(
     const k2 = model.space.dimension;
     return {
       model: name,
+      ...(order ? { order: `${order.p},${order.q}` } : {}),
+      label: order ? `carma(${order.p},${order.q})` : name,
       logEvidence: evidence.logEvidence,
       logLikelihood,
       bic: k2 * Math.log(summary.n) - 2 * logLikelihood,
@@ -103,15 +121,38 @@ function oscillates(standing: ModelStanding): boolean {
   return standing.model === "quasi-periodic" || (standing.model === "oscillator" && standing.maximum.quality > 0.5);
 }
 
+/** Kass & Raftery 1995's words for 2 ln B. */
+function strengthOf(twoLnB: number): string {
+  return twoLnB > 10 ? "very strong" : twoLnB > 6 ? "strong" : twoLnB > 2 ? "positive" : "not worth more than a bare mention";
+}
+
+/** Every CARMA order (p, q) with 1 <= p <= MAX_CARMA_ORDER and q < p: the grid `compare` searches. */
+export function carmaOrderGrid(): CarmaOrder[] {
+  const grid: CarmaOrder[] = [];
+  for (let p = 1; p <= MAX_CARMA_ORDER; p++) for (let q = 0; q < p; q++) grid.push({ p, q });
+  return grid;
+}
+
+/** Which CARMA order the evidence prefers, and over the runner-up by how much. */
+function carmaVerdict(ranking: readonly ModelStanding[]): string {
+  const orders = ranking.filter((s) => s.model === "carma");
+  if (orders.length < 2) return "";
+  const twoLnB = 2 * (orders[0].logEvidence - orders[1].logEvidence);
+  return ` CARMA order: ${orders[0].label} over ${orders[1].label}, 2 ln B = ${twoLnB.toFixed(1)} (${strengthOf(twoLnB)} evidence).`;
+}
+
 function verdictOf(ranking: readonly ModelStanding[]): string {
+  return periodVerdict(ranking) + carmaVerdict(ranking);
+}
+
+function periodVerdict(ranking: readonly ModelStanding[]): string {
   const best = ranking[0];
   const aperiodic = ranking.find((s) => !oscillates(s));
   const periodic = ranking.find(oscillates);
-  const strength = (twoLnB: number) =>
-    twoLnB > 10 ? "very strong" : twoLnB > 6 ? "strong" : twoLnB > 2 ? "positive" : "not worth more than a bare mention";
-  if (!aperiodic || !periodic) return `${best.model} is preferred.`;
+  const strength = strengthOf;
+  if (!aperiodic || !periodic) return `${best.label} is preferred.`;
   const twoLnB = 2 * Math.abs(periodic.logEvidence - aperiodic.logEvidence);
-  if (!oscillates(best)) return `No period: an aperiodic model (${best.model}) is preferred (2 ln B = ${twoLnB.toFixed(1)}, ${strength(twoLnB)} evidence).`;
+  if (!oscillates(best)) return `No period: an aperiodic model (${best.label}) is preferred (2 ln B = ${twoLnB.toFixed(1)}, ${strength(twoLnB)} evidence).`;
   const period = best.maximum.period;
   return `A period is supported: ${best.model} (period ${period.toPrecision(4)}) over the damped random walk, 2 ln B = ${twoLnB.toFixed(1)} (${strength(twoLnB)} evidence).`;
 }

@@ -45,7 +45,7 @@ export function derivedQuantities(model: ModelName, redshift?: number): DerivedQ
       out.push({ name: "tauRest", description: `rest-frame timescale tau / (1 + ${redshift})`, compute: (v) => v.tau / (1 + redshift) });
   } else if (model === "oscillator") {
     out.push({ name: "coherenceTime", description: "coherence time quality * period / pi", compute: (v) => (v.quality * v.period) / Math.PI });
-  } else {
+  } else if (model === "quasi-periodic") {
     out.push(
       {
         name: "dominantPeriod",

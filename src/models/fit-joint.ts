@@ -10,6 +10,7 @@ import { posteriorSummaries } from "./fit-summaries.js";
 import { fitWarnings } from "./fit-warnings.js";
 import { buildJointModel, jointLikelihood, jointSummary, referenceBandIndex, type JointModel } from "./joint-model.js";
 import { modelPeriodRange } from "./period-range.js";
+import { carmaOrderOf, orderText } from "./carma-model.js";
 import { collapseJointMeans, restoreBandMeans } from "./joint-mean-marginal.js";
 import { jointWarnings } from "./joint-warnings.js";
 import { childSeed, createRng } from "../random/rng.js";
@@ -55,6 +56,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
     ...(options.referenceBand !== undefined ? { referenceBand: options.referenceBand } : {}),
     ...(periodGuess !== undefined ? { periodGuess } : {}),
     ...(range ? { periodRange: range } : {}),
+    ...(options.order !== undefined ? { order: carmaOrderOf(options.order) } : {}),
   });
   const collapsed = (options.sampler ?? DEFAULT_SAMPLER) === "ensemble" ? collapseJointMeans(model, lightCurves) : undefined;
   const space = collapsed?.space ?? model.space;
@@ -127,6 +129,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
       ...(options.background ? { background: options.background } : {}),
       ...(options.redshift !== undefined ? { redshift: options.redshift } : {}),
       ...(options.jitter ? { jitter: true } : {}),
+      ...(options.order !== undefined ? { order: orderText(carmaOrderOf(options.order)) } : {}),
     },
     priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, settings: p.prior.settings }])),
     maximumPosterior,

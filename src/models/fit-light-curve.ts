@@ -17,6 +17,7 @@ import { posteriorSummaries } from "./fit-summaries.js";
 import { buildModel, modelLikelihood, type LightCurveModel } from "./light-curve-model.js";
 import { drawnPeriodModes, type PeriodMode } from "./period-modes.js";
 import { modelPeriodRange } from "./period-range.js";
+import { carmaOrderOf } from "./carma-model.js";
 import type { RobustNoise } from "./robust-noise.js";
 
 /** Everything a fit produces: the result JSON plus the model and draws, for predictions and reports. */
@@ -81,6 +82,7 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     ...(options.jitter ? { jitter: true } : {}),
     ...(periodGuess !== undefined ? { periodGuess } : {}),
     ...(range ? { periodRange: range } : {}),
+    ...(options.order !== undefined ? { order: carmaOrderOf(options.order) } : {}),
   });
   requireEnoughPoints(lightCurve, model);
   const { conditioning, robust } = noiseConditioning(model, lightCurve, options.robust === true);

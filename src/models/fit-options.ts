@@ -1,8 +1,11 @@
+import type { CarmaOrder } from "./carma-model.js";
 import type { CancellationSignal, SamplerKind, SamplerProgress } from "../inference/index.js";
 import type { ModelName } from "./light-curve-model.js";
 
 /** Options of a fit. */
 export interface FitOptions {
+  /** The order of a CARMA model (`model: "carma"`), or its text "p,q" (as batch workers receive it). */
+  readonly order?: CarmaOrder | string;
   readonly model: ModelName;
   /** Seed of every random choice; the same seed gives the same result, bit for bit. */
   readonly seed: number | string;

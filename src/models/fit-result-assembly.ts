@@ -1,3 +1,4 @@
+import { carmaOrderOf, orderText } from "./carma-model.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { PosteriorDraws } from "../inference/index.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
@@ -70,6 +71,7 @@ export function assembleFitResult(parts: ResultParts): FitResult {
       ...(options.redshift !== undefined ? { redshift: options.redshift } : {}),
       ...(model.fitsJitter ? { jitter: true } : {}),
       ...(robust ? { robust: true } : {}),
+      ...(options.order !== undefined ? { order: orderText(carmaOrderOf(options.order)) } : {}),
     },
     ...(robust ? { robust: robustSection(robust) } : {}),
     priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, settings: p.prior.settings }])),

@@ -108,6 +108,8 @@ export interface FitChoices {
   readonly jitter?: boolean;
   /** Student-t noise instead of Gaussian. */
   readonly robust?: boolean;
+  /** The CARMA order "p,q" (`--model carma --order p,q`). */
+  readonly order?: string;
   /** "joint": one shared process fitted to every band (`--bands joint`). */
   readonly bands?: "joint";
   /** Per-band lags were fitted (`--lags`). */

@@ -1,4 +1,5 @@
 import type { LightCurve } from "../lightcurve/light-curve.js";
+import { parseCarmaOrder } from "./carma-model.js";
 import type { FitResult } from "./fit-result.js";
 import { buildJointModel, type JointModel } from "./joint-model.js";
 
@@ -14,5 +15,6 @@ export function jointModelFromResult(result: FitResult, lightCurves: readonly Li
     ...(options.lags ? { lags: true } : {}),
     ...(options.background ? { background: options.background } : {}),
     ...(options.jitter ? { jitter: true } : {}),
+    ...(options.order !== undefined ? { order: parseCarmaOrder(options.order) } : {}),
   });
 }

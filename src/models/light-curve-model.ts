@@ -8,7 +8,7 @@ import {
   type PhysicalLikelihood,
 } from "../inference/index.js";
 import { dampedRandomWalkFamily } from "../kernels/damped-random-walk.js";
-import { familyOfModel, KERNEL_FAMILIES, type AnyKernelFamily, type FamilyParameter, type Kernel, type ModelName } from "../kernels/index.js";
+import { familyOfModel, KERNEL_FAMILIES, type AnyKernelFamily, type FamilyParameter, type Kernel, type ModelName as FamilyModelName } from "../kernels/index.js";
 import { FactorizationError } from "../linalg/factorization-error.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { DataSummary } from "./data-summary.js";
@@ -16,15 +16,22 @@ import type { PeriodRange } from "./period-range.js";
 import { familyTerm, type KernelTerm } from "./kernel-term.js";
 import { guessForKind, priorForKind, type PriorScales } from "./parameter-priors.js";
 
-export type { ModelName } from "../kernels/index.js";
+import { carmaPriors, carmaTerm, type CarmaOrder } from "./carma-model.js";
+
+/**
+ * The models of the trade: one per kernel family that declares one (kernels/families.ts), and CARMA,
+ * whose parameters depend on its order (`ModelStructure.order`, carma-model.ts).
+ */
+export type ModelName = FamilyModelName | "carma";
 
 /**
  * The model names accepted by `fit --model`: one per kernel family that declares a model of the trade
  * (kernels/families.ts), in the families' order.
  */
-export const MODEL_NAMES: readonly ModelName[] = (KERNEL_FAMILIES as readonly AnyKernelFamily[]).flatMap((family) =>
-  family.model ? [family.model.name as ModelName] : [],
-);
+export const MODEL_NAMES: readonly ModelName[] = [
+  ...(KERNEL_FAMILIES as readonly AnyKernelFamily[]).flatMap((family) => (family.model ? [family.model.name as ModelName] : [])),
+  "carma",
+];
 
 /**
  * A model's kernel parameters in the order of its results: the family's parameters with the amplitude last
@@ -36,6 +43,7 @@ function modelOrder(family: AnyKernelFamily): FamilyParameter[] {
 
 /** The parameters of a model without a background or jitter, in the order of its results: its kernel's, then `mean`. */
 export function modelParameterNames(name: ModelName): string[] {
+  if (name === "carma") return ["sigma", "mean"]; // the rest depend on the order
   return [...modelOrder(familyOfModel(name)).map((p) => p.name), "mean"];
 }
 
@@ -52,6 +60,8 @@ export interface ModelStructure {
   readonly periodGuess?: number;
   /** The periods allowed (the period prior's bounds); default from the cadence and baseline ({@link PeriodRange}). */
   readonly periodRange?: PeriodRange;
+  /** The order of a CARMA model (required for "carma"). */
+  readonly order?: CarmaOrder;
 }
 
 /**
@@ -87,22 +97,35 @@ export interface LightCurveModel {
  */
 export function buildModel(name: ModelName, summary: DataSummary, structure: ModelStructure = {}): LightCurveModel {
   if (!MODEL_NAMES.includes(name)) throw new RangeError(`unknown model "${String(name)}" (choose ${MODEL_NAMES.join(", ")})`);
-  const family = familyOfModel(name);
+  const family = name === "carma" ? undefined : familyOfModel(name);
   const { spread, baseline, median } = summary;
   const range = periodSearchRange(summary);
   const scales: PriorScales = {
     summary,
     shortestPeriod: structure.periodRange?.shortest ?? range.shortest,
-    longestPeriod: structure.periodRange?.longest ?? baseline / (family.model?.periodCycles ?? 1),
+    longestPeriod: structure.periodRange?.longest ?? baseline / (family?.model?.periodCycles ?? 1),
     ...(structure.periodGuess !== undefined ? { periodGuess: structure.periodGuess } : {}),
   };
-  const terms: KernelTerm[] = [familyTerm(family)];
+  const terms: KernelTerm[] = [];
   const specs: ParameterSpec[] = [];
   const guess: Record<string, number> = {};
-  for (const parameter of modelOrder(family)) {
-    const prior = priorForKind(parameter.kind, scales);
-    specs.push({ name: parameter.name, prior });
-    guess[parameter.name] = guessForKind(parameter.kind, scales, prior);
+  if (family) {
+    terms.push(familyTerm(family));
+    for (const parameter of modelOrder(family)) {
+      const prior = priorForKind(parameter.kind, scales);
+      specs.push({ name: parameter.name, prior });
+      guess[parameter.name] = guessForKind(parameter.kind, scales, prior);
+    }
+  } else {
+    // CARMA: the parameters follow the order (carma-model.ts); the amplitude as every model's.
+    if (!structure.order) throw new RangeError('the "carma" model needs an order (p, q)');
+    terms.push(carmaTerm(structure.order));
+    const amplitude = priorForKind("amplitude", scales);
+    specs.push({ name: "sigma", prior: amplitude });
+    guess.sigma = guessForKind("amplitude", scales, amplitude);
+    const parts = carmaPriors(structure.order, { shortestPeriod: scales.shortestPeriod, baseline, medianCadence: summary.medianCadence });
+    for (const spec of parts.specs) specs.push(spec);
+    Object.assign(guess, parts.guess);
   }
   const signal = guessForKind("amplitude", scales, priorForKind("amplitude", scales));
   specs.push({ name: "mean", prior: normalPrior(median, 10 * spread) });

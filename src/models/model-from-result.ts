@@ -1,4 +1,5 @@
 import type { LightCurve } from "../lightcurve/light-curve.js";
+import { parseCarmaOrder } from "./carma-model.js";
 import { summarizeLightCurve } from "./data-summary.js";
 import type { FitResult } from "./fit-result.js";
 import { withNoiseWeights } from "./robust-noise.js";
@@ -13,6 +14,7 @@ export function modelFromResult(result: FitResult, lightCurve: LightCurve): Ligh
   return buildModel(result.model, summarizeLightCurve(lightCurve), {
     ...(options.background ? { background: options.background } : {}),
     ...(options.jitter ? { jitter: true } : {}),
+    ...(options.order !== undefined ? { order: parseCarmaOrder(options.order) } : {}),
   });
 }
 

@@ -149,7 +149,9 @@ function choices(f: Fields): FitChoices {
   if (bands !== undefined && bands !== "joint") throw f.wrong("bands", '"joint"');
   const lags = f.optional("lags", (g, key) => g.flag(key));
   const referenceBand = f.optional("referenceBand", (g, key) => g.text(key));
+  const order = f.optional("order", (g, key) => g.text(key));
   return {
+    ...(order !== undefined ? { order } : {}),
     ...(bands !== undefined ? { bands } : {}),
     ...(lags !== undefined ? { lags } : {}),
     ...(referenceBand !== undefined ? { referenceBand } : {}),

@@ -1,5 +1,5 @@
 import { compareModels } from "../../models/compare-models.js";
-import { MODEL_NAMES } from "../../models/light-curve-model.js";
+import type { ModelName } from "../../models/light-curve-model.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { FIT_OPTIONS, fitArguments, modelName } from "../fit-arguments.js";
 import { readInput } from "../read-input.js";
@@ -16,7 +16,9 @@ prefer it. It answers "is there a period at all?": differences are read on the s
 Raftery 1995 (2 ln B > 6 strong, > 10 very strong). The BIC is shown beside it.
 
 Options:
-  --models LIST           comma-separated models (default drw,oscillator,quasi-periodic)
+  --models LIST           comma-separated models (default drw,oscillator,quasi-periodic); "carma"
+                          compares every CARMA order p,q with q < p <= 4 (Kelly et al. 2014) and says
+                          which order the evidence prefers and how strongly
   --background drw        add a damped-random-walk background to every model
   --seed N                seed of the optimiser's random starts (default 1)
   --min-period P, --max-period P   the period range of the periodic models (as for fit)
@@ -27,6 +29,9 @@ ${COLUMN_HELP}
 Example:
   horologium compare demo/lds-v2291-spotted-star.csv --out comparison.json
 `;
+
+/** Models compared when --models is not given (CARMA only when asked: its grid is ten fits). */
+const DEFAULT_COMPARED: readonly ModelName[] = ["drw", "oscillator", "quasi-periodic"];
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
@@ -48,7 +53,7 @@ export const verb: CliVerb = {
     const { values, positionals } = parsed;
     const file = singleInput(positionals);
     const quiet = values.quiet === true;
-    const models = (textOption(values, "models") ?? MODEL_NAMES.join(",")).split(",").map((m) => modelName(m.trim(), "--models"));
+    const models = (textOption(values, "models") ?? DEFAULT_COMPARED.join(",")).split(",").map((m) => modelName(m.trim(), "--models"));
     const { seed, background, minimumPeriod, maximumPeriod } = fitArguments(values, false);
     const periodLimits = { ...(minimumPeriod !== undefined ? { minimumPeriod } : {}), ...(maximumPeriod !== undefined ? { maximumPeriod } : {}) };
     const lightCurves = await readInput(file, values, io, quiet);
@@ -62,7 +67,7 @@ export const verb: CliVerb = {
         io.stdout(`  ${"model".padEnd(16)} ${"ln Z".padStart(11)} ${"delta".padStart(8)} ${"prob".padStart(7)} ${"ln L".padStart(11)} ${"BIC".padStart(11)}\n`);
         for (const s of comparison.ranking)
           io.stdout(
-            `  ${s.model.padEnd(16)} ${s.logEvidence.toFixed(2).padStart(11)} ${s.deltaLogEvidence.toFixed(2).padStart(8)} ${s.probability.toFixed(3).padStart(7)} ${s.logLikelihood.toFixed(2).padStart(11)} ${s.bic.toFixed(2).padStart(11)}\n`,
+            `  ${s.label.padEnd(16)} ${s.logEvidence.toFixed(2).padStart(11)} ${s.deltaLogEvidence.toFixed(2).padStart(8)} ${s.probability.toFixed(3).padStart(7)} ${s.logLikelihood.toFixed(2).padStart(11)} ${s.bic.toFixed(2).padStart(11)}\n`,
           );
         io.stdout(`  ${comparison.verdict}\n`);
       }

@@ -11,7 +11,7 @@ import { readInput } from "../read-input.js";
 import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
-const HELP = `Usage: horologium fit FILE --model drw|oscillator|quasi-periodic [options]
+const HELP = `Usage: horologium fit FILE --model drw|oscillator|quasi-periodic|carma [options]
 
 Fits a Gaussian-process model to a light curve (CSV/TSV, Parquet or FITS binary table) and writes
 the result as JSON: posterior summaries of every parameter, derived quantities, sampler

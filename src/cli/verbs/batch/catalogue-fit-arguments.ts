@@ -1,3 +1,4 @@
+import { carmaOrderOf, orderText } from "../../../models/carma-model.js";
 import { resolve } from "node:path";
 import { pathToFileURL } from "node:url";
 import type { ResultsFormat } from "../../../batch/batch-run.js";
@@ -63,10 +64,13 @@ export function catalogueFitChoice(values: VerbArguments["values"], io: CliIo): 
   };
 }
 
-/** The fit options handed to every object's fit as they are (the model, background and seed go separately). */
+/**
+ * The fit options handed to every object's fit as they are (the model, background and seed go
+ * separately); a CARMA order travels as its text "p,q" and is read back by the worker's fit.
+ */
 export function perObjectFitOptions(fit: FitArguments): Record<string, string | number | boolean> {
-  const { model: _model, background: _background, seed: _seed, ...rest } = fit;
-  return { ...rest };
+  const { model: _model, background: _background, seed: _seed, order, ...rest } = fit;
+  return { ...rest, ...(order !== undefined ? { order: orderText(carmaOrderOf(order)) } : {}) };
 }
 
 /** The format of a results table from its file name. */

@@ -1,0 +1,103 @@
+import { logUniformPrior, uniformPrior, type ParameterSpec } from "../inference/index.js";
+import { kernels } from "../kernels/index.js";
+import type { KernelTerm } from "./kernel-term.js";
+
+/** The order (p, q) of a CARMA model: p autoregressive roots, q < p moving-average coefficients. */
+export interface CarmaOrder {
+  readonly p: number;
+  readonly q: number;
+}
+
+/** Highest autoregressive order offered (`--order`, and the grid of `compare`). */
+export const MAX_CARMA_ORDER = 4;
+
+/**
+ * Reads "p,q" (q < p, 1 <= p <= MAX_CARMA_ORDER), with a RangeError naming what is wrong.
+ *
+ * @example parseCarmaOrder("2,1") // { p: 2, q: 1 }
+ */
+export function parseCarmaOrder(text: string): CarmaOrder {
+  const match = /^\s*(\d+)\s*,\s*(\d+)\s*$/.exec(text);
+  if (!match) throw new RangeError(`the CARMA order must be "p,q" (for example 2,1), got "${text}"`);
+  const p = Number(match[1]);
+  const q = Number(match[2]);
+  if (!(p >= 1 && p <= MAX_CARMA_ORDER)) throw new RangeError(`the CARMA order p must be 1 to ${MAX_CARMA_ORDER}, got ${p}`);
+  if (!(q < p)) throw new RangeError(`the CARMA order needs q < p, got p = ${p}, q = ${q}`);
+  return { p, q };
+}
+
+/** The text "p,q" of an order. */
+export function orderText(order: CarmaOrder): string {
+  return `${order.p},${order.q}`;
+}
+
+/** An order given as {p, q} or as its text "p,q". */
+export function carmaOrderOf(order: CarmaOrder | string): CarmaOrder {
+  return typeof order === "string" ? parseCarmaOrder(order) : order;
+}
+
+/**
+ * The CARMA(p, q) kernel term (Kelly et al. 2014, ApJ 788, 33) in the stationary parameterisation of
+ * `kernels.carma`: floor(p / 2) quadratic factors of the autoregressive polynomial in (period<k>,
+ * quality<k>) and, for odd p, one real root in tau0. A quadratic factor with quality below 1/2 holds two
+ * real roots, so every stationary root configuration (distinct roots) is reachable. Moving-average
+ * coefficients ma1 ... maq of b(s) = 1 + ma1 s + ... + maq s^q.
+ */
+export function carmaTerm(order: CarmaOrder): KernelTerm {
+  const pairs = Math.floor(order.p / 2);
+  const real = order.p % 2;
+  const names = [
+    "sigma",
+    ...Array.from({ length: pairs }, (_, k) => [`period${k}`, `quality${k}`]).flat(),
+    ...Array.from({ length: real }, (_, k) => `tau${k}`),
+    ...Array.from({ length: order.q }, (_, j) => `ma${j + 1}`),
+  ];
+  return {
+    names,
+    build: (values) => {
+      let i = 1;
+      const oscillations = Array.from({ length: pairs }, () => ({ period: values[i++]!, quality: values[i++]! }));
+      const timescales = Array.from({ length: real }, () => values[i++]!);
+      const movingAverage = Array.from({ length: order.q }, () => values[i++]!);
+      return kernels.carma({ sigma: values[0]!, oscillations, timescales, movingAverage });
+    },
+  };
+}
+
+/** What the CARMA priors are derived from (the data's scales, never hard-coded days). */
+export interface CarmaScales {
+  readonly shortestPeriod: number;
+  readonly baseline: number;
+  readonly medianCadence: number;
+}
+
+/**
+ * Priors and a first guess of the CARMA parameters other than sigma, from the data's scales: periods
+ * log-uniform from the shortest resolvable period to the baseline; qualities log-uniform on [0.05, 1000]
+ * (either side of 1/2: complex or real root pairs); the real root's timescale as the damped random walk's
+ * (a tenth of the median cadence to ten times the baseline); moving-average coefficient j uniform on
+ * +-(baseline / 2 pi)^j, the scale at which |b(i w)| departs from 1 at the lowest frequency the data see.
+ * The first guess spreads the roots over the timescales the data resolve (distinct roots, as the kernel needs).
+ */
+export function carmaPriors(order: CarmaOrder, scales: CarmaScales): { specs: ParameterSpec[]; guess: Record<string, number> } {
+  const { shortestPeriod, baseline, medianCadence } = scales;
+  const specs: ParameterSpec[] = [];
+  const guess: Record<string, number> = {};
+  const pairs = Math.floor(order.p / 2);
+  for (let k = 0; k < pairs; k++) {
+    specs.push({ name: `period${k}`, prior: logUniformPrior(shortestPeriod, baseline) });
+    specs.push({ name: `quality${k}`, prior: logUniformPrior(0.05, 1000) });
+    guess[`period${k}`] = Math.min(Math.sqrt(shortestPeriod * baseline) * Math.pow(3, k), baseline / 1.5);
+    guess[`quality${k}`] = 0.8 + 0.7 * k;
+  }
+  if (order.p % 2 === 1) {
+    specs.push({ name: "tau0", prior: logUniformPrior(medianCadence / 10, 10 * baseline) });
+    guess.tau0 = Math.max(baseline / 10, medianCadence);
+  }
+  const scale = baseline / (2 * Math.PI);
+  for (let j = 1; j <= order.q; j++) {
+    specs.push({ name: `ma${j}`, prior: uniformPrior(-Math.pow(scale, j), Math.pow(scale, j)) });
+    guess[`ma${j}`] = Math.pow(scale / 10, j);
+  }
+  return { specs, guess };
+}
