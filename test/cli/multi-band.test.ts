@@ -1,4 +1,4 @@
-import { writeFileSync } from "node:fs";
+import { readFileSync, writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { kernels } from "../../src/kernels/index.js";
@@ -30,7 +30,7 @@ describe("one rule for multi-band files", () => {
   it("fit: the joint model by default, one JSON object with amplitude.<band> and mean.<band>", async () => {
     const dir = (await runInProcess(["--help"])).cwd;
     const file = threeBandFile(dir);
-    const joint = await runInProcess(["fit", file, "--model", "drw", ...budget], dir);
+    const joint = await runInProcess(["fit", file, "--model", "drw", "--report", "joint-report", ...budget], dir);
     expect(joint.code).toBe(0);
     const result = JSON.parse(joint.stdout);
     expect(Array.isArray(result)).toBe(false);
@@ -38,6 +38,10 @@ describe("one rule for multi-band files", () => {
     expect(result.bands.names).toEqual(["g", "r", "i"]);
     for (const name of ["tau", "sigma", "amplitude.r", "amplitude.i", "mean.g", "mean.r", "mean.i"]) expect(result.parameters[name]).toBeDefined();
     expect(result.parameters["lag.r"]).toBeUndefined();
+    // The report: one light-curve panel per band after the reference band's, amplitudes in the table.
+    const html = readFileSync(join(dir, "joint-report", "report.html"), "utf8");
+    for (const band of ["g", "r", "i"]) expect(html).toContain(`Band ${band}: light curve and posterior prediction`);
+    expect(html).toContain("amplitude.r");
 
     // predict from the stored joint result: one latent curve per band, with a band column.
     writeFileSync(join(dir, "joint.json"), joint.stdout);
