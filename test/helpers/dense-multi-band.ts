@@ -25,23 +25,9 @@ export interface DenseBandParameters {
  * sum of alpha over the band (Rasmussen & Williams 2006, eq. 5.9); predictions by their eq. 2.25-2.26.
  */
 export function denseMultiBand(kernel: Kernel, bands: readonly DenseBand[], parameters: DenseBandParameters) {
-  const band: number[] = [];
-  const time: number[] = [];
-  const noise: number[] = [];
-  const residual: number[] = [];
-  bands.forEach((b, c) => {
-    for (let i = 0; i < b.time.length; i++) {
-      band.push(c);
-      time.push(b.time[i] - parameters.lag[c]);
-      noise.push(b.errors[i] ** 2 + parameters.jitter[c] ** 2);
-      residual.push(b.values[i] - parameters.mean[c]);
-    }
-  });
+  const { band, time, values, a, covariance } = denseCovariance(kernel, bands, parameters);
   const n = time.length;
-  const a = band.map((c) => parameters.amplitude[c]);
-  const covariance = new Matrix(n, n);
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j < n; j++) covariance.set(i, j, a[i] * a[j] * kernel.covarianceAt(time[i] - time[j]) + (i === j ? noise[i] : 0));
+  const residual = values.map((v, i) => v - parameters.mean[band[i]]);
   const cholesky = new CholeskyDecomposition(covariance);
   const alpha = cholesky.solve(Matrix.columnVector(residual)).getColumn(0);
   const lower = cholesky.lowerTriangularMatrix;
@@ -105,6 +91,28 @@ export function denseMultiBand(kernel: Kernel, bands: readonly DenseBand[], para
   return { value, gradient, predict };
 }
 
+/** The bands laid out one after another: band, shifted time and value of each point, and the covariance C. */
+function denseCovariance(kernel: Kernel, bands: readonly DenseBand[], parameters: DenseBandParameters) {
+  const band: number[] = [];
+  const time: number[] = [];
+  const noise: number[] = [];
+  const values: number[] = [];
+  bands.forEach((b, c) => {
+    for (let i = 0; i < b.time.length; i++) {
+      band.push(c);
+      time.push(b.time[i] - parameters.lag[c]);
+      noise.push(b.errors[i] ** 2 + parameters.jitter[c] ** 2);
+      values.push(b.values[i]);
+    }
+  });
+  const n = time.length;
+  const a = band.map((c) => parameters.amplitude[c]);
+  const covariance = new Matrix(n, n);
+  for (let i = 0; i < n; i++)
+    for (let j = 0; j < n; j++) covariance.set(i, j, a[i] * a[j] * kernel.covarianceAt(time[i] - time[j]) + (i === j ? noise[i] : 0));
+  return { band, time, values, a, covariance };
+}
+
 /** dk/dtau by Richardson-extrapolated central differences (accurate to ~1e-11 relative away from tau = 0). */
 function kernelSlope(kernel: Kernel, tau: number): number {
   const h = 1e-3 * Math.max(Math.abs(tau), 1e-3);
@@ -129,23 +137,8 @@ export function denseMeanMarginal(
   parameters: DenseBandParameters,
   priors: readonly { mean: number; sd: number }[],
 ) {
-  const band: number[] = [];
-  const time: number[] = [];
-  const noise: number[] = [];
-  const y: number[] = [];
-  bands.forEach((b, c) => {
-    for (let i = 0; i < b.time.length; i++) {
-      band.push(c);
-      time.push(b.time[i] - parameters.lag[c]);
-      noise.push(b.errors[i] ** 2 + parameters.jitter[c] ** 2);
-      y.push(b.values[i]);
-    }
-  });
+  const { band, time, values: y, covariance: c } = denseCovariance(kernel, bands, parameters);
   const n = time.length;
-  const a = band.map((c) => parameters.amplitude[c]);
-  const c = new Matrix(n, n);
-  for (let i = 0; i < n; i++)
-    for (let j = 0; j < n; j++) c.set(i, j, a[i] * a[j] * kernel.covarianceAt(time[i] - time[j]) + (i === j ? noise[i] : 0));
   const marginal = c.clone();
   for (let i = 0; i < n; i++) for (let j = 0; j < n; j++) if (band[i] === band[j]) marginal.set(i, j, marginal.get(i, j) + priors[band[i]].sd ** 2);
   const residual = y.map((v, i) => v - priors[band[i]].mean);

@@ -77,62 +77,69 @@ export const verb: CliVerb = {
     const drawCount = integerOption(values, "draws", 1) ?? 200;
     const lightCurves = await readInput(file, values, io, quiet);
     const from = textOption(values, "from");
+    const context: PredictContext = { from, values, io, quiet, times, drawCount, file };
     const stored = from !== undefined ? readFitResult(from, io.cwd, lightCurves.length === 1 ? lightCurves[0].band : textOption(values, "band")) : undefined;
     if (stored?.bands || (stored === undefined && lightCurves.length > 1)) {
-      const curves = multiBandCurves(lightCurves, stored, from, values, io, quiet, times, drawCount, file);
+      const curves = multiBandCurves(lightCurves, stored, context);
       writeOutput(bandPredictionCsv(curves), textOption(values, "out"), io);
       return 0;
     }
     if (lightCurves.length > 1) {
       // A per-band result file: each band predicted from its own result.
-      const curves = lightCurves.map((lc) => ({ band: lc.band!, curve: singleBandCurve(lc, readFitResult(from!, io.cwd, lc.band), from, values, io, quiet, times, drawCount, file) }));
+      const curves = lightCurves.map((lc) => ({ band: lc.band!, curve: singleBandCurve(lc, readFitResult(from!, io.cwd, lc.band), context) }));
       writeOutput(bandPredictionCsv(curves), textOption(values, "out"), io);
       return 0;
     }
-    const curve = singleBandCurve(lightCurves[0], stored, from, values, io, quiet, times, drawCount, file);
+    const curve = singleBandCurve(lightCurves[0], stored, context);
     writeOutput(predictionCsv(curve), textOption(values, "out"), io);
     return 0;
   },
 };
 
+/** What every band's prediction shares: the options, the requested times and where messages go. */
+interface PredictContext {
+  readonly from: string | undefined;
+  readonly values: VerbArguments["values"];
+  readonly io: CliIo;
+  readonly quiet: boolean;
+  readonly times: Float64Array;
+  readonly drawCount: number;
+  readonly file: string;
+}
+
 /** One band's predictive curve: from a stored result, or after a fresh fit. */
 function singleBandCurve(
   input: LightCurve,
   stored: FitResult | undefined,
-  from: string | undefined,
-  values: VerbArguments["values"],
-  io: CliIo,
-  quiet: boolean,
-  times: Float64Array,
-  drawCount: number,
-  file: string,
+  context: PredictContext,
 ): PredictiveCurve {
-    let lightCurve = input;
-    let model;
-    let rows: readonly (readonly number[])[];
-    if (stored !== undefined) {
-      const result = stored;
-      // The fit options are checked by the same rules though only --model is used (against the result's).
-      const requested = fitArguments(values, false).model;
-      if (requested !== undefined && requested !== result.model)
-        throw new UsageError(`--model ${requested} does not match the model of ${from} (${result.model})`);
-      try {
-        model = modelFromResult(result, lightCurve);
-        lightCurve = conditioningLightCurve(result, lightCurve);
-        rows = storedPosteriorSample(result, model.space.names).rows;
-      } catch (error) {
-        if (error instanceof RangeError) throw new InputError(error.message, { file: from! });
-        throw error;
-      }
-    } else {
-      const options = fitArguments(values, true);
-      requireErrorsForRobust([lightCurve], options, file);
-      const fit = fitWithProgress(lightCurve, options, io, quiet, lightCurve.band ? `fitting band ${lightCurve.band}` : "fitting");
-      model = fit.model;
-      lightCurve = fit.conditioning;
-      rows = fit.result.posteriorSample.rows;
+  const { from, values, io, quiet, times, drawCount, file } = context;
+  let lightCurve = input;
+  let model;
+  let rows: readonly (readonly number[])[];
+  if (stored !== undefined) {
+    const result = stored;
+    // The fit options are checked by the same rules though only --model is used (against the result's).
+    const requested = fitArguments(values, false).model;
+    if (requested !== undefined && requested !== result.model)
+      throw new UsageError(`--model ${requested} does not match the model of ${from} (${result.model})`);
+    try {
+      model = modelFromResult(result, lightCurve);
+      lightCurve = conditioningLightCurve(result, lightCurve);
+      rows = storedPosteriorSample(result, model.space.names).rows;
+    } catch (error) {
+      if (error instanceof RangeError) throw new InputError(error.message, { file: from! });
+      throw error;
     }
-    return posteriorPredictive(model, lightCurve, evenlySpacedItems(rows, drawCount), times);
+  } else {
+    const options = fitArguments(values, true);
+    requireErrorsForRobust([lightCurve], options, file);
+    const fit = fitWithProgress(lightCurve, options, io, quiet, lightCurve.band ? `fitting band ${lightCurve.band}` : "fitting");
+    model = fit.model;
+    lightCurve = fit.conditioning;
+    rows = fit.result.posteriorSample.rows;
+  }
+  return posteriorPredictive(model, lightCurve, evenlySpacedItems(rows, drawCount), times);
 }
 
 /**
@@ -142,18 +149,13 @@ function singleBandCurve(
 function multiBandCurves(
   lightCurves: readonly LightCurve[],
   stored: FitResult | undefined,
-  from: string | undefined,
-  values: VerbArguments["values"],
-  io: CliIo,
-  quiet: boolean,
-  times: Float64Array,
-  drawCount: number,
-  file: string,
+  context: PredictContext,
 ): { band: string; curve: PredictiveCurve }[] {
+  const { from, values, io, quiet, times, drawCount, file } = context;
   if (stored === undefined) {
     const choice = bandChoice(values, lightCurves);
     if (choice.kind !== "joint")
-      return lightCurves.map((lc) => ({ band: lc.band!, curve: singleBandCurve(lc, undefined, from, values, io, quiet, times, drawCount, file) }));
+      return lightCurves.map((lc) => ({ band: lc.band!, curve: singleBandCurve(lc, undefined, context) }));
     const options = fitArguments(values, true);
     const fit = fitJointWithProgress(lightCurves, options, choice, io, quiet);
     const rows = evenlySpacedItems(fit.result.posteriorSample.rows, drawCount);
