@@ -53,7 +53,6 @@ const OPTIONS = {
   ...FIT_OPTIONS,
   ...BAND_OPTIONS,
   from: { type: "string" },
-  order: { type: "string" },
   at: { type: "string" },
   grid: { type: "string" },
   draws: { type: "string" },
