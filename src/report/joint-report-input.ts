@@ -11,7 +11,10 @@ import type { BandPanel, ReportInput } from "./report-input.js";
  * posterior-predictive curve given all bands (`bandPanels`), and the per-band amplitudes, means and
  * lags in the parameter table with the shared parameters.
  */
-export function jointReportInput(fit: DetailedJointFit, sizes: ReportSizes = {}): ReportInput {
+export function jointReportInput(
+  fit: Pick<DetailedJointFit, "model" | "lightCurves" | "result">,
+  sizes: ReportSizes = {},
+): ReportInput {
   const { model, lightCurves, result } = fit;
   const names = model.space.names;
   const reference = model.reference;

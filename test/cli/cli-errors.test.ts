@@ -27,7 +27,9 @@ describe("command-line errors", () => {
 
   it("fit: missing or wrong model, missing file, garbage cell with file, line and column", async () => {
     await expectOneLineError(["fit", "lc.csv"], /--model is required/, { "lc.csv": GOOD });
-    await expectOneLineError(["fit", "lc.csv", "--model", "carma"], /--model must be one of drw, oscillator, quasi-periodic/, { "lc.csv": GOOD });
+    await expectOneLineError(["fit", "lc.csv", "--model", "spline"], /--model must be one of drw, oscillator, quasi-periodic, carma/, { "lc.csv": GOOD });
+    await expectOneLineError(["fit", "lc.csv", "--model", "carma"], /--model carma needs --order p,q/, { "lc.csv": GOOD });
+    await expectOneLineError(["fit", "lc.csv", "--model", "carma", "--order", "2,2"], /--order: the CARMA order needs q < p/, { "lc.csv": GOOD });
     await expectOneLineError(["fit", "missing.csv", "--model", "drw"], /missing\.csv.*cannot read/);
     const bad = GOOD.replace("\n3,", "\nthree,");
     await expectOneLineError(["fit", "lc.csv", "--model", "drw"], /lc\.csv:4: column "time"/, { "lc.csv": bad });
@@ -65,7 +67,7 @@ describe("command-line errors", () => {
 
   it("periodogram, compare and report argument problems", async () => {
     await expectOneLineError(["periodogram", "lc.csv", "--min-period", "5", "--max-period", "2"], /--min-period \(5\) must be below --max-period \(2\)/, { "lc.csv": GOOD });
-    await expectOneLineError(["compare", "lc.csv", "--models", "drw,sho"], /--models must be one of drw, oscillator, quasi-periodic, got "sho"/, { "lc.csv": GOOD });
+    await expectOneLineError(["compare", "lc.csv", "--models", "drw,sho"], /--models must be one of drw, oscillator, quasi-periodic, carma, got "sho"/, { "lc.csv": GOOD });
     await expectOneLineError(["report", "nothing.json"], /nothing\.json: cannot read the file/);
   });
 

@@ -22,7 +22,9 @@ Options:
   --background drw        add a damped-random-walk background to every model
   --seed N                seed of the optimiser's random starts (default 1)
   --min-period P, --max-period P   the period range of the periodic models (as for fit)
-  --out FILE              write the comparison as JSON here
+  --out FILE              write the comparison as JSON here (one object; for a file with several
+                          bands each band is compared on its own: {"perBand": {"<band>": ...}},
+                          --band NAME for one)
   --quiet                 do not print the table
 ${COLUMN_HELP}
 
@@ -73,7 +75,9 @@ export const verb: CliVerb = {
       }
     }
     const out = textOption(values, "out");
-    if (out !== undefined) writeOutput(JSON.stringify(comparisons.length === 1 ? comparisons[0] : comparisons, null, 2) + "\n", out, io);
+    // One JSON object in every case: per band, by band name, for a multi-band file.
+    const json = comparisons.length === 1 ? comparisons[0] : { perBand: Object.fromEntries(comparisons.map((c) => [c.band ?? "", c])) };
+    if (out !== undefined) writeOutput(JSON.stringify(json, null, 2) + "\n", out, io);
     return 0;
   },
 };

@@ -2,6 +2,10 @@ import { InputError } from "../../errors/input-error.js";
 import { readLightCurves } from "../../lightcurve/read-light-curves.js";
 import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";
+import { jointReportInput } from "../../report/joint-report-input.js";
+import type { ReportInput } from "../../report/report-input.js";
+import type { FitResult } from "../../models/fit-result.js";
+import { jointModelFromResult } from "../../models/joint-model-from-result.js";
 import { writeReport } from "../../report/write-report.js";
 import { resolve } from "node:path";
 import type { CliIo, CliVerb } from "../cli-io.js";
@@ -21,7 +25,8 @@ columns, unless --data names another copy of it.
 Options:
   --data FILE             the light-curve file (default: the result's data.source)
   --out DIR               output folder (default: report)
-  --band NAME             the band, for a result file holding several bands
+  --band NAME             the band, for a file of per-band results (fit --bands separate); a joint
+                          multi-band result gives one report with a light-curve panel per band
   --quiet                 print nothing
 
 Example:
@@ -36,6 +41,30 @@ const OPTIONS = {
   quiet: { type: "boolean" },
 } as const;
 
+/** The report input of a joint multi-band result: every band read again, the joint model rebuilt. */
+async function jointInput(result: FitResult, dataPath: string, resultPath: string, io: CliIo): Promise<ReportInput> {
+  const data = result.data;
+  const set = await readLightCurves(resolve(io.cwd, dataPath), {
+    timeColumn: data.timeColumn,
+    valueColumn: data.valueColumn,
+    errorColumn: data.errorColumn,
+    unit: data.unit,
+  });
+  const bands = result.bands!;
+  const lightCurves = bands.names.map((name) => {
+    const lightCurve = set.lightCurves.find((lc) => lc.band === name);
+    if (!lightCurve || lightCurve.time.length !== bands.points[name])
+      throw new InputError(`band ${name}: ${lightCurve ? `${lightCurve.time.length} points` : "absent"}, the result was fitted to ${bands.points[name]}: not the same data`, { file: dataPath });
+    return lightCurve;
+  });
+  try {
+    return jointReportInput({ result, lightCurves, model: jointModelFromResult(result, lightCurves) });
+  } catch (error) {
+    if (error instanceof RangeError) throw new InputError(error.message, { file: resultPath });
+    throw error;
+  }
+}
+
 /** `horologium report`. */
 export const verb: CliVerb = {
   summary: "HTML report with figures (SVG and PNG) from a fit result",
@@ -47,6 +76,11 @@ export const verb: CliVerb = {
     const result = readFitResult(resultPath, io.cwd, textOption(values, "band"));
     const data = result.data;
     const dataPath = textOption(values, "data") ?? data.source;
+    if (result.bands) {
+      const written = await writeReport(await jointInput(result, dataPath, resultPath, io), resolve(io.cwd, textOption(values, "out") ?? "report"));
+      if (values.quiet !== true) io.stdout(`${written.html}\n`);
+      return 0;
+    }
     const set = await readLightCurves(resolve(io.cwd, dataPath), {
       timeColumn: data.timeColumn,
       valueColumn: data.valueColumn,
