@@ -81,7 +81,7 @@ describe("parseFitResult: reading a fit-result file back", () => {
     );
     const { n: _, ...withoutN } = good.data;
     expect(problemOf({ ...good, data: withoutN })).toBe('lds.json: field "data.n" must be a non-negative integer, got nothing (the field is missing)');
-    expect(problemOf({ ...good, model: "sine" })).toBe('lds.json: field "model" must be one of drw, oscillator, quasi-periodic, got "sine"');
+    expect(problemOf({ ...good, model: "sine" })).toBe('lds.json: field "model" must be one of drw, oscillator, quasi-periodic, carma, got "sine"');
     expect(problemOf({ ...good, parameters: { ...good.parameters, tau: { ...good.parameters.tau, hdi95: [1, 2, 3] } } })).toBe(
       'lds.json: field "parameters.tau.hdi95" must be two numbers [lower, upper], got [1,2,3]',
     );
