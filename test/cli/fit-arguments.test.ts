@@ -43,7 +43,7 @@ describe("fitArguments: one set of rules for every verb that fits", () => {
   it("defaults the seed to 1 and requires the model only when asked", () => {
     expect(fitArguments({}, false)).toEqual({ seed: 1 });
     expect(() => fitArguments({}, true)).toThrow(new UsageError("--model is required (drw, oscillator, quasi-periodic, carma)"));
-    expect(() => fitArguments({ model: "sine" }, false)).toThrow('--model must be one of drw, oscillator, quasi-periodic, got "sine"');
+    expect(() => fitArguments({ model: "sine" }, false)).toThrow('--model must be one of drw, oscillator, quasi-periodic, carma, got "sine"');
   });
 });
 
