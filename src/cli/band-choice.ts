@@ -5,9 +5,9 @@ import { textOption, type VerbArguments } from "./verb-arguments.js";
 /**
  * How a verb treats the bands of its input, one rule for fit, predict, report, batch and compare:
  * - one band in the file (or no band column), or `--band NAME`: that band on its own ("single");
- * - several bands: one shared process fitted to all of them ("joint", the default), or with
- *   `--bands separate` each band on its own ("separate").
- * `--lags` and `--reference-band` belong to the joint model.
+ * - several bands: each band on its own ("separate", the default of the command-line contract in
+ *   docs/architecture.md), or with `--bands joint` one shared process fitted to all of them ("joint").
+ * `--lags` and `--reference-band` belong to the joint model and ask for it.
  */
 export type BandChoice =
   | { readonly kind: "single" }
@@ -23,12 +23,13 @@ export const BAND_OPTIONS = {
 
 /** The help lines of the rule. */
 export const BAND_HELP = `Several bands (a band column, recognised by name or given by --band-col):
-  by default one shared process is fitted to every band at once, with an amplitude and a mean
-  per band (JSON names amplitude.<band>, mean.<band>); the result is one JSON object.
-  --bands joint|separate  joint (default) or each band on its own ({"perBand": {"<band>": result}})
+  by default each band is fitted on its own, in one JSON object {"perBand": {"<band>": result}};
+  with --bands joint one shared process is fitted to every band at once, with an amplitude and a
+  mean per band (JSON names amplitude.<band>, mean.<band>), also one JSON object.
+  --bands joint|separate  one shared process, or each band on its own (default)
   --band NAME             only this band
-  --lags                  joint: also a lag per band relative to the reference band (lag.<band>)
-  --reference-band NAME   joint: the band with amplitude 1 and lag 0 (default: the most points)`;
+  --lags                  joint (implied): also a lag per band relative to the reference band (lag.<band>)
+  --reference-band NAME   joint (implied): the band with amplitude 1 and lag 0 (default: the most points)`;
 
 /** The band rule for these light curves and options (usage errors for options that do not apply). */
 export function bandChoice(values: VerbArguments["values"], lightCurves: readonly LightCurve[]): BandChoice {
@@ -43,6 +44,6 @@ export function bandChoice(values: VerbArguments["values"], lightCurves: readonl
   if (referenceBand !== undefined && !lightCurves.some((lc) => lc.band === referenceBand))
     throw new UsageError(`--reference-band ${referenceBand}: no such band (bands: ${lightCurves.map((lc) => lc.band).join(", ")})`);
   if (single) return { kind: "single" };
-  if (bands === "separate") return { kind: "separate" };
+  if (bands !== "joint" && !lags && referenceBand === undefined) return { kind: "separate" };
   return { kind: "joint", lags, ...(referenceBand !== undefined ? { referenceBand } : {}) };
 }

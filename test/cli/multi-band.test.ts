@@ -27,10 +27,10 @@ function threeBandFile(dir: string): string {
 const budget = ["--max-evaluations", "20000", "--quiet"];
 
 describe("one rule for multi-band files", () => {
-  it("fit: the joint model by default, one JSON object with amplitude.<band> and mean.<band>", async () => {
+  it("fit --bands joint: one JSON object with amplitude.<band> and mean.<band>", async () => {
     const dir = (await runInProcess(["--help"])).cwd;
     const file = threeBandFile(dir);
-    const joint = await runInProcess(["fit", file, "--model", "drw", "--report", "joint-report", ...budget], dir);
+    const joint = await runInProcess(["fit", file, "--model", "drw", "--bands", "joint", "--report", "joint-report", ...budget], dir);
     expect(joint.code).toBe(0);
     const result = JSON.parse(joint.stdout);
     expect(Array.isArray(result)).toBe(false);
@@ -53,10 +53,10 @@ describe("one rule for multi-band files", () => {
     expect(new Set(lines.slice(1).map((line) => line.split(",")[1]))).toEqual(new Set(["g", "r", "i"]));
   }, 120_000);
 
-  it("fit: --bands separate gives an object of per-band results, --band one band, --lags needs the joint model", async () => {
+  it("fit: each band on its own by default (an object of per-band results, as with --bands separate), --band one band, --lags needs the joint model", async () => {
     const dir = (await runInProcess(["--help"])).cwd;
     const file = threeBandFile(dir);
-    const separate = await runInProcess(["fit", file, "--model", "drw", "--bands", "separate", ...budget], dir);
+    const separate = await runInProcess(["fit", file, "--model", "drw", ...budget], dir);
     expect(separate.code).toBe(0);
     const perBand = JSON.parse(separate.stdout).perBand;
     expect(Object.keys(perBand)).toEqual(["g", "r", "i"]);

@@ -28,7 +28,8 @@ Predicts the latent (noise-free) light curve at any times, inside seasonal gaps 
 last point, from the posterior predictive: a mixture over posterior draws of the Gaussian-process
 prediction, so that parameter uncertainty widens the band. Writes CSV with the columns
 time,mean,sd,lower95,upper95; for a multi-band file time,band,mean,sd,lower95,upper95, one latent
-curve per band (from the joint fit by default, each band given every band's data).
+curve per band (each band fitted on its own by default; with --bands joint or --from a joint
+result, the shared process with each band given every band's data).
 
 Options:
   --model NAME            the model of a fresh fit (${MODEL_NAMES.join(", ")}); with --from, the result's
@@ -143,7 +144,7 @@ function singleBandCurve(
 
 /**
  * Every band's predictive curve from a joint fit (stored with `--from`, or fitted now by the band rule:
- * joint by default, `--bands separate` for one fit per band).
+ * each band on its own by default, `--bands joint` for one shared process).
  */
 function multiBandCurves(
   lightCurves: readonly LightCurve[],
