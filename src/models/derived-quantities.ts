@@ -34,8 +34,8 @@ export function fundamentalQuality(period: number, decayTime: number): number {
  * - drw: SF_inf = sqrt(2) sigma, the asymptotic structure function (MacLeod et al. 2010, ApJ 721, 1014), and
  *   with a redshift the rest-frame timescale tau / (1 + z) (time dilation);
  * - oscillator: the coherence (amplitude e-folding) time 2Q / w0 = quality * period / pi;
- * - quasi-periodic: `dominantPeriod` ({@link dominantPeriod}) and the quality factor of the fundamental
- *   ({@link fundamentalQuality}); its coherence time is the parameter decayTime itself.
+ * - quasi-periodic: `dominantPeriod` (the function `dominantPeriod` above) and the quality factor of the fundamental
+ *   (`fundamentalQuality`); its coherence time is the parameter decayTime itself.
  */
 export function derivedQuantities(model: ModelName, redshift?: number): DerivedQuantity[] {
   const out: DerivedQuantity[] = [];
