@@ -1,5 +1,6 @@
 import { FactorizationError } from "./factorization-error.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
+import { projectState, stepState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
 
 /**
@@ -34,21 +35,12 @@ export class SemiseparableFactorization {
     this.weights = new Float64Array(n * r);
     const s = new Float64Array(r * r);
     const u = new Float64Array(r);
+    const f = new Float64Array(r); // no data here: stays zero
+    const projection = new Float64Array(2);
     for (let k = 0; k < n; k++) {
-      if (k > 0) {
-        const pivot = this.pivots[k - 1];
-        for (let i = 0; i < r; i++) for (let j = 0; j < r; j++) s[i * r + j] += pivot * this.weights[(k - 1) * r + i] * this.weights[(k - 1) * r + j];
-        layout.computeTransitions(time[k] - time[k - 1]);
-        layout.applyCongruence(s, 0);
-      }
-      let pSp = 0;
-      for (let i = 0; i < r; i++) {
-        let sp = 0;
-        for (let j = 0; j < r; j++) sp += s[i * r + j] * p[j];
-        u[i] = q[i] - sp;
-        pSp += p[i] * sp;
-      }
-      const pivot = noiseVariance[k] + variance - pSp;
+      if (k > 0) stepState(layout, s, f, u, 0, 1 / this.pivots[k - 1], 0, time[k] - time[k - 1], true);
+      projectState(s, f, p, q, u, 0, r, projection);
+      const pivot = noiseVariance[k] + variance - projection[0];
       if (!(pivot > 0) || !Number.isFinite(pivot)) throw new FactorizationError(k, pivot);
       this.pivots[k] = pivot;
       for (let i = 0; i < r; i++) this.weights[k * r + i] = u[i] / pivot;

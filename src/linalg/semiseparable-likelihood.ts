@@ -2,7 +2,7 @@ import { FactorizationError } from "./factorization-error.js";
 import { recordAfterProjection, recordBeforeTransition, type TapeRecorder } from "./gradient-general-loop.js";
 import { absorbPivot } from "./pivot-product.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
-import { absorbPoint, projectState } from "./state-update.js";
+import { projectState, stepState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
 import { initialScalars, RECURSION_CHUNK, recursionTotals, runUnrolled, SLOT, unrolledRecursion, type RecursionTotals } from "./unrolled-recursion.js";
 
@@ -102,15 +102,11 @@ export function advance(
   let previousInverse = scalars[SLOT.previousInverse];
   let previousZ = scalars[SLOT.previousZ];
   let quadratic = scalars[SLOT.quadratic];
-  for (let k = begin; k < end; k++) {
-    if (k > 0) {
-      // S <- Phi (S + u u^T / D) Phi^T ; f <- Phi (f + u z / D)
-      absorbPoint(s, f, u, 0, previousInverse, previousZ, r);
-      if (recorder) recordBeforeTransition(recorder, layout, k, s, f, time[k] - time[k - 1]);
-      else layout.computeTransitions(time[k] - time[k - 1]);
-      layout.applyCongruence(s, 0);
-      layout.applyToVector(f, 0);
-    }
+  let k = begin;
+  const record = recorder && ((dt: number) => recordBeforeTransition(recorder, layout, k, s, f, dt));
+  for (; k < end; k++) {
+    // S <- Phi (S + u u^T / D) Phi^T ; f <- Phi (f + u z / D)
+    if (k > 0) stepState(layout, s, f, u, 0, previousInverse, previousZ, time[k] - time[k - 1], true, record);
     projectState(s, f, p, q, u, 0, r, projection);
     const pSp = projection[0];
     const pf = projection[1];

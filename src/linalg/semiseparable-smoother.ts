@@ -1,7 +1,7 @@
 import { FactorizationError } from "./factorization-error.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import { smootherBackwardStep } from "./smoother-backward-step.js";
-import { absorbPoint, projectState } from "./state-update.js";
+import { projectState, stepState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
 
 /** Posterior mean and variance of the latent process at requested times. */
@@ -70,12 +70,7 @@ export function semiseparablePredict(
   const projection = new Float64Array(2);
   let previousObserved = false;
   for (let k = 0; k < total; k++) {
-    if (k > 0) {
-      if (previousObserved) absorbPoint(s, f, gains, (k - 1) * r, 1 / pivots[k - 1], innovations[k - 1], r);
-      layout.computeTransitions(merged[k] - merged[k - 1]);
-      layout.applyCongruence(s, 0);
-      layout.applyToVector(f, 0);
-    }
+    if (k > 0) stepState(layout, s, f, gains, (k - 1) * r, 1 / pivots[k - 1], innovations[k - 1], merged[k] - merged[k - 1], previousObserved);
     projectState(s, f, p, q, gains, k * r, r, projection);
     const pSp = projection[0];
     const pf = projection[1];

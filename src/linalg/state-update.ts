@@ -1,8 +1,35 @@
+import type { TransitionLayout } from "./transition-layout.js";
+
 /**
- * The two per-point steps that every typed-array pass of the semiseparable recursion shares (the general
- * likelihood loop, the gradient, the smoother); the written-out code of `unrolled-recursion.ts` performs
- * the same operations in the same order on local variables.
+ * The forward step that every typed-array pass of the semiseparable recursion shares (the general
+ * likelihood loop and with it the gradient's forward pass, the factorisation, the smoother): {@link stepState}
+ * from one point to the next, then {@link projectState} onto the observation. The written-out code of
+ * `recursion-source.ts` performs the same operations in the same order on local variables.
  */
+
+/**
+ * From point k - 1 to point k: absorb point k - 1 (when `absorb`; u, 1 / D, z of that point), then
+ * S <- Phi S Phi^T and f <- Phi f over the lag dt. `transitions` fills `layout.phi` for the lag (by
+ * default `layout.computeTransitions`; the gradient's forward pass records them on its tape as well).
+ */
+export function stepState(
+  layout: TransitionLayout,
+  s: Float64Array,
+  f: Float64Array,
+  gains: Float64Array,
+  gainOffset: number,
+  inversePivot: number,
+  innovation: number,
+  dt: number,
+  absorb: boolean,
+  transitions?: (dt: number) => void,
+): void {
+  if (absorb) absorbPoint(s, f, gains, gainOffset, inversePivot, innovation, layout.dimension);
+  if (transitions) transitions(dt);
+  else layout.computeTransitions(dt);
+  layout.applyCongruence(s, 0);
+  layout.applyToVector(f, 0);
+}
 
 /**
  * Adds a conditioned point's information to the explained covariance and the predicted state:
