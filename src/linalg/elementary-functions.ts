@@ -1,3 +1,4 @@
+import { compileHelper } from "./emitted-helper.js";
 import { literalConstant, type ConstantWriter } from "./generated-constants.js";
 
 /**
@@ -81,11 +82,15 @@ export function exponential(x: number): number {
  * e^x for the decay factors of transitions (x <= 0 in use), with results below 2^-1021 (x < -708) flushed
  * to zero: a correlation that small is zero in every sum it enters. Unlike {@link exponential} it never
  * calls out, which lets V8 keep the recursions' state in registers around it (measured in
- * bench/README.md). Valid up to x = 708 like the table itself.
+ * bench/README.md). Valid up to x = 708 like the table itself. Compiled from {@link decayFactorSource}
+ * (emitted-helper.ts).
  */
-export function decayFactor(x: number): number {
-  return x < -708 ? 0 : tableExponential(x);
-}
+export const decayFactor: (x: number) => number = compileHelper(
+  ["x"],
+  `let y; ${decayFactorSource("y", "x")} return y;`,
+  tableBindings(),
+  (x: number) => (x < -708 ? 0 : Math.exp(x)),
+);
 
 /** The tables of the table-driven exponential, passed to generated code that uses {@link decayFactorSource}. */
 export const EXPONENTIAL_TABLES = Object.freeze({
@@ -99,8 +104,8 @@ export const EXPONENTIAL_TABLE_NAMES = ["twoToJBy64", "twoToJBy64Tail", "twoToM"
 
 /**
  * JavaScript statements that set the variable `target` (declared by the caller) to decayFactor(`argument`),
- * with the same operations in the same order as {@link decayFactor}, for code generated at run time
- * (unrolled-recursion.ts), which must receive the tables under {@link EXPONENTIAL_TABLE_NAMES}.
+ * for code generated at run time (unrolled-recursion.ts), which must receive the tables under
+ * {@link EXPONENTIAL_TABLE_NAMES}; {@link decayFactor} is compiled from the same text.
  *
  * Why not a call: V8 inlines a call only while the caller is small; past that it calls out, which boxes
  * the double argument and result on the heap at every point (measured: the two-component recursion
@@ -110,32 +115,33 @@ export const EXPONENTIAL_TABLE_NAMES = ["twoToJBy64", "twoToJBy64Tail", "twoToM"
  * (test/linalg/elementary-functions.test.ts).
  */
 export function decayFactorSource(target: string, argument: string, n: ConstantWriter = literalConstant): string {
+  return `{ const ex = ${argument}; if (ex < -708) { ${target} = 0; } else {${tableExponentialSource(target, "ex", n)} } }`;
+}
+
+/** The statements of the table-driven e^(`x`) into `target`, for -708 <= x <= 708 (NaN propagates). */
+function tableExponentialSource(target: string, x: string, n: ConstantWriter): string {
   return (
-    `{ const ex = ${argument}; if (ex < -708) { ${target} = 0; } else {` +
-    ` const ekf = ex * ${n(INVERSE_LN2_BY_64)} + ${n(ROUNDING_SHIFT)} - ${n(ROUNDING_SHIFT)};` +
-    ` const er1 = ex - ekf * ${n(LN2_BY_64_HIGH)}; const er2 = ekf * ${n(LN2_BY_64_LOW)}; const er = er1 - er2;` +
+    ` const ekf = ${x} * ${n(INVERSE_LN2_BY_64)} + ${n(ROUNDING_SHIFT)} - ${n(ROUNDING_SHIFT)};` +
+    ` const er1 = ${x} - ekf * ${n(LN2_BY_64_HIGH)}; const er2 = ekf * ${n(LN2_BY_64_LOW)}; const er = er1 - er2;` +
     ` const ek = ekf | 0; const ej = ek & 63; const em = (ek - ej) >> 6;` +
     ` const eq = er * er * (${n(E2)} + er * (${n(E3)} + er * (${n(E4)} + er * (${n(E5)} + er * ${n(E6)}))));` +
     ` const ep = er1 + (eq - er2); const es = twoToJBy64[ej]; const et = twoToJBy64Tail[ej];` +
-    ` ${target} = twoToM[em + 1022] * (es + (et + es * ep + et * ep)); } }`
+    ` ${target} = twoToM[em + 1022] * (es + (et + es * ep + et * ep));`
   );
 }
 
-/** The table-driven e^x, for -708 <= x <= 708 (NaN propagates). */
-function tableExponential(x: number): number {
-  const kf = x * INVERSE_LN2_BY_64 + ROUNDING_SHIFT - ROUNDING_SHIFT;
-  const r1 = x - kf * LN2_BY_64_HIGH;
-  const r2 = kf * LN2_BY_64_LOW;
-  const r = r1 - r2;
-  const k = kf | 0;
-  const j = k & 63;
-  const m = (k - j) >> 6;
-  const q = r * r * (E2 + r * (E3 + r * (E4 + r * (E5 + r * E6))));
-  const p = r1 + (q - r2);
-  const s = TWO_TO_J_BY_64[j];
-  const t = TWO_TO_J_BY_64_TAIL[j];
-  return TWO_TO_M[m + 1022] * (s + (t + s * p + t * p));
+/** The tables under the names the emitted text uses. */
+function tableBindings(): Record<string, Float64Array> {
+  return { twoToJBy64: TWO_TO_J_BY_64, twoToJBy64Tail: TWO_TO_J_BY_64_TAIL, twoToM: TWO_TO_M };
 }
+
+/** The table-driven e^x, for -708 <= x <= 708 (NaN propagates), compiled from its source text. */
+const tableExponential: (x: number) => number = compileHelper(
+  ["x"],
+  `let y;${tableExponentialSource("y", "x", literalConstant)} return y;`,
+  tableBindings(),
+  Math.exp,
+);
 
 /** pi/2 in three parts of 33, 33 and 53 bits (Cody & Waite 1980 reduction; the values of fdlibm's k_rem_pio2). */
 const PIO2_1 = 1.57079632673412561417e0;
@@ -161,8 +167,8 @@ const C6 = -1.13596475577881948265e-11;
 
 /**
  * JavaScript statements that set the variables `cosTarget` and `sinTarget` (declared by the caller) to the
- * cosine and sine of `argument`: the operations of {@link cosineAndSine} in the same order, for generated
- * code (see {@link decayFactorSource} for why not a call). Bit-identical results.
+ * cosine and sine of `argument`, for generated code (see {@link decayFactorSource} for why not a call);
+ * {@link cosineAndSine} is compiled from the same text.
  */
 export function cosineAndSineSource(cosTarget: string, sinTarget: string, argument: string, n: ConstantWriter = literalConstant): string {
   return (
@@ -182,36 +188,15 @@ export function cosineAndSineSource(cosTarget: string, sinTarget: string, argume
 /**
  * cos x and sin x together, written to out[offset] and out[offset + 1]: one Cody-Waite reduction
  * x = n pi/2 + y, |y| <= pi/4, then fdlibm's polynomials for sin y and cos y and the quadrant n mod 4.
- * Absolute error below 2^-52 for |x| <= 1e5; larger |x| use `Math.cos` and `Math.sin`.
+ * Absolute error below 2^-52 for |x| <= 1e5; larger |x| use `Math.cos` and `Math.sin`. Compiled from
+ * {@link cosineAndSineSource} (emitted-helper.ts).
  */
-export function cosineAndSine(x: number, out: Float64Array, offset: number): void {
-  if (!(x > -REDUCTION_LIMIT && x < REDUCTION_LIMIT)) {
+export const cosineAndSine: (x: number, out: Float64Array, offset: number) => void = compileHelper(
+  ["x", "out", "offset"],
+  `let c; let s; ${cosineAndSineSource("c", "s", "x")} out[offset] = c; out[offset + 1] = s; return;`,
+  {},
+  (x: number, out: Float64Array, offset: number) => {
     out[offset] = Math.cos(x);
     out[offset + 1] = Math.sin(x);
-    return;
-  }
-  const nf = x * TWO_BY_PI + ROUNDING_SHIFT - ROUNDING_SHIFT;
-  const y = x - nf * PIO2_1 - nf * PIO2_2 - nf * PIO2_3;
-  const z = y * y;
-  const sine = y + y * z * (S1 + z * (S2 + z * (S3 + z * (S4 + z * (S5 + z * S6)))));
-  const hz = 0.5 * z;
-  const w = 1 - hz;
-  const cosine = w + (1 - w - hz + z * z * (C1 + z * (C2 + z * (C3 + z * (C4 + z * (C5 + z * C6))))));
-  switch ((nf | 0) & 3) {
-    case 0:
-      out[offset] = cosine;
-      out[offset + 1] = sine;
-      break;
-    case 1:
-      out[offset] = -sine;
-      out[offset + 1] = cosine;
-      break;
-    case 2:
-      out[offset] = -cosine;
-      out[offset + 1] = -sine;
-      break;
-    default:
-      out[offset] = sine;
-      out[offset + 1] = -cosine;
-  }
-}
+  },
+);

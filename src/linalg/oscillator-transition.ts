@@ -1,4 +1,5 @@
 import { cosineAndSine, decayFactor } from "./elementary-functions.js";
+import { compileHelper } from "./emitted-helper.js";
 import { literalConstant, type ConstantWriter } from "./generated-constants.js";
 import type { ParameterDependence, TransitionBlock } from "./transition-block.js";
 
@@ -115,15 +116,6 @@ export class OscillatorTransition implements TransitionBlock {
   }
 }
 
-/** (k + 1) / (2k + 3)! for k = 0 .. 10: the series of dS/dlambda / dt^3. */
-const SINH_DERIVATIVE_SERIES = Float64Array.from({ length: 11 }, (_, k) => (k + 1) / factorial(2 * k + 3));
-
-function factorial(n: number): number {
-  let value = 1;
-  for (let i = 2; i <= n; i++) value *= i;
-  return value;
-}
-
 /** The coefficients 1/(2k)!, k = 0 .. 10, of {@link coshSeries}, as the literals it is written with. */
 const COSH_COEFFICIENTS = [
   1, 1 / 2, 1 / 24, 1 / 720, 1 / 40320, 1 / 3628800, 1 / 479001600, 1 / 87178291200, 1 / 20922789888000,
@@ -144,8 +136,8 @@ function hornerSource(coefficients: readonly number[], x: string, constant: Cons
 
 /**
  * {@link coshSeries} and {@link sinhSeries} of `x` as JavaScript expressions, for code generated at run time
- * (unrolled-recursion.ts): the same operations in the same order, bit-identical results, and no call that
- * V8 might leave out of line (see decayFactorSource in elementary-functions.ts).
+ * (recursion-source.ts): no call that V8 might leave out of line (see decayFactorSource in
+ * elementary-functions.ts); the two functions are compiled from the same text.
  */
 export function hyperbolicSeriesSource(
   x: string,
@@ -157,18 +149,65 @@ export function hyperbolicSeriesSource(
 /**
  * cosh(sqrt(x)) = sum_k x^k / (2k)! for |x| < 1, to k = 10 by Horner's rule (the first omitted term is
  * below 1 / 22! < 1e-21). The coefficients are literals (exact integers up to 21!, so each quotient is the
- * correctly rounded reciprocal), which V8 folds into the code.
+ * correctly rounded reciprocal). Compiled from {@link hyperbolicSeriesSource} (emitted-helper.ts).
  */
-export function coshSeries(x: number): number {
-  return 1 + x * (1 / 2 + x * (1 / 24 + x * (1 / 720 + x * (1 / 40320 + x * (1 / 3628800 + x * (1 / 479001600 +
-    x * (1 / 87178291200 + x * (1 / 20922789888000 + x * (1 / 6402373705728000 + x * (1 / 2432902008176640000))))))))));
-}
+export const coshSeries: (x: number) => number = compileHelper(["x"], `return ${hyperbolicSeriesSource("x").cosh};`, {}, (x: number) =>
+  hornerValue(COSH_COEFFICIENTS, x),
+);
 
 /** sinh(sqrt(x)) / sqrt(x) = sum_k x^k / (2k + 1)! for |x| < 1, like {@link coshSeries}. */
-export function sinhSeries(x: number): number {
-  return 1 + x * (1 / 6 + x * (1 / 120 + x * (1 / 5040 + x * (1 / 362880 + x * (1 / 39916800 + x * (1 / 6227020800 +
-    x * (1 / 1307674368000 + x * (1 / 355687428096000 + x * (1 / 121645100408832000 + x * (1 / 51090942171709440000))))))))));
+export const sinhSeries: (x: number) => number = compileHelper(["x"], `return ${hyperbolicSeriesSource("x").sinh};`, {}, (x: number) =>
+  hornerValue(SINH_COEFFICIENTS, x),
+);
+
+/** Horner's rule in a loop: the same operations as {@link hornerSource}'s text (the fallback without compilation). */
+function hornerValue(coefficients: readonly number[], x: number): number {
+  let sum = coefficients[coefficients.length - 1];
+  for (let k = coefficients.length - 2; k >= 0; k--) sum = coefficients[k] + x * sum;
+  return sum;
 }
+
+/** (k + 1) / (2k + 3)!, k = 0 .. 10: dS/dlambda = dt^3 sum_k (k + 1) x^k / (2k + 3)! with x = lambda dt^2. */
+export const SINH_LAMBDA_DERIVATIVE_COEFFICIENTS: readonly number[] = Array.from({ length: 11 }, (_, k) => {
+  let factorial = 1;
+  for (let i = 2; i <= 2 * k + 3; i++) factorial *= i;
+  return (k + 1) / factorial;
+});
+
+/**
+ * Text of E dS/dlambda for an oscillator step into `target`, from E C and E S of the same step: `series`
+ * is the statement for |x| < 1 (x = lambda dt^2), E dt^3 sum_k (k + 1) x^k / (2k + 3)!, given `e` = E
+ * (computed there by the transition), `other` the statement for the other branches,
+ * (dt E C - E S) / (2 lambda), which does not cancel there. {@link oscillatorLambdaDerivative} is compiled
+ * from the same text.
+ */
+export function oscillatorLambdaDerivativeSource(
+  target: string,
+  lambda: string,
+  ec: string,
+  es: string,
+  x: string,
+  constant: ConstantWriter = literalConstant,
+): { readonly series: string; readonly other: string } {
+  return {
+    series: `${target} = e * (dt * dt * dt * ${hornerSource(SINH_LAMBDA_DERIVATIVE_COEFFICIENTS, x, constant)});`,
+    other: `${target} = (dt * ${ec} - ${es}) / (2 * ${lambda});`,
+  };
+}
+
+const lambdaDerivativeText = oscillatorLambdaDerivativeSource("y", "lambda", "ec", "es", "x");
+
+/** E dS/dlambda (see {@link oscillatorLambdaDerivativeSource}); E = exp(-c dt) recomputed, the same double as in the transition. */
+export const oscillatorLambdaDerivative: (c: number, lambda: number, dt: number, ec: number, es: number) => number = compileHelper(
+  ["c", "lambda", "dt", "ec", "es"],
+  `const x = lambda * dt * dt; let y; if (x > -1 && x < 1) { const e = decayFactor(-c * dt); ${lambdaDerivativeText.series} } else { ${lambdaDerivativeText.other} } return y;`,
+  { decayFactor },
+  (c: number, lambda: number, dt: number, ec: number, es: number) => {
+    const x = lambda * dt * dt;
+    if (x > -1 && x < 1) return decayFactor(-c * dt) * (dt * dt * dt * hornerValue(SINH_LAMBDA_DERIVATIVE_COEFFICIENTS, x));
+    return (dt * ec - es) / (2 * lambda);
+  },
+);
 
 /**
  * Writes [E C, E S] for E = exp(-c dt), C = cosh(sqrt(lambda) dt), S = sinh(sqrt(lambda) dt) / sqrt(lambda),
@@ -205,19 +244,11 @@ export function dampedHyperbolicValues(c: number, lambda: number, w0: number, dt
 /**
  * Writes [E C, E S, E dC/dlambda, E dS/dlambda] for E = exp(-c dt), C = cosh(sqrt(lambda) dt),
  * S = sinh(sqrt(lambda) dt) / sqrt(lambda), with lambda = c^2 - w0^2 (any sign), into out[0..3].
- * dC/dlambda = dt S / 2 and dS/dlambda = (dt C - S) / (2 lambda) (power series near lambda dt^2 = 0).
+ * dC/dlambda = dt S / 2 and dS/dlambda = (dt C - S) / (2 lambda) (power series near lambda dt^2 = 0; see
+ * oscillatorLambdaDerivative in transition-adjoints.ts).
  */
 export function dampedHyperbolicPair(c: number, lambda: number, w0: number, dt: number, out: Float64Array): void {
-  const x = lambda * dt * dt;
   dampedHyperbolicValues(c, lambda, w0, dt, out);
   out[2] = 0.5 * dt * out[1];
-  if (x > -1 && x < 1) {
-    // dS/dlambda = dt^3 sum_k (k + 1) x^k / (2k + 3)!, by Horner's rule like C and S.
-    const d = SINH_DERIVATIVE_SERIES;
-    let sum = d[d.length - 1];
-    for (let k = d.length - 2; k >= 0; k--) sum = d[k] + x * sum;
-    out[3] = decayFactor(-c * dt) * dt * dt * dt * sum;
-    return;
-  }
-  out[3] = (dt * out[0] - out[1]) / (2 * lambda);
+  out[3] = oscillatorLambdaDerivative(c, lambda, dt, out[0], out[1]);
 }

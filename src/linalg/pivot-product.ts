@@ -1,3 +1,4 @@
+import { compileHelper } from "./emitted-helper.js";
 import { literalConstant, type ConstantWriter } from "./generated-constants.js";
 
 /**
@@ -30,37 +31,22 @@ export const PRODUCT_SCALE_DOWN = 2 ** -PRODUCT_SCALE_BITS;
 
 /**
  * Multiplies a pivot into the running product in place: `state[productSlot]` holds the product and
- * `state[exponentSlot]` the binary exponent e (log det = log(product) + e ln 2).
+ * `state[exponentSlot]` the binary exponent e (log det = log(product) + e ln 2). Compiled from
+ * {@link absorbPivotSource} (emitted-helper.ts); without compilation, the pivot's log2 is added to e instead.
  */
-export function absorbPivot(pivot: number, state: Float64Array, productSlot: number, exponentSlot: number): void {
-  let scaled = pivot;
-  let exponent = state[exponentSlot];
-  while (scaled > PIVOT_HIGH) {
-    scaled *= PIVOT_SCALE_DOWN;
-    exponent += PIVOT_SCALE_BITS;
-  }
-  while (scaled < PIVOT_LOW) {
-    scaled *= PIVOT_SCALE_UP;
-    exponent -= PIVOT_SCALE_BITS;
-  }
-  let product = state[productSlot] * scaled;
-  if (!(product > PRODUCT_LOW && product < PRODUCT_HIGH)) {
-    if (product > 1) {
-      product *= PRODUCT_SCALE_DOWN;
-      exponent += PRODUCT_SCALE_BITS;
-    } else {
-      product *= PRODUCT_SCALE_UP;
-      exponent -= PRODUCT_SCALE_BITS;
-    }
-  }
-  state[productSlot] = product;
-  state[exponentSlot] = exponent;
-}
+export const absorbPivot: (pivot: number, state: Float64Array, productSlot: number, exponentSlot: number) => void = compileHelper(
+  ["pivot", "state", "productSlot", "exponentSlot"],
+  `let product = state[productSlot]; let exponent = state[exponentSlot]; ${absorbPivotSource("pivot")} state[productSlot] = product; state[exponentSlot] = exponent; return;`,
+  {},
+  (pivot: number, state: Float64Array, _productSlot: number, exponentSlot: number) => {
+    state[exponentSlot] += Math.log2(pivot);
+  },
+);
 
 /**
- * The statements of {@link absorbPivot} for generated code, on local variables named `product` and
- * `exponent` (declared by the caller) and a positive finite `pivot` expression; the same operations in the
- * same order, with the constants written by `constant` (exact literals by default).
+ * The statements of {@link absorbPivot}, on local variables named `product` and `exponent` (declared by the
+ * caller) and a positive finite `pivot` expression, with the constants written by `constant` (exact
+ * literals by default): inlined by the generated recursions, compiled into {@link absorbPivot}.
  */
 export function absorbPivotSource(pivot: string, constant: ConstantWriter = literalConstant): string {
   return (

@@ -1,9 +1,9 @@
 import { cosineAndSineSource, decayFactorSource } from "./elementary-functions.js";
 import { constantPool, type ConstantWriter } from "./generated-constants.js";
 import { GradientTapeLayout } from "./gradient-tape.js";
-import { hyperbolicSeriesSource } from "./oscillator-transition.js";
+import { hyperbolicSeriesSource, oscillatorLambdaDerivativeSource } from "./oscillator-transition.js";
 import { absorbPivotSource } from "./pivot-product.js";
-import { oscillatorLambdaDerivativeSource, type AdjointKind } from "./transition-adjoints.js";
+import type { AdjointKind } from "./transition-adjoints.js";
 
 /**
  * How a block enters the written-out code: exponential and oscillator blocks have their transitions

@@ -1,7 +1,7 @@
 import { decayFactor } from "./elementary-functions.js";
+import { compileHelper } from "./emitted-helper.js";
 import { ExponentialTransition } from "./exponential-transition.js";
-import { literalConstant, type ConstantWriter } from "./generated-constants.js";
-import { dampedHyperbolicValues, OscillatorTransition } from "./oscillator-transition.js";
+import { dampedHyperbolicValues, oscillatorLambdaDerivative, OscillatorTransition } from "./oscillator-transition.js";
 import type { TransitionBlock } from "./transition-block.js";
 
 /**
@@ -44,56 +44,6 @@ export function tapeWidth(kind: AdjointKind, size: number): number {
 /** Running sums per block in the backward pass. */
 export function accumulatorCount(kind: AdjointKind): number {
   return kind === "exponential" ? 1 : kind === "oscillator" ? 6 : 0;
-}
-
-/** (k + 1) / (2k + 3)!, k = 0 .. 10: dS/dlambda = dt^3 sum_k (k + 1) x^k / (2k + 3)! with x = lambda dt^2. */
-export const SINH_LAMBDA_DERIVATIVE_COEFFICIENTS: readonly number[] = Array.from({ length: 11 }, (_, k) => {
-  let factorial = 1;
-  for (let i = 2; i <= 2 * k + 3; i++) factorial *= i;
-  return (k + 1) / factorial;
-});
-
-/** Horner's rule c0 + x (c1 + x (c2 + ...)), the order the emitted text uses too. */
-function horner(coefficients: readonly number[], x: number): number {
-  let sum = coefficients[coefficients.length - 1];
-  for (let k = coefficients.length - 2; k >= 0; k--) sum = coefficients[k] + x * sum;
-  return sum;
-}
-
-/** The same Horner expression as text, constants written by `constant`. */
-function hornerText(coefficients: readonly number[], x: string, constant: ConstantWriter): string {
-  let text = constant(coefficients[coefficients.length - 1]);
-  for (let k = coefficients.length - 2; k >= 0; k--) text = `${constant(coefficients[k])} + ${x} * (${text})`;
-  return `(${text})`;
-}
-
-/**
- * E dS/dlambda for an oscillator step, from E C and E S of the same step: the series
- * E dt^3 sum_k (k + 1) x^k / (2k + 3)! for |x| < 1 (x = lambda dt^2; E = exp(-c dt) recomputed, the same
- * double as in the transition), else (dt E C - E S) / (2 lambda), which does not cancel there.
- */
-export function oscillatorLambdaDerivative(c: number, lambda: number, dt: number, ec: number, es: number): number {
-  const x = lambda * dt * dt;
-  if (x > -1 && x < 1) return decayFactor(-c * dt) * (dt * dt * dt * horner(SINH_LAMBDA_DERIVATIVE_COEFFICIENTS, x));
-  return (dt * ec - es) / (2 * lambda);
-}
-
-/**
- * Text of {@link oscillatorLambdaDerivative} for the written-out forward pass: `series` is the statement for
- * the series branch given `e` = E (already computed there), `other` the statement for the other branches.
- */
-export function oscillatorLambdaDerivativeSource(
-  target: string,
-  lambda: string,
-  ec: string,
-  es: string,
-  x: string,
-  constant: ConstantWriter = literalConstant,
-): { readonly series: string; readonly other: string } {
-  return {
-    series: `${target} = e * (dt * dt * dt * ${hornerText(SINH_LAMBDA_DERIVATIVE_COEFFICIENTS, x, constant)});`,
-    other: `${target} = (dt * ${ec} - ${es}) / (2 * ${lambda});`,
-  };
 }
 
 /**
@@ -171,23 +121,9 @@ export function accumulateBlockAdjoint(
   scratch: Float64Array,
 ): void {
   if (kind === "exponential") {
-    accumulators[accumulatorOffset] += phiBar[0] * (dt * phi[phiOffset]);
+    exponentialAdjoint(dt, phiBar, phi, phiOffset, accumulators, accumulatorOffset);
   } else if (kind === "oscillator") {
-    const es = tape[tapeOffset + 1];
-    const esl = tape[tapeOffset + 2];
-    const ecl = 0.5 * dt * es;
-    const p00 = phiBar[0];
-    const p11 = phiBar[3];
-    const pd = phiBar[1] - phiBar[2];
-    const ps = p00 + p11;
-    const pm = p00 - p11;
-    const a = accumulatorOffset;
-    accumulators[a] += dt * (p00 * phi[phiOffset] + pd * phi[phiOffset + 1] + p11 * phi[phiOffset + 3]);
-    accumulators[a + 1] += ps * ecl;
-    accumulators[a + 2] += pm * esl;
-    accumulators[a + 3] += pd * esl;
-    accumulators[a + 4] += pm * es;
-    accumulators[a + 5] += pd * es;
+    oscillatorAdjoint(dt, phiBar, phi, phiOffset, tape, tapeOffset, accumulators, accumulatorOffset);
   } else {
     genericBlockAdjoint(block, dt, phiBar, kernelBar, scratch);
   }
@@ -210,7 +146,10 @@ export function genericBlockAdjoint(block: TransitionBlock, dt: number, phiBar: 
   }
 }
 
-/** Text of {@link accumulateBlockAdjoint} for the written-out backward pass, on local variables. */
+/**
+ * Text of {@link accumulateBlockAdjoint} for exponential and oscillator blocks, on the given names (locals
+ * in the written-out backward pass; array elements in the functions compiled from it below).
+ */
 export function accumulateBlockAdjointSource(
   kind: "exponential" | "oscillator",
   phiBar: readonly string[],
@@ -227,6 +166,62 @@ export function accumulateBlockAdjointSource(
     ` ${a0} += dt * (${p00} * ${phi[0]} + pd * ${phi[1]} + ${p11} * ${phi[3]});` +
     ` ${a1} += ps * ecl; ${a2} += pm * ${esl}; ${a3} += pd * ${esl}; ${a4} += pm * ${es}; ${a5} += pd * ${es}; }`
   );
+}
+
+const arrayElements = (array: string, offset: string, count: number): string[] =>
+  Array.from({ length: count }, (_, e) => `${array}[${offset} + ${e}]`);
+
+/** The exponential block's step of {@link accumulateBlockAdjoint}, compiled from its text. */
+const exponentialAdjoint: (dt: number, phiBar: Float64Array, phi: Float64Array, phiOffset: number, accumulators: Float64Array, at: number) => void =
+  compileHelper(
+    ["dt", "phiBar", "phi", "phiOffset", "accumulators", "at"],
+    `${accumulateBlockAdjointSource("exponential", ["phiBar[0]"], ["phi[phiOffset]"], [], ["accumulators[at]"])} return;`,
+    {},
+    (dt: number, phiBar: Float64Array, phi: Float64Array, phiOffset: number, accumulators: Float64Array, at: number) => {
+      accumulators[at] += phiBar[0] * (dt * phi[phiOffset]);
+    },
+  );
+
+/** The oscillator block's step of {@link accumulateBlockAdjoint}, compiled from its text. */
+const oscillatorAdjointText = accumulateBlockAdjointSource(
+  "oscillator",
+  arrayElements("phiBar", "0", 4),
+  arrayElements("phi", "phiOffset", 4),
+  arrayElements("tape", "tapeOffset", 3),
+  arrayElements("accumulators", "at", 6),
+);
+const oscillatorAdjoint: (
+  dt: number,
+  phiBar: Float64Array,
+  phi: Float64Array,
+  phiOffset: number,
+  tape: Float64Array,
+  tapeOffset: number,
+  accumulators: Float64Array,
+  at: number,
+) => void = compileHelper(["dt", "phiBar", "phi", "phiOffset", "tape", "tapeOffset", "accumulators", "at"], `${oscillatorAdjointText} return;`, {}, oscillatorAdjointPlain);
+
+/** The same step written plainly, for hosts without run-time compilation (where no written-out pass runs to agree with). */
+function oscillatorAdjointPlain(
+  dt: number,
+  phiBar: Float64Array,
+  phi: Float64Array,
+  phiOffset: number,
+  tape: Float64Array,
+  tapeOffset: number,
+  accumulators: Float64Array,
+  at: number,
+): void {
+  const es = tape[tapeOffset + 1];
+  const esl = tape[tapeOffset + 2];
+  const pd = phiBar[1] - phiBar[2];
+  const pm = phiBar[0] - phiBar[3];
+  accumulators[at] += dt * (phiBar[0] * phi[phiOffset] + pd * phi[phiOffset + 1] + phiBar[3] * phi[phiOffset + 3]);
+  accumulators[at + 1] += (phiBar[0] + phiBar[3]) * (0.5 * dt * es);
+  accumulators[at + 2] += pm * esl;
+  accumulators[at + 3] += pd * esl;
+  accumulators[at + 4] += pm * es;
+  accumulators[at + 5] += pd * es;
 }
 
 /** Maps a block's accumulators to the kernel gradient, once after the backward pass (see the file's comment). */
