@@ -6,6 +6,7 @@
  *   dense       against the O(N^3) dense engine at N = 500, 1000, 2000
  *   gradient    the log-likelihood gradient in log-likelihoods for R = 1, 2, 4 (and 8 up to N = 1e5) at
  *               N = 1e3 ... 1e6, and against the C reference's gradient (the same reverse pass), interleaved
+ *   adapters    the gradient's cost through the model adapters NUTS and L-BFGS use (src/models)
  *   predict     predict cost per point at N = 1e4 and 1e5 with as many requested times
  *
  * Usage: node dist/bench/run-engine.js [--quick] [--rounds K] [--batch SECONDS] [--clock cpu|wall]
@@ -19,6 +20,7 @@ import { availableParallelism, cpus, loadavg } from "node:os";
 import { join } from "node:path";
 import { createRng } from "../src/random/rng.js";
 import { benchmarkData, engineCases, leadingPoints, type EngineCase } from "./engine-cases.js";
+import { measureAdapters } from "./engine-adapters.js";
 import { measureDense, measurePredict } from "./engine-companions.js";
 import { fullGradient, measureGradient, type GradientRow } from "./engine-gradient.js";
 import { fullLogLikelihood, measureLikelihood, type LikelihoodRow, type TimingSettings } from "./engine-likelihood.js";
@@ -29,7 +31,7 @@ import { formatSignificant as fmt, markdownTable, type Clock } from "./engine-ti
 const RATIO_TARGET = 1.5;
 /** A gradient must cost at most this many log-likelihoods (issue 13). */
 const GRADIENT_COST_TARGET = 3;
-const SECTIONS = ["likelihood", "dense", "gradient", "predict"] as const;
+const SECTIONS = ["likelihood", "dense", "gradient", "adapters", "predict"] as const;
 type Section = (typeof SECTIONS)[number];
 
 interface Options {
@@ -60,7 +62,7 @@ function parseOptions(argv: readonly string[]): Options {
       if (unknown.length) throw new Error(`unknown section(s) ${unknown.join(", ")}; known: ${SECTIONS.join(", ")}`);
     } else if (arg === "--help" || arg === "-h") {
       console.log(
-        "usage: run-engine [--quick] [--rounds K] [--batch SECONDS] [--clock cpu|wall] [--sections likelihood,dense,gradient,predict]",
+        "usage: run-engine [--quick] [--rounds K] [--batch SECONDS] [--clock cpu|wall] [--sections likelihood,dense,gradient,adapters,predict]",
       );
       process.exit(0);
     } else throw new Error(`unknown option ${arg}`);
@@ -277,6 +279,17 @@ async function gradientSection(cases: readonly EngineCase[], options: Options, e
   );
 }
 
+function adaptersSection(options: Options): void {
+  const rows = measureAdapters(options.settings);
+  console.log(`\n## Gradient cost through the model adapters (modelLikelihood at the model's first guess)\n`);
+  console.log(
+    markdownTable(
+      ["light curve", "model", "N", "value (ms)", "value + gradient (ms)", "cost in values"],
+      rows.map((r) => [r.label, r.model, String(r.n), fmt(r.valueMs), fmt(r.gradientMs), fmt(r.cost)]),
+    ),
+  );
+}
+
 function predictSection(cases: readonly EngineCase[], options: Options): void {
   const sizes = options.quick ? [1e4] : [1e4, 1e5];
   const rows = [];
@@ -306,6 +319,7 @@ async function main(): Promise<void> {
   if (options.sections.has("likelihood")) await likelihoodSection(cases, options, executable, root);
   if (options.sections.has("dense")) denseSection(cases, options);
   if (options.sections.has("gradient")) await gradientSection(cases, options, executable, root);
+  if (options.sections.has("adapters")) adaptersSection(options);
   if (options.sections.has("predict")) predictSection(cases, options);
   console.log(`\n- load average at end: ${loadavg().map((x) => x.toFixed(2)).join(" ")}`);
 }
