@@ -2,7 +2,7 @@ import { FactorizationError } from "./factorization-error.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import type { LatentPrediction } from "./semiseparable-smoother.js";
 import { smootherBackwardStep } from "./smoother-backward-step.js";
-import { absorbPoint, projectState } from "./state-update.js";
+import { absorbPoint, projectState, stepState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
 
 /**
@@ -66,11 +66,8 @@ export class SemiseparableConditionedStates {
     const f = new Float64Array(r);
     const projection = new Float64Array(2);
     for (let k = 0; k < n; k++) {
-      if (k > 0) {
-        layout.computeTransitions(time[k] - time[k - 1]);
-        layout.applyCongruence(s, 0);
-        layout.applyToVector(f, 0);
-      }
+      // The shared forward step (state-update.ts); point k - 1 was absorbed at the end of its own iteration.
+      if (k > 0) stepState(layout, s, f, gains, 0, 0, 0, time[k] - time[k - 1], false);
       projectState(s, f, p, q, gains, k * r, r, projection);
       const pivot = noiseVariance[k] + variance - projection[0];
       if (!(pivot > 0) || !Number.isFinite(pivot)) throw new FactorizationError(k, pivot);
