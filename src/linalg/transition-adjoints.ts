@@ -190,16 +190,12 @@ const oscillatorAdjointText = accumulateBlockAdjointSource(
   arrayElements("tape", "tapeOffset", 3),
   arrayElements("accumulators", "at", 6),
 );
-const oscillatorAdjoint: (
-  dt: number,
-  phiBar: Float64Array,
-  phi: Float64Array,
-  phiOffset: number,
-  tape: Float64Array,
-  tapeOffset: number,
-  accumulators: Float64Array,
-  at: number,
-) => void = compileHelper(["dt", "phiBar", "phi", "phiOffset", "tape", "tapeOffset", "accumulators", "at"], `${oscillatorAdjointText} return;`, {}, oscillatorAdjointPlain);
+const oscillatorAdjoint: typeof oscillatorAdjointPlain = compileHelper(
+  ["dt", "phiBar", "phi", "phiOffset", "tape", "tapeOffset", "accumulators", "at"],
+  `${oscillatorAdjointText} return;`,
+  {},
+  oscillatorAdjointPlain,
+);
 
 /** The same step written plainly, for hosts without run-time compilation (where no written-out pass runs to agree with). */
 function oscillatorAdjointPlain(
