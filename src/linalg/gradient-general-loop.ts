@@ -101,99 +101,137 @@ export function backwardGeneralLoop(
   end: number,
 ): void {
   const r = layout.dimension;
-  const p = form.observation;
-  const q = form.projection;
   const blocks = form.blocks;
-  const { product, phi, phiBar, vector, packed, derivatives, transitions } = scratch;
-  const width = layout.width;
-  const sb = layout.stateBar;
+  const { product, phi, transitions } = scratch;
   for (let k = end - 1; k >= begin; k--) {
-    const base = k * width;
-    // The point's own terms of log L.
-    const inversePivot = tape[base + layout.inversePivot];
-    const z = tape[base + layout.innovation];
-    const w = z * inversePivot;
-    const zBar = adjoint[layout.innovationBar] - w;
-    const dBar = adjoint[layout.pivotBar] + 0.5 * (w * w - inversePivot);
-    adjoint[layout.residualBarSum] += zBar;
-    adjoint[layout.noiseBarSum] += dBar;
+    const base = k * layout.width;
+    const { zBar, dBar } = localTerms(form, layout, tape, base, adjoint);
     if (residualBar) residualBar[k] = zBar;
     if (noiseBar) noiseBar[k] = dBar;
-    if (layout.observationVaries) observationStep(layout, tape, base, p, q, adjoint, zBar, dBar, r);
-    for (let i = 0; i < r; i++) {
-      adjoint[layout.gainBarSum + i] += adjoint[layout.gainBar + i];
-      adjoint[layout.meanBar + i] -= zBar * p[i];
-    }
-    for (let i = 0; i < r; i++)
-      for (let j = i; j < r; j++) {
-        const ub = layout.gainBar;
-        adjoint[sb + packedIndex(i, j, r)] -= dBar * (p[i] * p[j]) + 0.5 * (adjoint[ub + i] * p[j] + p[i] * adjoint[ub + j]);
-      }
     if (k === 0) break;
-
-    // Through S_k = Phi A Phi^T and f_k = Phi g.
+    // Through S_k = Phi A Phi^T and f_k = Phi g, then through point k - 1's update.
     const dt = time[k] - time[k - 1];
     for (let b = 0; b < blocks.length; b++) transitionFromTape(layout.kinds[b], blocks[b], tape, base + layout.blockRecord[b], phi, transitions.phiStart[b]);
     stateBarTimesTransition(layout, transitions, adjoint, product, r);
-    for (let b = 0; b < blocks.length; b++) {
-      const start = layout.blockStart[b];
-      const m = layout.blockSize[b];
-      for (let i = 0; i < m; i++)
-        for (let j = 0; j < m; j++) {
-          const row = start + i;
-          const column = start + j;
-          let sum = product[row * r] * tape[base + layout.stateBefore + packedIndex(0, column, r)];
-          for (let l = 1; l < r; l++) sum += product[row * r + l] * tape[base + layout.stateBefore + packedIndex(l, column, r)];
-          phiBar[i * m + j] = 2 * sum + adjoint[layout.meanBar + row] * tape[base + layout.meanBefore + column];
-        }
-      accumulateBlockAdjoint(
-        layout.kinds[b], blocks[b], dt, phiBar, phi, transitions.phiStart[b], tape, base + layout.blockRecord[b],
-        adjoint, layout.blockAccumulators[b], kernelBar, derivatives,
-      );
-    }
-    // A-bar = Phi^T N (upper triangle) and g-bar = Phi^T f-bar.
-    for (let b = 0; b < blocks.length; b++) {
-      const start = layout.blockStart[b];
-      const m = layout.blockSize[b];
-      const o = transitions.phiStart[b];
-      for (let i = start; i < start + m; i++)
-        for (let j = i; j < r; j++) {
-          let sum = phi[o + (i - start)] * product[start * r + j];
-          for (let l = 1; l < m; l++) sum += phi[o + l * m + (i - start)] * product[(start + l) * r + j];
-          packed[packedIndex(i, j, r)] = sum;
-        }
-      for (let i = start; i < start + m; i++) {
-        let sum = phi[o + (i - start)] * adjoint[layout.meanBar + start];
-        for (let l = 1; l < m; l++) sum += phi[o + l * m + (i - start)] * adjoint[layout.meanBar + start + l];
-        vector[i] = sum;
-      }
-    }
-    for (let e = 0; e < layout.packedLength; e++) adjoint[sb + e] = packed[e];
-    for (let i = 0; i < r; i++) adjoint[layout.meanBar + i] = vector[i];
-
-    // Through A = S_{k-1} + u u^T / D and g = f_{k-1} + u z / D of point k - 1.
-    const previous = base - width;
-    const previousInverse = tape[previous + layout.inversePivot];
-    const previousZ = tape[previous + layout.innovation];
-    const u = previous + layout.gain;
-    let uAu = 0;
-    let ug = 0;
-    for (let i = 0; i < r; i++) {
-      let sum = adjoint[sb + packedIndex(i, 0, r)] * tape[u];
-      for (let j = 1; j < r; j++) sum += adjoint[sb + packedIndex(i, j, r)] * tape[u + j];
-      vector[i] = sum;
-      if (i === 0) {
-        uAu = tape[u] * sum;
-        ug = tape[u] * adjoint[layout.meanBar];
-      } else {
-        uAu += tape[u + i] * sum;
-        ug += tape[u + i] * adjoint[layout.meanBar + i];
-      }
-    }
-    for (let i = 0; i < r; i++) adjoint[layout.gainBar + i] = (2 * vector[i] + previousZ * adjoint[layout.meanBar + i]) * previousInverse;
-    adjoint[layout.pivotBar] = -(uAu + previousZ * ug) * (previousInverse * previousInverse);
-    adjoint[layout.innovationBar] = ug * previousInverse;
+    transitionAdjoints(form, layout, tape, base, dt, adjoint, kernelBar, scratch);
+    transposedProducts(layout, adjoint, scratch);
+    previousUpdate(layout, tape, base, adjoint, scratch.vector);
   }
+}
+
+/**
+ * The point's terms of log L, z = r - p^T f, D = d + p^T q - p^T S p and u = q - S p, into the running
+ * adjoints; returns z-bar and D-bar of the point.
+ */
+function localTerms(
+  form: SemiseparableForm,
+  layout: GradientTapeLayout,
+  tape: Float64Array,
+  base: number,
+  adjoint: Float64Array,
+): { zBar: number; dBar: number } {
+  const r = layout.dimension;
+  const p = form.observation;
+  const inversePivot = tape[base + layout.inversePivot];
+  const z = tape[base + layout.innovation];
+  const w = z * inversePivot;
+  const zBar = adjoint[layout.innovationBar] - w;
+  const dBar = adjoint[layout.pivotBar] + 0.5 * (w * w - inversePivot);
+  adjoint[layout.residualBarSum] += zBar;
+  adjoint[layout.noiseBarSum] += dBar;
+  if (layout.observationVaries) observationStep(layout, tape, base, p, form.projection, adjoint, zBar, dBar, r);
+  for (let i = 0; i < r; i++) {
+    adjoint[layout.gainBarSum + i] += adjoint[layout.gainBar + i];
+    adjoint[layout.meanBar + i] -= zBar * p[i];
+  }
+  const ub = layout.gainBar;
+  for (let i = 0; i < r; i++)
+    for (let j = i; j < r; j++) {
+      adjoint[layout.stateBar + packedIndex(i, j, r)] -= dBar * (p[i] * p[j]) + 0.5 * (adjoint[ub + i] * p[j] + p[i] * adjoint[ub + j]);
+    }
+  return { zBar, dBar };
+}
+
+/** Phi-bar = 2 N A + f-bar g^T on each diagonal block (N = S-bar Phi in scratch.product), into the block's sums. */
+function transitionAdjoints(
+  form: SemiseparableForm,
+  layout: GradientTapeLayout,
+  tape: Float64Array,
+  base: number,
+  dt: number,
+  adjoint: Float64Array,
+  kernelBar: Float64Array,
+  scratch: BackwardScratch,
+): void {
+  const r = layout.dimension;
+  const { product, phi, phiBar, derivatives, transitions } = scratch;
+  for (let b = 0; b < form.blocks.length; b++) {
+    const start = layout.blockStart[b];
+    const m = layout.blockSize[b];
+    for (let i = 0; i < m; i++)
+      for (let j = 0; j < m; j++) {
+        const row = start + i;
+        const column = start + j;
+        let sum = product[row * r] * tape[base + layout.stateBefore + packedIndex(0, column, r)];
+        for (let l = 1; l < r; l++) sum += product[row * r + l] * tape[base + layout.stateBefore + packedIndex(l, column, r)];
+        phiBar[i * m + j] = 2 * sum + adjoint[layout.meanBar + row] * tape[base + layout.meanBefore + column];
+      }
+    accumulateBlockAdjoint(
+      layout.kinds[b], form.blocks[b], dt, phiBar, phi, transitions.phiStart[b], tape, base + layout.blockRecord[b],
+      adjoint, layout.blockAccumulators[b], kernelBar, derivatives,
+    );
+  }
+}
+
+/** A-bar = Phi^T N (upper triangle) into S-bar, and g-bar = Phi^T f-bar into f-bar. */
+function transposedProducts(layout: GradientTapeLayout, adjoint: Float64Array, scratch: BackwardScratch): void {
+  const r = layout.dimension;
+  const { product, phi, vector, packed, transitions } = scratch;
+  for (let b = 0; b < layout.blockStart.length; b++) {
+    const start = layout.blockStart[b];
+    const m = layout.blockSize[b];
+    const o = transitions.phiStart[b];
+    for (let i = start; i < start + m; i++)
+      for (let j = i; j < r; j++) {
+        let sum = phi[o + (i - start)] * product[start * r + j];
+        for (let l = 1; l < m; l++) sum += phi[o + l * m + (i - start)] * product[(start + l) * r + j];
+        packed[packedIndex(i, j, r)] = sum;
+      }
+    for (let i = start; i < start + m; i++) {
+      let sum = phi[o + (i - start)] * adjoint[layout.meanBar + start];
+      for (let l = 1; l < m; l++) sum += phi[o + l * m + (i - start)] * adjoint[layout.meanBar + start + l];
+      vector[i] = sum;
+    }
+  }
+  for (let e = 0; e < layout.packedLength; e++) adjoint[layout.stateBar + e] = packed[e];
+  for (let i = 0; i < r; i++) adjoint[layout.meanBar + i] = vector[i];
+}
+
+/** Through A = S_{k-1} + u u^T / D and g = f_{k-1} + u z / D of point k - 1: u-bar, D-bar and z-bar arriving there. */
+function previousUpdate(layout: GradientTapeLayout, tape: Float64Array, base: number, adjoint: Float64Array, vector: Float64Array): void {
+  const r = layout.dimension;
+  const sb = layout.stateBar;
+  const previous = base - layout.width;
+  const previousInverse = tape[previous + layout.inversePivot];
+  const previousZ = tape[previous + layout.innovation];
+  const u = previous + layout.gain;
+  let uAu = 0;
+  let ug = 0;
+  for (let i = 0; i < r; i++) {
+    let sum = adjoint[sb + packedIndex(i, 0, r)] * tape[u];
+    for (let j = 1; j < r; j++) sum += adjoint[sb + packedIndex(i, j, r)] * tape[u + j];
+    vector[i] = sum;
+    if (i === 0) {
+      uAu = tape[u] * sum;
+      ug = tape[u] * adjoint[layout.meanBar];
+    } else {
+      uAu += tape[u + i] * sum;
+      ug += tape[u + i] * adjoint[layout.meanBar + i];
+    }
+  }
+  for (let i = 0; i < r; i++) adjoint[layout.gainBar + i] = (2 * vector[i] + previousZ * adjoint[layout.meanBar + i]) * previousInverse;
+  adjoint[layout.pivotBar] = -(uAu + previousZ * ug) * (previousInverse * previousInverse);
+  adjoint[layout.innovationBar] = ug * previousInverse;
 }
 
 /** N = S-bar Phi (R x R), S-bar read from its packed form in `adjoint`; Phi block diagonal. */
