@@ -22,37 +22,50 @@ import { childSeed, createRng } from "../src/random/rng.js";
 export interface SimulatedQuasarOptions {
   readonly objects: number;
   readonly seed: number | string;
-  /** Observing seasons; 6 seasons of the default cadence give about 250 points per light curve. */
+  /**
+   * Observing seasons (default 10): each a 182.6-d window visited every 6 nights with 30% lost to
+   * weather, about 21 epochs a season, so ten seasons give about 200 epochs over 9.5 years.
+   */
   readonly seasons?: number;
 }
 
 /** One simulated quasar: its id, true DRW parameters and observed light curve. */
 export interface SimulatedQuasar {
   readonly id: string;
-  /** True damping timescale in days, log-uniform in [50, 500]. */
+  /** True damping timescale in days (observed frame), log-uniform from 100 d to the baseline. */
   readonly tau: number;
-  /** True asymptotic standard deviation in magnitudes, uniform in [0.1, 0.3]. */
+  /** True asymptotic standard deviation in magnitudes, log-uniform in [0.05, 0.25]. */
   readonly sigma: number;
-  /** True mean magnitude, uniform in [18, 21]. */
+  /** True mean magnitude, uniform in [19, 22]. */
   readonly mean: number;
   readonly lightCurve: LightCurve;
 }
 
+/** Single-visit 5-sigma depth of the simulated survey (mag): errors 0.005 mag (floor) at 19 to 0.05 at 22. */
+export const SIMULATED_DEPTH = 23.5;
+
 /**
  * Draws quasar light curves one at a time (so a large catalogue never sits in memory). Object k has
  * its own generator seeded with childSeed(seed, k), so any object can be re-created alone.
+ *
+ * The population: observed-frame damping timescales log-uniform from 100 d up to the baseline and
+ * amplitudes sigma = SF_inf / sqrt(2) of 0.05-0.25 mag, the range of MacLeod et al. 2010 (ApJ 721, 1014)
+ * for quasars of redshift 0.5-3 (from memory); mean magnitudes 19-22; per-visit errors of Ivezic et al.
+ * 2019 eq. 5 at a 5-sigma depth of 23.5 with a 0.005 mag floor (src/lightcurve/photometric-error.ts).
  */
 export function* simulatedQuasars(options: SimulatedQuasarOptions): Generator<SimulatedQuasar> {
   for (let k = 0; k < options.objects; k++) {
     const rng = createRng(childSeed(options.seed, k));
     const id = `LQ-${String(k + 1).padStart(5, "0")}`;
-    const tau = Math.exp(Math.log(50) + rng.uniform() * Math.log(10));
-    const sigma = 0.1 + 0.2 * rng.uniform();
-    const mean = 18 + 3 * rng.uniform();
-    const time = seasonalGroundCadence({ start: 59000, seasons: options.seasons ?? 6 }, rng);
+    const time = seasonalGroundCadence({ start: 59000, seasons: options.seasons ?? 10, revisitInterval: 6 }, rng);
+    const baseline = time[time.length - 1]! - time[0]!;
+    const shortest = Math.min(100, baseline / 2);
+    const tau = Math.exp(Math.log(shortest) + rng.uniform() * Math.log(baseline / shortest));
+    const sigma = Math.exp(Math.log(0.05) + rng.uniform() * Math.log(5));
+    const mean = 19 + 3 * rng.uniform();
     const gp = new GaussianProcess(kernels.dampedRandomWalk({ sigma, tau }), time, { mean });
     const truth = gp.priorDraw(rng);
-    const lightCurve = observeMagnitudes(time, truth, { depth5Sigma: 24 }, rng, `simulated Lanternfield quasar ${id}`);
+    const lightCurve = observeMagnitudes(time, truth, { depth5Sigma: SIMULATED_DEPTH }, rng, `simulated Lanternfield quasar ${id}`);
     yield { id, tau, sigma, mean, lightCurve };
   }
 }
@@ -83,7 +96,7 @@ if (process.argv[1] !== undefined && import.meta.url === pathToFileURL(process.a
     options: {
       objects: { type: "string", default: "12" },
       seed: { type: "string", default: "2026" },
-      seasons: { type: "string", default: "6" },
+      seasons: { type: "string", default: "10" },
       out: { type: "string" },
     },
   });

@@ -9,9 +9,14 @@
 import chi2gof from "@stdlib/stats/chi2gof";
 import { createParameterSpace, type ParameterSpace } from "../src/inference/parameter-space.js";
 import { logUniformPrior, normalPrior } from "../src/inference/priors.js";
+import { posteriorByMethod } from "../src/inference/posterior-by-method.js";
 import { samplePosterior, type SamplerKind } from "../src/inference/sample-posterior.js";
-import { posteriorDraws } from "../src/inference/posterior-draws.js";
+import { posteriorDraws, type PosteriorDraws } from "../src/inference/posterior-draws.js";
 import { seasonalGroundCadence } from "../src/lightcurve/cadence.js";
+import type { LightCurve } from "../src/lightcurve/light-curve.js";
+import { summarizeLightCurve } from "../src/models/data-summary.js";
+import { buildModel } from "../src/models/light-curve-model.js";
+import { collapseMean, restoreMean } from "../src/models/mean-marginal.js";
 import { childSeed, createRng } from "../src/random/rng.js";
 import { dampedRandomWalkLikelihood, simulateDampedRandomWalk } from "./samplers-gp-models.js";
 
@@ -22,7 +27,14 @@ export interface CalibrationOptions {
   readonly drawsPerRank: number;
   /** Histogram bins; (drawsPerRank + 1) must be a multiple of it. */
   readonly bins: number;
-  readonly sampler: SamplerKind;
+  /**
+   * "fit": the path of a DRW fit (fitLightCurveDetailed) with the calibration priors: the mean integrated
+   * out, the posterior by the default method (importance sampling, MCMC when its diagnostics fail), the
+   * mean drawn back. A sampler name: that sampler on the full (tau, sigma, mean) space.
+   */
+  readonly sampler: SamplerKind | "fit";
+  /** "short" (default): 3 seasons of 8 months, tau prior 10-500 d. "realistic": 10 seasons, a visit every 6 nights, tau prior 50-5000 d. */
+  readonly setup?: "short" | "realistic";
   readonly seed: number;
   /** Observing seasons (each about 8 months, a visit every 4 nights, 4-month gaps). */
   readonly seasons?: number;
@@ -45,50 +57,89 @@ export interface CalibrationResult {
   readonly pValues: readonly number[];
   /** Replicates whose fit met the convergence criteria. */
   readonly converged: number;
+  /** Replicates by method ("importance", "ensemble", "nuts"). */
+  readonly methods: Readonly<Record<string, number>>;
 }
 
 /** The prior the calibration draws from and fits with: tau (days), sigma (mag), mean (mag). */
-export function calibrationSpace(): ParameterSpace {
+export function calibrationSpace(setup: "short" | "realistic" = "short"): ParameterSpace {
   return createParameterSpace([
-    { name: "tau", prior: logUniformPrior(10, 500) },
+    { name: "tau", prior: setup === "short" ? logUniformPrior(10, 500) : logUniformPrior(50, 5000) },
     { name: "sigma", prior: logUniformPrior(0.05, 0.5) },
     { name: "mean", prior: normalPrior(19, 0.3) },
   ]);
+}
+
+/**
+ * One replicate along the path of a DRW fit (models/fit-light-curve.ts) with the calibration priors in
+ * place of the data-driven ones: the DRW model's parameters are tau, sigma, mean in that order, as in
+ * the calibration space, so its kernel and process builders apply unchanged.
+ */
+function fitPathDraws(space: ParameterSpace, lightCurve: LightCurve, seed: string, maxEvaluations: number): { draws: PosteriorDraws; converged: boolean; method: string } {
+  const model = { ...buildModel("drw", summarizeLightCurve(lightCurve)), space };
+  const collapsed = collapseMean(model, lightCurve)!;
+  const run = posteriorByMethod(collapsed.space, collapsed.likelihood, { seed, maxEvaluations });
+  const draws = restoreMean(model, collapsed, run.draws, createRng(childSeed(seed, 200)));
+  return { draws, converged: run.diagnostics.converged, method: run.method };
 }
 
 /** Runs the calibration. Every replicate has its own child seed, so the result is fixed by `seed`. */
 export function runCalibration(options: CalibrationOptions): CalibrationResult {
   const { replicates, drawsPerRank, bins } = options;
   if ((drawsPerRank + 1) % bins !== 0) throw new RangeError("drawsPerRank + 1 must be a multiple of bins");
-  const space = calibrationSpace();
+  const setup = options.setup ?? "short";
+  const space = calibrationSpace(setup);
   const names = space.free.map((p) => p.name);
   const ranks: number[][] = names.map(() => []);
+  const methods: Record<string, number> = {};
   let converged = 0;
   for (let r = 0; r < replicates; r++) {
     const rng = createRng(childSeed(options.seed, r));
     const truthVector = space.toPhysical(space.drawFromPrior(rng));
     const truth = { tau: truthVector[0]!, sigma: truthVector[1]!, mean: truthVector[2]! };
     const time = seasonalGroundCadence(
-      { start: 60000, seasons: options.seasons ?? 3, seasonLength: 243, revisitInterval: 4, weatherLoss: 0.3 },
+      setup === "short"
+        ? { start: 60000, seasons: options.seasons ?? 3, seasonLength: 243, revisitInterval: 4, weatherLoss: 0.3 }
+        : { start: 60000, seasons: options.seasons ?? 10, revisitInterval: 6 },
       rng,
     );
     const { value, error } = simulateDampedRandomWalk(time, truth, 0.04, rng);
-    const fit = samplePosterior(space, dampedRandomWalkLikelihood(time, value, error), {
-      seed: childSeed(options.seed, 100000 + r),
-      sampler: options.sampler,
-      maxEvaluations: options.maxEvaluations ?? 1e6,
-      ...(options.warmup !== undefined ? { warmup: options.warmup } : {}),
-      ...(options.chains !== undefined ? { chains: options.chains } : {}),
-    });
-    if (fit.diagnostics.converged) converged++;
-    options.onReplicate?.(r, fit.diagnostics.converged);
-    const draws = posteriorDraws(space, fit.run);
+    const seed = childSeed(options.seed, 100000 + r);
+    const maxEvaluations = options.maxEvaluations ?? 1e6;
+    let draws: PosteriorDraws;
+    let fitConverged: boolean;
+    if (options.sampler === "fit") {
+      const lightCurve: LightCurve = {
+        time,
+        value,
+        error,
+        unit: "mag",
+        provenance: { source: `calibration ${r}`, timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: false },
+      };
+      const fit = fitPathDraws(space, lightCurve, seed, maxEvaluations);
+      draws = fit.draws;
+      fitConverged = fit.converged;
+      methods[fit.method] = (methods[fit.method] ?? 0) + 1;
+    } else {
+      const fit = samplePosterior(space, dampedRandomWalkLikelihood(time, value, error), {
+        seed,
+        sampler: options.sampler,
+        maxEvaluations,
+        ...(options.warmup !== undefined ? { warmup: options.warmup } : {}),
+        ...(options.chains !== undefined ? { chains: options.chains } : {}),
+      });
+      draws = posteriorDraws(space, fit.run);
+      fitConverged = fit.diagnostics.converged;
+      methods[fit.sampler] = (methods[fit.sampler] ?? 0) + 1;
+    }
+    if (fitConverged) converged++;
+    options.onReplicate?.(r, fitConverged);
     const total = draws.chain.length;
     // A fit stopped before it kept any draws has no ranks; it must not pass as rank 0.
-    if (total < drawsPerRank) throw new Error(`replicate ${r}: the fit kept ${total} draws (${fit.stopReason})`);
+    if (total < drawsPerRank) throw new Error(`replicate ${r}: the fit kept ${total} draws`);
     names.forEach((name, i) => ranks[i]!.push(rankOfTruth(draws.columns[name]!, truthVector[i]!, drawsPerRank)));
   }
-  return { names, ranks, converged, ...rankUniformity(ranks, drawsPerRank, bins) };
+  return { names, ranks, converged, methods, ...rankUniformity(ranks, drawsPerRank, bins) };
 }
 
 /**

@@ -19,6 +19,7 @@ export const FIT_OPTIONS = {
   jitter: { type: "boolean" },
   robust: { type: "boolean" },
   sampler: { type: "string" },
+  method: { type: "string" },
   "max-evaluations": { type: "string" },
   "min-period": { type: "string" },
   "max-period": { type: "string" },
@@ -36,7 +37,10 @@ export const FIT_HELP = `  --model NAME            ${MODEL_NAMES.join(", ")}: dr
   --jitter                fit a white-noise term even when there is an error column
   --robust                Student-t noise: down-weights outliers and reports each point's outlier
                           probability (needs an error column)
-  --sampler nuts|ensemble the sampler (default ${DEFAULT_SAMPLER}, the cheaper per effective draw on these models)
+  --method auto|mcmc      auto (default without --sampler): importance sampling from a proposal fitted
+                          at the mode, MCMC when its diagnostics (k-hat, ESS) fail; mcmc: MCMC only
+  --sampler nuts|ensemble the MCMC sampler (default ${DEFAULT_SAMPLER}, the cheaper per effective draw
+                          on these models); giving it implies --method mcmc
   --max-evaluations N     budget in log-likelihood evaluations, a positive integer (default 2e6);
                           a fit that runs out is reported with diagnostics.converged false
   --min-period P          shortest period searched and allowed (periodic models; default twice the
@@ -45,7 +49,7 @@ export const FIT_HELP = `  --model NAME            ${MODEL_NAMES.join(", ")}: dr
                           for quasi-periodic rotation, which needs two cycles)`;
 
 /** The fit choices of a command line, validated: the options of a fit without its callbacks. */
-export type FitArguments = Omit<FitOptions, "model" | "seed" | "onProgress" | "signal" | "clock" | "keptDraws"> & {
+export type FitArguments = Omit<FitOptions, "model" | "seed" | "onProgress" | "signal" | "clock" | "keptDraws" | "importance"> & {
   readonly model?: ModelName;
   readonly seed: number;
 };
@@ -71,6 +75,8 @@ export function fitArguments(values: VerbArguments["values"], modelRequired: boo
   const sampler = textOption(values, "sampler");
   if (sampler !== undefined && sampler !== "nuts" && sampler !== "ensemble")
     throw new UsageError(`--sampler must be nuts or ensemble, got "${sampler}"`);
+  const method = textOption(values, "method");
+  if (method !== undefined && method !== "auto" && method !== "mcmc") throw new UsageError(`--method must be auto or mcmc, got "${method}"`);
   const redshift = numberOption(values, "redshift");
   if (redshift !== undefined && !(redshift >= 0)) throw new UsageError(`--redshift must be a number >= 0, got "${textOption(values, "redshift")}"`);
   const maxEvaluations = integerOption(values, "max-evaluations", 1);
@@ -84,6 +90,7 @@ export function fitArguments(values: VerbArguments["values"], modelRequired: boo
     ...(values.robust === true ? { robust: true } : {}),
     ...(redshift !== undefined ? { redshift } : {}),
     ...(sampler !== undefined ? { sampler: sampler as SamplerKind } : {}),
+    ...(method !== undefined ? { method: method as "auto" | "mcmc" } : {}),
     ...(maxEvaluations !== undefined ? { maxEvaluations } : {}),
     ...periodLimits(values),
   };
@@ -109,6 +116,7 @@ export function fitArgumentList(choice: FitArguments): string[] {
   if (choice.jitter) list.push("--jitter");
   if (choice.robust) list.push("--robust");
   if (choice.sampler !== undefined) list.push("--sampler", choice.sampler);
+  if (choice.method !== undefined) list.push("--method", choice.method);
   if (choice.maxEvaluations !== undefined) list.push("--max-evaluations", String(choice.maxEvaluations));
   if (choice.minimumPeriod !== undefined) list.push("--min-period", String(choice.minimumPeriod));
   if (choice.maximumPeriod !== undefined) list.push("--max-period", String(choice.maximumPeriod));

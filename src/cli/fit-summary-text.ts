@@ -1,4 +1,5 @@
 import type { FitResult } from "../models/fit-result.js";
+import { importanceFigures } from "../models/importance-figures.js";
 import { convergenceFigure } from "../report/format-measurement.js";
 import { parameterUnit } from "../report/parameter-display.js";
 
@@ -24,7 +25,7 @@ export function fitSummaryText(result: FitResult, label?: string): string {
   for (const [name, s] of Object.entries(result.derived)) lines.push(row(name, s));
   const d = result.diagnostics;
   lines.push(
-    `  ${d.converged ? "converged" : "NOT converged"}: R-hat max ${convergenceFigure(d.rhatMax, 5)}, ESS min ${convergenceFigure(d.essMin, 3)}, ` +
+    `  ${d.converged ? "converged" : "NOT converged"}: ${d.method === "importance" ? `importance sampling, ${importanceFigures(d)}` : `R-hat max ${convergenceFigure(d.rhatMax, 5)}, ESS min ${convergenceFigure(d.essMin, 3)}`}, ` +
       `${Math.round(d.likelihoodEvaluations)} log-likelihood evaluations, ${d.seconds.toFixed(1)} s`,
   );
   for (const warning of result.warnings) lines.push(`  warning: ${warning}`);

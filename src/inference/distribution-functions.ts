@@ -38,3 +38,7 @@ export const uniformQuantile: (p: number, a: number, b: number) => number = unif
 import gammaCdfFunction from "@stdlib/stats/base/dists/gamma/cdf/lib/index.js";
 /** Gamma CDF with shape alpha and rate beta. */
 export const gammaCdf: (x: number, alpha: number, beta: number) => number = gammaCdfFunction;
+
+import studentTLogPdfFunction from "@stdlib/stats/base/dists/t/logpdf/lib/index.js";
+/** Student-t ln density with nu degrees of freedom (location 0, scale 1). */
+export const studentTLogPdf: (x: number, nu: number) => number = studentTLogPdfFunction;

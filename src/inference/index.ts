@@ -82,3 +82,19 @@ export {
 } from "./sample-posterior.js";
 export { planWarmup, type WarmupPlan } from "./warmup-schedule.js";
 export { checkGrowthAfter } from "./check-schedule.js";
+export {
+  posteriorByMethod,
+  markovPosterior,
+  IMPORTANCE_MAX_DIMENSION,
+  type PosteriorMethod,
+  type MethodPosterior,
+  type MethodPosteriorOptions,
+  type MethodDiagnostics,
+} from "./posterior-by-method.js";
+export { importanceSample, type ImportanceSample, type ImportanceSamplingOptions, type ImportanceRound } from "./importance-sampling.js";
+export { paretoSmoothedWeights, paretoShapeThreshold, type SmoothedWeights } from "./pareto-smoothed-weights.js";
+export { fitGeneralizedPareto, generalizedParetoQuantile } from "./generalized-pareto-fit.js";
+export { studentTProposal, type StudentTProposal } from "./student-t-proposal.js";
+export { profileProposal, type ImportanceProposal, type ProfileProposalOptions } from "./profile-proposal.js";
+export { modeCovariance } from "./mode-covariance.js";
+export { systematicResample } from "./weighted-resampling.js";

@@ -50,6 +50,12 @@ export interface PosteriorSamplingOptions extends RunSamplerOptions {
   readonly walkers?: number;
   /** Ensemble proposals (default the mixture of {@link defaultWalkerProposals}). */
   readonly proposals?: readonly WeightedProposal[];
+  /**
+   * A maximum a posteriori found already (physical parameterisation, no Jacobian), with what finding it
+   * cost in log-likelihood evaluations: the optimisation is then not repeated, and that cost is charged
+   * to the budget. Used when importance sampling was tried first and its diagnostics failed.
+   */
+  readonly maximum?: { readonly found: MaximumPosterior; readonly evaluations: number };
 }
 
 /** The result of {@link samplePosterior}. */
@@ -121,10 +127,17 @@ export function samplePosterior(
   if (space.dimension === 0) throw new RangeError("posterior sampling: every parameter is fixed");
 
   const seed = options.seed;
-  const optimiserTarget = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: false }));
-  const starts = startingPoints(space, options.starts ?? 6, createRng(childSeed(seed, 0)), options.initial);
-  const maximum: MaximumPosterior = findMaximumPosterior(optimiserTarget, { starts });
-  const optimizerEvaluations = evaluationCost(optimiserTarget.counts, gradientCost);
+  let maximum: MaximumPosterior;
+  let optimizerEvaluations: number;
+  if (options.maximum) {
+    maximum = options.maximum.found;
+    optimizerEvaluations = options.maximum.evaluations;
+  } else {
+    const optimiserTarget = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: false }));
+    const starts = startingPoints(space, options.starts ?? 6, createRng(childSeed(seed, 0)), options.initial);
+    maximum = findMaximumPosterior(optimiserTarget, { starts });
+    optimizerEvaluations = evaluationCost(optimiserTarget.counts, gradientCost);
+  }
 
   const target = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: true }));
   // Samplers start around the mode of the density they sample (with the Jacobian), reached from the

@@ -1,40 +1,55 @@
 import { UsageError } from "../errors/usage-error.js";
-import type { PosteriorDraws, PosteriorSample } from "../inference/index.js";
+import type { MethodPosterior, PosteriorDraws } from "../inference/index.js";
 import type { FitDiagnostics } from "./fit-result.js";
 
 /** The diagnostics of a fit, with the count of kept draws always present. */
 export type CombinedDiagnostics = FitDiagnostics & { readonly keptDraws: number };
 
 /**
- * The diagnostics stage of a fit: the runs of all modes combined by their worst figures (largest
- * R-hat and autocorrelation time, smallest ESS and R-hat bound), the mean acceptance, the summed
- * evaluations. Converged only when every run converged and every figure was computed and held: a
- * NaN R-hat, ESS or autocorrelation time (too few draws to compute it) is never converged.
- * `seconds` is the whole fit's wall time.
+ * The diagnostics stage of a fit: the runs of all modes combined by their worst figures over the runs
+ * that have them (largest R-hat, autocorrelation time and k-hat; smallest ESS, R-hat bound and k-hat
+ * threshold; R-hat, autocorrelation time and acceptance exist for MCMC runs only, k-hat for importance
+ * sampling only, and a figure no run has is null), the mean acceptance, the summed evaluations and
+ * kept draws, and the method of each run. Converged only when every run converged and, for MCMC runs,
+ * every figure was computed and held: a NaN R-hat, ESS or autocorrelation time (too few draws to
+ * compute it) is never converged. `seconds` is the whole fit's wall time.
  */
-export function combinedDiagnostics(runs: readonly PosteriorSample[], seconds: number): CombinedDiagnostics {
+export function combinedDiagnostics(runs: readonly MethodPosterior[], seconds: number): CombinedDiagnostics {
+  const figures = (pick: (d: MethodPosterior["diagnostics"]) => number | null | undefined): number[] =>
+    runs.map((run) => pick(run.diagnostics)).filter((v): v is number => typeof v === "number");
   // The reducer is called with (a, b) only: Math.max as a reduce callback would also see the index and
   // the array (NaN), and every multi-mode fit would report NaN.
-  const worst = (pick: (run: PosteriorSample) => number, better: (a: number, b: number) => number) =>
-    runs.map(pick).reduce((a, b) => better(a, b));
-  const stopped = runs.find((run) => run.stopReason !== "converged");
-  const rhatMax = worst((run) => run.diagnostics.rhatMax, Math.max);
-  const rhatThreshold = worst((run) => run.diagnostics.rhatThreshold, Math.min);
-  const essMin = worst((run) => run.diagnostics.essMin, Math.min);
-  const autocorrelationTime = worst((run) => run.diagnostics.autocorrelationTime, Math.max);
-  const computed = Number.isFinite(rhatMax) && Number.isFinite(essMin) && Number.isFinite(autocorrelationTime);
+  const worst = (values: number[], better: (a: number, b: number) => number): number | null =>
+    values.length > 0 ? values.reduce((a, b) => better(a, b)) : null;
+  const markovHeld = (d: MethodPosterior["diagnostics"]): boolean =>
+    d.method === "importance" ||
+    (Number.isFinite(d.rhatMax) && Number.isFinite(d.essMin) && Number.isFinite(d.autocorrelationTime) && d.rhatMax! < d.rhatThreshold!);
+  const acceptances = figures((d) => d.acceptance);
+  const methods = runs.map((run) => run.method);
+  const markov = runs.find((run) => run.sample !== undefined);
+  const fallbacks = runs.map((run) => run.diagnostics.importanceFallback).filter((v): v is string => v !== undefined);
+  const paretoK = worst(figures((d) => d.paretoK), Math.max);
+  const paretoKThreshold = worst(figures((d) => d.paretoKThreshold), Math.min);
+  const importanceDraws = worst(figures((d) => (d.method === "importance" ? d.importanceDraws : undefined)), Math.min);
+  const stopped = runs.find((run) => run.diagnostics.stopReason !== "converged");
   return {
-    converged: runs.every((run) => run.diagnostics.converged) && computed && rhatMax < rhatThreshold,
-    rhatMax,
-    rhatThreshold,
-    essMin,
-    autocorrelationTime,
-    acceptance: runs.reduce((sum, run) => sum + run.diagnostics.acceptance, 0) / runs.length,
+    converged: runs.every((run) => run.diagnostics.converged && markovHeld(run.diagnostics)),
+    rhatMax: worst(figures((d) => d.rhatMax), Math.max),
+    rhatThreshold: worst(figures((d) => d.rhatThreshold), Math.min),
+    essMin: worst(figures((d) => d.essMin), Math.min) ?? NaN,
+    autocorrelationTime: worst(figures((d) => d.autocorrelationTime), Math.max),
+    acceptance: acceptances.length > 0 ? acceptances.reduce((a, b) => a + b, 0) / acceptances.length : null,
     likelihoodEvaluations: runs.reduce((sum, run) => sum + run.diagnostics.likelihoodEvaluations, 0),
     seconds,
-    sampler: runs[0].sampler,
-    stopReason: stopped ? stopped.stopReason : "converged",
+    method: methods.every((m) => m === methods[0]) ? methods[0]! : "mixed",
+    ...(methods.length > 1 ? { methods } : {}),
+    ...(markov?.sample ? { sampler: markov.sample.sampler } : {}),
+    stopReason: stopped ? stopped.diagnostics.stopReason : "converged",
     keptDraws: runs.reduce((sum, run) => sum + run.diagnostics.keptDraws, 0),
+    ...(paretoK !== null ? { paretoK } : {}),
+    ...(paretoKThreshold !== null ? { paretoKThreshold } : {}),
+    ...(importanceDraws !== null ? { importanceDraws } : {}),
+    ...(fallbacks.length > 0 ? { importanceFallback: fallbacks.join("; ") } : {}),
   };
 }
 

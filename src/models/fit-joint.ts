@@ -1,4 +1,4 @@
-import { DEFAULT_SAMPLER, posteriorDraws, samplePosterior, type PosteriorDraws, type PosteriorSample } from "../inference/index.js";
+import { DEFAULT_SAMPLER, markovPosterior, samplePosterior, type PosteriorDraws, type PosteriorSample } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { combinedDiagnostics } from "./fit-diagnostics.js";
 import type { FitOptions } from "./fit-options.js";
@@ -70,7 +70,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
     ...(options.signal ? { signal: options.signal } : {}),
     clock,
   });
-  const sampled = posteriorDraws(run.space, run.run);
+  const sampled = markovPosterior(run).draws;
   const draws = collapsed ? restoreBandMeans(model, collapsed, sampled, createRng(childSeed(options.seed, 200))) : sampled;
   let maximumPosterior: Record<string, number> = { ...run.maximum };
   if (collapsed) {
@@ -79,7 +79,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
     maximumPosterior = Object.fromEntries(model.space.names.map((name) => [name, maximumPosterior[name]!]));
   }
   const summaries = posteriorSummaries(draws, model.space.names, options.model, options.redshift);
-  const diagnostics = combinedDiagnostics([run], (clock() - start) / 1000);
+  const diagnostics = combinedDiagnostics([markovPosterior(run)], (clock() - start) / 1000);
   const referenceCurve = lightCurves[model.reference];
   const dropped = lightCurves.reduce((sum, lc) => sum + lc.provenance.dropped, 0);
   const provenance = referenceCurve.provenance;

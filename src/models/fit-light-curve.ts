@@ -1,4 +1,4 @@
-import { posteriorDraws, type PosteriorDraws, type PosteriorSample } from "../inference/index.js";
+import type { MethodPosterior, PosteriorDraws } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { summarizeLightCurve, type DataSummary } from "./data-summary.js";
 import { requireEnoughPoints, requireVariableData } from "./fit-data-support.js";
@@ -27,8 +27,8 @@ export interface DetailedFit {
   readonly summary: DataSummary;
   /** Pooled posterior draws (all chains, physical units). */
   readonly draws: PosteriorDraws;
-  /** The sampler run of each period mode (one run when the posterior is unimodal). */
-  readonly runs: readonly PosteriorSample[];
+  /** The posterior of each period mode (one when the posterior is unimodal), by whichever method computed it. */
+  readonly runs: readonly MethodPosterior[];
   readonly modes: readonly PeriodMode[];
   /** The light curve the posterior is conditioned on (errors inflated by the robust weights, if any). */
   readonly conditioning: LightCurve;
@@ -56,9 +56,10 @@ export function fitLightCurve(lightCurve: LightCurve, options: FitOptions): FitR
  * 3. robust noise (`fit-robust-stage.ts`): with `robust`, Student-t weights folded into the errors;
  * 4. modes (`fit-mode-plan.ts`): the period modes at P, P/2 and 2P weighted by their Laplace evidence;
  *    every mode with more than 1% of the probability gets a sampler start;
- * 5. sampling (`fit-sampling.ts`): one run per start, until converged or out of budget; with the
- *    ensemble the constant mean is integrated out (`collapseMean`), which removes the funnel between
- *    timescale and mean;
+ * 5. sampling (`fit-sampling.ts`): the posterior from each start by Pareto-smoothed importance
+ *    sampling, or by MCMC until converged or out of budget when its diagnostics fail (or a sampler is
+ *    asked for); except with NUTS the constant mean is integrated out (`collapseMean`), which removes
+ *    the funnel between timescale and mean;
  * 6. pooling (`fit-pooling.ts`): the runs' draws in proportion to their modes' probabilities, so a
  *    multimodal posterior is reported as such;
  * 7. mean restoration (`fit-mean-restoration.ts`): the mean drawn back from its conditional posterior;
@@ -92,7 +93,7 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   timer.lap("modes");
   const { runs, collapsed } = sampleStarts(model, conditioning, likelihood, plan, options, clock);
   timer.lap("sampling");
-  const pooled = pooledDraws(runs.map((run) => posteriorDraws(run.space, run.run)), plan.weights);
+  const pooled = pooledDraws(runs.map((run) => run.draws), plan.weights);
   const kept = thinnedDraws(pooled, summaryDrawLimit(summary.n));
   timer.lap("pooling");
   const { draws, maximumPosterior } = restoredPosterior(model, collapsed, kept, runs[0].maximum, options.seed);

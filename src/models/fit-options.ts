@@ -1,5 +1,5 @@
 import type { CarmaOrder } from "./carma-model.js";
-import type { CancellationSignal, SamplerKind, SamplerProgress } from "../inference/index.js";
+import type { CancellationSignal, ImportanceSamplingOptions, SamplerKind, SamplerProgress } from "../inference/index.js";
 import type { ModelName } from "./light-curve-model.js";
 
 /** Options of a fit. */
@@ -21,7 +21,15 @@ export interface FitOptions {
   readonly maximumPeriod?: number;
   /** Student-t noise with per-point outlier probabilities instead of Gaussian noise (needs an error column). */
   readonly robust?: boolean;
-  /** "nuts" or "ensemble" (default: DEFAULT_SAMPLER of the inference layer). */
+  /**
+   * "auto" (the default unless `sampler` is given): Pareto-smoothed importance sampling from a proposal
+   * fitted at the mode, with MCMC when its diagnostics fail; "mcmc": the MCMC sampler only (the default
+   * when `sampler` is given). See posteriorByMethod in the inference layer.
+   */
+  readonly method?: "auto" | "mcmc";
+  /** Settings of the importance sampler (draws, proposals, thresholds); the defaults suit most fits. */
+  readonly importance?: ImportanceSamplingOptions;
+  /** "nuts" or "ensemble" (default: DEFAULT_SAMPLER of the inference layer), the sampler MCMC uses. */
   readonly sampler?: SamplerKind;
   /** Budget in log-likelihood evaluations (gradients weighted by their cost); default 2e6. */
   readonly maxEvaluations?: number;

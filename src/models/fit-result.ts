@@ -1,6 +1,5 @@
 import type { ParameterSummary } from "../inference/posterior-summary.js";
-import type { SamplerDiagnostics } from "../inference/sampler-diagnostics.js";
-import type { StopReason } from "../inference/run-sampler.js";
+import type { MethodDiagnostics, PosteriorMethod } from "../inference/posterior-by-method.js";
 import type { SamplerKind } from "../inference/sample-posterior.js";
 import type { PhotometricUnit } from "../lightcurve/light-curve.js";
 import type { ModelName } from "./light-curve-model.js";
@@ -90,12 +89,20 @@ export interface DerivedSummary extends FitParameterSummary {
   readonly description: string;
 }
 
-/** Sampler convergence and cost ({@link SamplerDiagnostics}, which the inference layer owns) and how the run ended. */
-export interface FitDiagnostics extends SamplerDiagnostics {
-  /** The sampler that drew the posterior. */
-  readonly sampler: SamplerKind;
-  /** "converged", "budget" (out of evaluations) or "cancelled". */
-  readonly stopReason: StopReason;
+/**
+ * How the posterior was computed, whether its diagnostics hold, and its cost ({@link MethodDiagnostics},
+ * which the inference layer owns): for importance sampling k-hat and the weights' ESS (R-hat, the
+ * autocorrelation time and the acceptance do not apply and are null), for MCMC R-hat, ESS,
+ * autocorrelation time and acceptance. A fit whose period modes used different methods says "mixed"
+ * and lists them in `methods`.
+ */
+export interface FitDiagnostics extends Omit<MethodDiagnostics, "method" | "keptDraws"> {
+  /** "importance", "ensemble", "nuts", or "mixed" when the period modes used different methods. */
+  readonly method: PosteriorMethod | "mixed";
+  /** The method of each period mode, when there are several. */
+  readonly methods?: readonly PosteriorMethod[];
+  /** The MCMC sampler, when one ran (absent when every mode was importance-sampled). */
+  readonly sampler?: SamplerKind;
   /** Posterior draws kept for the summaries, over all runs (absent in results written before it was added). */
   readonly keptDraws?: number;
 }

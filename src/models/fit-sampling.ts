@@ -1,4 +1,4 @@
-import { DEFAULT_SAMPLER, samplePosterior, type PhysicalLikelihood, type PosteriorSample } from "../inference/index.js";
+import { DEFAULT_SAMPLER, posteriorByMethod, type MethodPosterior, type PhysicalLikelihood } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { childSeed } from "../random/rng.js";
 import type { FitOptions } from "./fit-options.js";
@@ -6,9 +6,9 @@ import type { ModePlan } from "./fit-mode-plan.js";
 import type { LightCurveModel } from "./light-curve-model.js";
 import { collapseMean, type CollapsedMeanModel } from "./mean-marginal.js";
 
-/** The sampler runs of a fit, one per start of the {@link ModePlan}. */
+/** The posterior of each start of the {@link ModePlan}, by whichever method computed it. */
 export interface SamplingOutcome {
-  readonly runs: readonly PosteriorSample[];
+  readonly runs: readonly MethodPosterior[];
   /** The model with its mean integrated out, when the runs sampled it so (draws lack the mean). */
   readonly collapsed?: CollapsedMeanModel;
 }
@@ -17,10 +17,11 @@ export interface SamplingOutcome {
 export const DEFAULT_FIT_BUDGET = 2e6;
 
 /**
- * The sampling stage of a fit: one {@link samplePosterior} run from each start of the plan, the budget
- * shared equally. The ensemble samples the other parameters with the mean integrated out
- * (mean-marginal.ts); NUTS, which needs a gradient, samples the mean with them. One start keeps the
- * fit's seed; several get child seeds 100, 101, ...
+ * The sampling stage of a fit: the posterior from each start of the plan by {@link posteriorByMethod}
+ * (Pareto-smoothed importance sampling, with the MCMC sampler when its diagnostics fail; MCMC only when
+ * `sampler` or `method: "mcmc"` is given), the budget shared equally. Importance sampling and the
+ * ensemble work with the mean integrated out (mean-marginal.ts); NUTS, which needs a gradient, samples
+ * the mean with the rest. One start keeps the fit's seed; several get child seeds 100, 101, ...
  */
 export function sampleStarts(
   model: LightCurveModel,
@@ -36,12 +37,14 @@ export function sampleStarts(
   const sampledOnly = (record: Readonly<Record<string, number>>): Record<string, number> =>
     Object.fromEntries(Object.entries(record).filter(([name]) => space.names.includes(name)));
   const runs = plan.starts.map((initial, k) =>
-    samplePosterior(space, collapsed?.likelihood ?? likelihood, {
+    posteriorByMethod(space, collapsed?.likelihood ?? likelihood, {
       seed: plan.starts.length === 1 ? options.seed : childSeed(options.seed, 100 + k),
       initial: sampledOnly(initial),
       starts: plan.startsAtModes ? 1 : 6,
       maxEvaluations: budget / plan.starts.length,
       ...(options.sampler ? { sampler: options.sampler } : {}),
+      ...(options.method ? { method: options.method } : {}),
+      ...(options.importance ? { importance: options.importance } : {}),
       ...(options.onProgress ? { onProgress: options.onProgress } : {}),
       ...(options.signal ? { signal: options.signal } : {}),
       clock,

@@ -32,7 +32,10 @@ const fmt = (x: number) => (Math.abs(x) >= 1e4 || Math.abs(x) < 1e-2 ? x.toExpon
 export function fitWarnings(inputs: WarningInputs): string[] {
   const { model, summary, lightCurve, parameters, diagnostics, modes } = inputs;
   const warnings: string[] = [];
-  if (!Number.isFinite(diagnostics.rhatMax) || !Number.isFinite(diagnostics.essMin) || !Number.isFinite(diagnostics.autocorrelationTime)) {
+  // R-hat and the autocorrelation time are null for importance sampling (they do not apply), NaN when
+  // an MCMC run kept too few draws to compute them.
+  const notComputed = (value: number | null) => value !== null && !Number.isFinite(value);
+  if (notComputed(diagnostics.rhatMax) || !Number.isFinite(diagnostics.essMin) || notComputed(diagnostics.autocorrelationTime)) {
     const kept = typeof diagnostics.keptDraws === "number" ? `only ${diagnostics.keptDraws} posterior draws were kept` : "too few posterior draws were kept";
     warnings.push(
       `The sampler stopped (${diagnostics.stopReason ?? "budget"}) before convergence and ${kept}, too few to compute ` +
@@ -40,8 +43,8 @@ export function fitWarnings(inputs: WarningInputs): string[] {
     );
   } else if (!diagnostics.converged) {
     warnings.push(
-      `The sampler stopped (${diagnostics.stopReason ?? "budget"}) before convergence: largest R-hat ${diagnostics.rhatMax.toFixed(4)}, ` +
-        `smallest ESS ${Math.round(diagnostics.essMin)}, autocorrelation time ${fmt(diagnostics.autocorrelationTime)} ` +
+      `The sampler stopped (${diagnostics.stopReason ?? "budget"}) before convergence: largest R-hat ${(diagnostics.rhatMax ?? NaN).toFixed(4)}, ` +
+        `smallest ESS ${Math.round(diagnostics.essMin)}, autocorrelation time ${fmt(diagnostics.autocorrelationTime ?? NaN)} ` +
         `(targets: R-hat < ${+(diagnostics.rhatThreshold ?? 1.01).toPrecision(5)}, bulk and tail ESS >= 400, chains at least 50 autocorrelation times long); ` +
         "treat the intervals as rough or raise the budget.",
     );

@@ -27,6 +27,9 @@ export interface CollapsedMeanModel {
   meanPosterior(physical: ArrayLike<number>): { readonly mean: number; readonly sd: number };
 }
 
+/** How many evaluated points' mean posteriors a collapsed model remembers (then it starts afresh). */
+const RECENT_MEAN_POSTERIORS = 1 << 16;
+
 /**
  * The collapsed form of a model for one light curve, or undefined when its mean is fixed or its prior
  * is not normal (then the mean is sampled with the rest).
@@ -41,10 +44,16 @@ export function collapseMean(model: LightCurveModel, lightCurve: LightCurve): Co
   const full = new Float64Array(model.space.names.length);
   const processAt = processFactory(model, lightCurve);
   const y = lightCurve.value;
+  // The mean's posterior of recently evaluated points, so that putting the mean back into draws the
+  // sampler evaluated already costs no second pass (importance draws, and walkers that stayed put).
+  const recent = new Map<string, { readonly mean: number; readonly sd: number }>();
   const marginalAt = (physical: ArrayLike<number>) => {
     for (let i = 0; i < fullIndex.length; i++) full[fullIndex[i]] = physical[i];
     full[meanIndex] = prior.mean;
-    return processAt(full).meanMarginal(y, prior);
+    const result = processAt(full).meanMarginal(y, prior);
+    if (recent.size >= RECENT_MEAN_POSTERIORS) recent.clear();
+    recent.set(Array.prototype.join.call(physical, " "), result.meanPosterior);
+    return result;
   };
   return {
     space,
@@ -59,7 +68,7 @@ export function collapseMean(model: LightCurveModel, lightCurve: LightCurve): Co
         }
       },
     },
-    meanPosterior: (physical) => marginalAt(physical).meanPosterior,
+    meanPosterior: (physical) => recent.get(Array.prototype.join.call(physical, " ")) ?? marginalAt(physical).meanPosterior,
   };
 }
 

@@ -117,25 +117,55 @@ function periodMode(f: Fields, index: number): PeriodModeSummary {
   return { period: mode.number("period"), probability: mode.number("probability") };
 }
 
+const POSTERIOR_METHODS = ["importance", "ensemble", "nuts"] as const;
+
 function diagnostics(f: Fields): FitDiagnostics {
-  const sampler = f.text("sampler");
-  if (sampler !== "nuts" && sampler !== "ensemble") throw f.wrong("sampler", '"nuts" or "ensemble"');
+  const sampler = f.optional("sampler", (g, key) => g.text(key));
+  if (sampler !== undefined && sampler !== "nuts" && sampler !== "ensemble") throw f.wrong("sampler", '"nuts" or "ensemble"');
+  // Results written before `method` was added were all MCMC, named by `sampler`.
+  const method = f.optional("method", (g, key) => g.text(key)) ?? sampler;
+  if (method !== "mixed" && !POSTERIOR_METHODS.includes(method as (typeof POSTERIOR_METHODS)[number]))
+    throw f.wrong("method", '"importance", "ensemble", "nuts" or "mixed"');
+  if (method !== "importance" && sampler === undefined) throw f.wrong("sampler", '"nuts" or "ensemble"');
   const stopReason = f.text("stopReason");
   if (stopReason !== "converged" && stopReason !== "budget" && stopReason !== "cancelled")
     throw f.wrong("stopReason", '"converged", "budget" or "cancelled"');
   const keptDraws = f.optional("keptDraws", (g, key) => g.count(key));
+  // R-hat, the autocorrelation time and the acceptance belong to MCMC; importance sampling writes null.
+  const markovFigure = (key: string): number | null => {
+    if (method !== "importance") return f.number(key);
+    if (f.get(key) !== null) throw f.wrong(key, "null (importance sampling has no such figure)");
+    return null;
+  };
+  const methods = f.optional("methods", (g, key) =>
+    g.list(key, (h, index) => {
+      const m = h.text(index);
+      if (!POSTERIOR_METHODS.includes(m as (typeof POSTERIOR_METHODS)[number])) throw h.wrong(index, '"importance", "ensemble" or "nuts"');
+      return m as (typeof POSTERIOR_METHODS)[number];
+    }),
+  );
+  const paretoK = f.optional("paretoK", (g, key) => g.number(key));
+  const paretoKThreshold = f.optional("paretoKThreshold", (g, key) => g.number(key));
+  const importanceDraws = f.optional("importanceDraws", (g, key) => g.count(key));
+  const importanceFallback = f.optional("importanceFallback", (g, key) => g.text(key));
   return {
     converged: f.flag("converged"),
-    rhatMax: f.number("rhatMax"),
-    rhatThreshold: f.number("rhatThreshold"),
+    rhatMax: markovFigure("rhatMax"),
+    rhatThreshold: markovFigure("rhatThreshold"),
     essMin: f.number("essMin"),
-    autocorrelationTime: f.number("autocorrelationTime"),
-    acceptance: f.number("acceptance"),
+    autocorrelationTime: markovFigure("autocorrelationTime"),
+    acceptance: markovFigure("acceptance"),
     likelihoodEvaluations: f.number("likelihoodEvaluations"),
     seconds: f.number("seconds"),
-    sampler,
+    method: method as FitDiagnostics["method"],
+    ...(methods !== undefined ? { methods } : {}),
+    ...(sampler !== undefined ? { sampler } : {}),
     stopReason,
     ...(keptDraws !== undefined ? { keptDraws } : {}),
+    ...(paretoK !== undefined ? { paretoK } : {}),
+    ...(paretoKThreshold !== undefined ? { paretoKThreshold } : {}),
+    ...(importanceDraws !== undefined ? { importanceDraws } : {}),
+    ...(importanceFallback !== undefined ? { importanceFallback } : {}),
   };
 }
 

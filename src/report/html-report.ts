@@ -1,4 +1,5 @@
 import type { FitDiagnostics, ParameterSummary } from "../models/fit-result.js";
+import { importanceFigures } from "../models/importance-figures.js";
 import { convergenceFigure, formatAtDigit, formatMeasurement, formatSignificant, lastDigitPower } from "./format-measurement.js";
 import { escapeHtml } from "./html-escape.js";
 import { inlineSvg } from "./inline-svg.js";
@@ -22,7 +23,7 @@ export function reportWarnings(input: ReportInput): string[] {
   const d = input.result.diagnostics;
   if (!d.converged && !warnings.some((w) => /converge/i.test(w))) {
     warnings.unshift(
-      `The sampler did not converge (largest R-hat ${convergenceFigure(d.rhatMax)}): the posterior summaries are not reliable.`,
+      `The sampler did not converge (${d.method === "importance" ? importanceFigures(d) : `largest R-hat ${convergenceFigure(d.rhatMax)}`}): the posterior summaries are not reliable.`,
     );
   }
   return warnings;
@@ -243,21 +244,32 @@ function keyInWords(key: string): string {
 }
 
 function diagnosticsTable(d: FitDiagnostics): string {
-  const known: [string, string, string][] = [
-    ["Converged", d.converged ? "yes" : "no", d.converged ? "" : "bad"],
-    [
-      "Largest rank-normalised split R-hat",
-      convergenceFigure(d.rhatMax),
-      d.rhatMax < (d.rhatThreshold ?? RHAT_THRESHOLD) ? "" : "bad",
-    ],
-    ["R-hat bound for this number of chains", formatSignificant(d.rhatThreshold ?? RHAT_THRESHOLD, 4), ""],
-    ["Smallest effective sample size", convergenceFigure(d.essMin), ""],
-    ["Largest integrated autocorrelation time (steps)", convergenceFigure(d.autocorrelationTime, 3), ""],
-    ["Mean acceptance rate", formatSignificant(d.acceptance, 3), ""],
-    ["Likelihood evaluations (a gradient counted at its cost)", String(d.likelihoodEvaluations), ""],
-    ["Wall time (s)", formatSignificant(d.seconds, 3), ""],
-  ];
-  const listed = new Set(["converged", "rhatMax", "rhatThreshold", "essMin", "autocorrelationTime", "acceptance", "likelihoodEvaluations", "seconds"]);
+  const importance = d.method === "importance";
+  const known: [string, string, string][] = importance
+    ? [
+        ["Converged", d.converged ? "yes" : "no", d.converged ? "" : "bad"],
+        ["Method", "Pareto-smoothed importance sampling", ""],
+        ["Pareto k-hat of the weights", formatSignificant(d.paretoK ?? NaN, 3), (d.paretoK ?? Infinity) <= (d.paretoKThreshold ?? 0.7) ? "" : "bad"],
+        ["k-hat threshold for this number of draws", formatSignificant(d.paretoKThreshold ?? NaN, 3), ""],
+        ["Effective sample size of the weights", formatSignificant(d.essMin, 4), ""],
+        ["Likelihood evaluations (a gradient counted at its cost)", String(d.likelihoodEvaluations), ""],
+        ["Wall time (s)", formatSignificant(d.seconds, 3), ""],
+      ]
+    : [
+        ["Converged", d.converged ? "yes" : "no", d.converged ? "" : "bad"],
+        [
+          "Largest rank-normalised split R-hat",
+          convergenceFigure(d.rhatMax),
+          (d.rhatMax ?? NaN) < (d.rhatThreshold ?? RHAT_THRESHOLD) ? "" : "bad",
+        ],
+        ["R-hat bound for this number of chains", formatSignificant(d.rhatThreshold ?? RHAT_THRESHOLD, 4), ""],
+        ["Smallest effective sample size", convergenceFigure(d.essMin), ""],
+        ["Largest integrated autocorrelation time (steps)", convergenceFigure(d.autocorrelationTime, 3), ""],
+        ["Mean acceptance rate", formatSignificant(d.acceptance ?? NaN, 3), ""],
+        ["Likelihood evaluations (a gradient counted at its cost)", String(d.likelihoodEvaluations), ""],
+        ["Wall time (s)", formatSignificant(d.seconds, 3), ""],
+      ];
+  const listed = new Set(["converged", "rhatMax", "rhatThreshold", "essMin", "autocorrelationTime", "acceptance", "likelihoodEvaluations", "seconds", "method", "paretoK", "paretoKThreshold"]);
   for (const [key, value] of Object.entries(d)) {
     if (listed.has(key)) continue;
     const label = DIAGNOSTIC_LABELS[key] ?? keyInWords(key);

@@ -1,4 +1,5 @@
 import { convergenceFigure, formatMeasurement, formatSignificant } from "./format-measurement.js";
+import { importanceFigures } from "../models/importance-figures.js";
 import { parameterDisplay, timeUnitOf } from "./parameter-display.js";
 import type { ReportInput } from "./report-input.js";
 
@@ -73,7 +74,9 @@ export function plainSummary(input: ReportInput): string[] {
   const d = result.diagnostics;
   sentences.push(
     d.converged
-      ? `The sampler converged: the largest R-hat is ${convergenceFigure(d.rhatMax)} and the smallest effective sample size is ${convergenceFigure(d.essMin, 3)}.`
+      ? d.method === "importance"
+        ? `The posterior was computed by importance sampling, whose diagnostics hold: ${importanceFigures(d)}.`
+        : `The sampler converged: the largest R-hat is ${convergenceFigure(d.rhatMax)} and the smallest effective sample size is ${convergenceFigure(d.essMin, 3)}.`
       : `The sampler did not converge (largest R-hat ${convergenceFigure(d.rhatMax)}, target below ${+(d.rhatThreshold ?? RHAT_THRESHOLD).toPrecision(5)}; smallest effective sample size ${convergenceFigure(d.essMin, 3)}): treat these numbers as provisional.`,
   );
   const w = result.warnings.length;

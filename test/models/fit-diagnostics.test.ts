@@ -14,7 +14,7 @@ import { reportWarnings } from "../../src/report/html-report.js";
 import { plainSummary } from "../../src/report/plain-summary.js";
 import { reportInputFromFit } from "../../src/report/report-from-fit.js";
 import { createRng } from "../../src/random/rng.js";
-import type { PosteriorSample } from "../../src/inference/index.js";
+import type { MethodPosterior } from "../../src/inference/index.js";
 
 /**
  * Honest diagnostics (issue 12): a run that printed "R-hat max NaN, ESS min NaN" in the summary, said
@@ -28,8 +28,9 @@ const time = seasonalGroundCadence({ seasons: 2, revisitInterval: 4 }, rng);
 const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 30 }), time, { mean: 18 }).priorDraw(rng);
 const lightCurve = observeMagnitudes(time, truth, { depth5Sigma: 22 }, rng, "honest diagnostics");
 
+/** An MCMC fit (these are MCMC failure modes; importance sampling's own are tested in test/inference). */
 function fitWith(maxEvaluations: number): DetailedFit {
-  return fitLightCurveDetailed(lightCurve, { model: "drw", seed: 1, maxEvaluations, clock: () => 0 });
+  return fitLightCurveDetailed(lightCurve, { model: "drw", seed: 1, maxEvaluations, method: "mcmc", clock: () => 0 });
 }
 
 /** The four outputs of a result, as text. */
@@ -82,9 +83,8 @@ describe("honest diagnostics", () => {
     const run = fit.runs[0];
     const stuck = {
       ...run,
-      stopReason: "budget",
-      diagnostics: { ...run.diagnostics, converged: false, rhatMax: report.rhatMax, essMin: report.essMin, autocorrelationTime: report.autocorrelationTime },
-    } as PosteriorSample;
+      diagnostics: { ...run.diagnostics, stopReason: "budget", converged: false, rhatMax: report.rhatMax, essMin: report.essMin, autocorrelationTime: report.autocorrelationTime },
+    } as MethodPosterior;
     const diagnostics = combinedDiagnostics([stuck], 0);
     expect(diagnostics.converged).toBe(false);
     const warnings = fitWarnings({ model: fit.model, summary: fit.summary, lightCurve, parameters: fit.result.parameters, diagnostics, modes: [] });
@@ -94,7 +94,7 @@ describe("honest diagnostics", () => {
   it("a run that claims convergence with a NaN figure is not converged when combined", () => {
     const fit = fitWith(4000);
     const run = fit.runs[0];
-    const claimed = { ...run, stopReason: "converged", diagnostics: { ...run.diagnostics, converged: true, essMin: NaN } } as PosteriorSample;
+    const claimed = { ...run, diagnostics: { ...run.diagnostics, stopReason: "converged", converged: true, essMin: NaN } } as MethodPosterior;
     expect(combinedDiagnostics([claimed], 0).converged).toBe(false);
     expect(combinedDiagnostics([claimed, claimed], 0).rhatMax).toBe(run.diagnostics.rhatMax);
   }, 120_000);

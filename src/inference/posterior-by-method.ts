@@ -1,0 +1,204 @@
+import { childSeed, createRng } from "../random/rng.js";
+import { countEvaluations, evaluationCost } from "./evaluation-counter.js";
+import { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
+import { importanceSample, type ImportanceSample, type ImportanceSamplingOptions } from "./importance-sampling.js";
+import { findMaximumPosterior, startingPoints } from "./maximum-posterior.js";
+import type { ParameterSpace } from "./parameter-space.js";
+import { unconstrainedPosterior, type PhysicalLikelihood } from "./unconstrained-posterior.js";
+import { posteriorDraws, type PosteriorDraws } from "./posterior-draws.js";
+import type { StopReason } from "./run-sampler.js";
+import { samplePosterior, type PosteriorSample, type PosteriorSamplingOptions, type SamplerKind } from "./sample-posterior.js";
+import { systematicResample } from "./weighted-resampling.js";
+
+/** How a posterior was computed: Pareto-smoothed importance sampling, or one of the two MCMC samplers. */
+export type PosteriorMethod = "importance" | SamplerKind;
+
+/**
+ * Importance sampling is tried only up to this many sampled parameters. A Student-t fitted to the mode
+ * covers a posterior of a few dimensions well (DRW: 2 with the mean integrated out; quasi-periodic: 4;
+ * quasi-periodic with a DRW background: 6); in more dimensions the weights' ESS per draw falls quickly
+ * for any proposal that is not exact (common practice; Vehtari et al. 2024, sec. 5, from memory).
+ */
+export const IMPORTANCE_MAX_DIMENSION = 6;
+
+/** Importance sampling is not tried with fewer evaluations than this left after the optimisation (an ESS of 400 needs more draws). */
+const MINIMUM_IMPORTANCE_BUDGET = 600;
+
+/** Options of {@link posteriorByMethod}. */
+export interface MethodPosteriorOptions extends Omit<PosteriorSamplingOptions, "maximum"> {
+  /**
+   * "auto" (the default unless `sampler` is given): Pareto-smoothed importance sampling when the space
+   * has at most {@link IMPORTANCE_MAX_DIMENSION} free parameters, the MCMC sampler when its diagnostics
+   * fail; "mcmc": the sampler only (the default when `sampler` is given).
+   */
+  readonly method?: "auto" | "mcmc";
+  readonly importance?: ImportanceSamplingOptions;
+}
+
+/** The diagnostics of a posterior computed by either method. Keys that do not apply to a method are null. */
+export interface MethodDiagnostics {
+  /** Importance sampling: k-hat <= threshold and ESS >= 400. MCMC: the convergence criteria held. */
+  readonly converged: boolean;
+  /** MCMC only (R-hat compares chains; importance draws are independent): null for importance sampling. */
+  readonly rhatMax: number | null;
+  readonly rhatThreshold: number | null;
+  /** MCMC: smallest bulk or tail ESS. Importance sampling: the ESS of the smoothed weights, 1 / sum w^2. */
+  readonly essMin: number;
+  /** MCMC only: null for importance sampling. */
+  readonly autocorrelationTime: number | null;
+  /** MCMC only: null for importance sampling. */
+  readonly acceptance: number | null;
+  readonly likelihoodEvaluations: number;
+  readonly seconds: number;
+  /** Equally weighted draws kept for the summaries (importance sampling: the resampled draws). */
+  readonly keptDraws: number;
+  readonly method: PosteriorMethod;
+  readonly stopReason: StopReason;
+  /** Importance sampling (also when it was tried and failed): k-hat of the last round. */
+  readonly paretoK?: number;
+  /** The k-hat threshold applied. */
+  readonly paretoKThreshold?: number;
+  /** Importance draws of the last round. */
+  readonly importanceDraws?: number;
+  /** Why importance sampling was tried and not used (then an MCMC sampler ran). */
+  readonly importanceFallback?: string;
+}
+
+/** A posterior by either method, as equally weighted draws. */
+export interface MethodPosterior {
+  readonly method: PosteriorMethod;
+  readonly space: ParameterSpace;
+  /** The maximum a posteriori in physical parameters (no Jacobian), by name. */
+  readonly maximum: Readonly<Record<string, number>>;
+  /**
+   * Equally weighted draws in physical units: the MCMC draws after burn-in, or the importance draws
+   * resampled systematically by their smoothed weights (as many as were drawn; repeated draws appear
+   * more than once, and the ESS, not their count, measures their information).
+   */
+  readonly draws: PosteriorDraws;
+  readonly diagnostics: MethodDiagnostics;
+  /** The MCMC run, when one ran. */
+  readonly sample?: PosteriorSample;
+  /** The importance sample, when importance sampling was tried. */
+  readonly importance?: ImportanceSample;
+}
+
+/**
+ * The posterior of a model by the cheapest method whose diagnostics hold: the maximum a posteriori
+ * (several starts, as in {@link samplePosterior}), then the mode of the unconstrained density, then
+ * Pareto-smoothed importance sampling from a Student-t at that mode ({@link importanceSample}); if k-hat
+ * or the ESS fail, the MCMC sampler of `options.sampler` from the same maximum, charged with everything
+ * spent so far. With `method: "mcmc"` the sampler runs directly.
+ */
+export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLikelihood, options: MethodPosteriorOptions): MethodPosterior {
+  const clock = options.clock ?? (() => performance.now());
+  const startTime = clock();
+  const method = options.method ?? (options.sampler !== undefined ? "mcmc" : "auto");
+  const { method: _method, importance: importanceOptions, ...samplingOptions } = options;
+  if (method === "mcmc" || space.dimension > IMPORTANCE_MAX_DIMENSION || space.dimension === 0) {
+    return markovPosterior(samplePosterior(space, likelihood, samplingOptions));
+  }
+  const gradientCost = options.gradientCost ?? DEFAULT_GRADIENT_COST;
+  const seed = options.seed;
+  const optimiserTarget = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: false }));
+  const starts = startingPoints(space, options.starts ?? 6, createRng(childSeed(seed, 0)), options.initial);
+  const found = findMaximumPosterior(optimiserTarget, { starts });
+  const target = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: true }));
+  const mode = findMaximumPosterior(target, { starts: [found.x] }).x;
+  const budget = options.maxEvaluations ?? 2e6;
+  const spentBefore = evaluationCost(optimiserTarget.counts, gradientCost) + evaluationCost(target.counts, gradientCost);
+  const remaining = budget - spentBefore;
+  // Too little budget left for a useful importance sample: the sampler runs, and stops on the budget.
+  const importance =
+    remaining >= MINIMUM_IMPORTANCE_BUDGET
+      ? importanceSample(target, mode, createRng(childSeed(seed, 4)), {
+          ...importanceOptions,
+          maxDraws: Math.min(importanceOptions?.maxDraws ?? 8000, remaining),
+        })
+      : undefined;
+  const spent = evaluationCost(optimiserTarget.counts, gradientCost) + evaluationCost(target.counts, gradientCost);
+  const maximum = space.recordFromPhysical(space.toPhysical(found.x));
+  if (importance === undefined || !importance.accepted) {
+    const sample = samplePosterior(space, likelihood, { ...samplingOptions, maximum: { found, evaluations: spent } });
+    const chains = markovPosterior(sample);
+    const fallback = importance === undefined ? `${Math.round(remaining)} evaluations left after the optimisation, too few to try importance sampling` : (importance.reason ?? "importance sampling failed");
+    return {
+      ...chains,
+      ...(importance ? { importance } : {}),
+      diagnostics: {
+        ...chains.diagnostics,
+        ...(importance ? { paretoK: importance.paretoShape, paretoKThreshold: importance.shapeThreshold, importanceDraws: importance.points.length } : {}),
+        importanceFallback: fallback,
+        seconds: (clock() - startTime) / 1000,
+      },
+    };
+  }
+  const importanceFigures = {
+    paretoK: importance.paretoShape,
+    paretoKThreshold: importance.shapeThreshold,
+    importanceDraws: importance.points.length,
+  };
+  const picks = systematicResample(importance.weights, importance.points.length, createRng(childSeed(seed, 5)));
+  return {
+    method: "importance",
+    space,
+    maximum,
+    draws: drawsFromPoints(space, importance, picks),
+    importance,
+    diagnostics: {
+      converged: true,
+      rhatMax: null,
+      rhatThreshold: null,
+      essMin: importance.effectiveSampleSize,
+      autocorrelationTime: null,
+      acceptance: null,
+      likelihoodEvaluations: spent,
+      seconds: (clock() - startTime) / 1000,
+      keptDraws: picks.length,
+      method: "importance",
+      stopReason: "converged",
+      ...importanceFigures,
+    },
+  };
+}
+
+/** An MCMC run as a {@link MethodPosterior}: its draws after burn-in and its diagnostics. */
+export function markovPosterior(sample: PosteriorSample): MethodPosterior {
+  const d = sample.diagnostics;
+  return {
+    method: sample.sampler,
+    space: sample.space,
+    maximum: sample.maximum,
+    draws: posteriorDraws(sample.space, sample.run),
+    sample,
+    diagnostics: {
+      converged: d.converged,
+      rhatMax: d.rhatMax,
+      rhatThreshold: d.rhatThreshold,
+      essMin: d.essMin,
+      autocorrelationTime: d.autocorrelationTime,
+      acceptance: d.acceptance,
+      likelihoodEvaluations: d.likelihoodEvaluations,
+      seconds: d.seconds,
+      keptDraws: d.keptDraws,
+      method: sample.sampler,
+      stopReason: sample.stopReason,
+    },
+  };
+}
+
+/** The resampled importance draws as posterior draws (one "chain"; iteration = position in the resample). */
+function drawsFromPoints(space: ParameterSpace, sample: ImportanceSample, picks: Int32Array): PosteriorDraws {
+  const total = picks.length;
+  const columns: Record<string, Float64Array> = {};
+  for (const name of space.names) columns[name] = new Float64Array(total);
+  const physical = new Float64Array(space.names.length);
+  const logPosterior = new Float64Array(total);
+  for (let k = 0; k < total; k++) {
+    const s = picks[k]!;
+    space.toPhysical(sample.points[s]!, physical);
+    space.names.forEach((name, i) => (columns[name]![k] = physical[i]!));
+    logPosterior[k] = sample.logPosterior[s]!;
+  }
+  return { names: space.names, columns, chain: new Int32Array(total), iteration: Int32Array.from({ length: total }, (_, k) => k), logPosterior };
+}
