@@ -31,7 +31,7 @@ const { values } = parseArgs({
     methods: { type: "string", default: "auto,mcmc" },
   },
 });
-const methods = values.methods!.split(",") as ("auto" | "mcmc")[];
+const methods = values.methods!.split(",") as ("auto" | "importance" | "mcmc")[];
 const rows = new Map<string, Row[]>(methods.map((m) => [m, []]));
 const cpuSeconds = () => {
   const u = process.cpuUsage();

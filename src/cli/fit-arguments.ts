@@ -37,8 +37,9 @@ export const FIT_HELP = `  --model NAME            ${MODEL_NAMES.join(", ")}: dr
   --jitter                fit a white-noise term even when there is an error column
   --robust                Student-t noise: down-weights outliers and reports each point's outlier
                           probability (needs an error column)
-  --method auto|mcmc      auto (default without --sampler): importance sampling from a proposal fitted
-                          at the mode, MCMC when its diagnostics (k-hat, ESS) fail; mcmc: MCMC only
+  --method auto|importance|mcmc  importance: importance sampling from a proposal fitted at the
+                          mode, MCMC when its diagnostics (k-hat, ESS) fail; mcmc: MCMC only; auto
+                          (default without --sampler): importance for drw, mcmc for periodic models
   --sampler nuts|ensemble the MCMC sampler (default ${DEFAULT_SAMPLER}, the cheaper per effective draw
                           on these models); giving it implies --method mcmc
   --max-evaluations N     budget in log-likelihood evaluations, a positive integer (default 2e6);
@@ -76,7 +77,8 @@ export function fitArguments(values: VerbArguments["values"], modelRequired: boo
   if (sampler !== undefined && sampler !== "nuts" && sampler !== "ensemble")
     throw new UsageError(`--sampler must be nuts or ensemble, got "${sampler}"`);
   const method = textOption(values, "method");
-  if (method !== undefined && method !== "auto" && method !== "mcmc") throw new UsageError(`--method must be auto or mcmc, got "${method}"`);
+  if (method !== undefined && method !== "auto" && method !== "importance" && method !== "mcmc")
+    throw new UsageError(`--method must be auto, importance or mcmc, got "${method}"`);
   const redshift = numberOption(values, "redshift");
   if (redshift !== undefined && !(redshift >= 0)) throw new UsageError(`--redshift must be a number >= 0, got "${textOption(values, "redshift")}"`);
   const maxEvaluations = integerOption(values, "max-evaluations", 1);
@@ -90,7 +92,7 @@ export function fitArguments(values: VerbArguments["values"], modelRequired: boo
     ...(values.robust === true ? { robust: true } : {}),
     ...(redshift !== undefined ? { redshift } : {}),
     ...(sampler !== undefined ? { sampler: sampler as SamplerKind } : {}),
-    ...(method !== undefined ? { method: method as "auto" | "mcmc" } : {}),
+    ...(method !== undefined ? { method: method as "auto" | "importance" | "mcmc" } : {}),
     ...(maxEvaluations !== undefined ? { maxEvaluations } : {}),
     ...periodLimits(values),
   };

@@ -27,11 +27,11 @@ const MINIMUM_IMPORTANCE_BUDGET = 600;
 /** Options of {@link posteriorByMethod}. */
 export interface MethodPosteriorOptions extends Omit<PosteriorSamplingOptions, "maximum"> {
   /**
-   * "auto" (the default unless `sampler` is given): Pareto-smoothed importance sampling when the space
+   * "importance" (the default unless `sampler` is given): Pareto-smoothed importance sampling when the space
    * has at most {@link IMPORTANCE_MAX_DIMENSION} free parameters, the MCMC sampler when its diagnostics
    * fail; "mcmc": the sampler only (the default when `sampler` is given).
    */
-  readonly method?: "auto" | "mcmc";
+  readonly method?: "importance" | "mcmc";
   readonly importance?: ImportanceSamplingOptions;
 }
 
@@ -93,7 +93,7 @@ export interface MethodPosterior {
 export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLikelihood, options: MethodPosteriorOptions): MethodPosterior {
   const clock = options.clock ?? (() => performance.now());
   const startTime = clock();
-  const method = options.method ?? (options.sampler !== undefined ? "mcmc" : "auto");
+  const method = options.method ?? (options.sampler !== undefined ? "mcmc" : "importance");
   const { method: _method, importance: importanceOptions, ...samplingOptions } = options;
   if (method === "mcmc" || space.dimension > IMPORTANCE_MAX_DIMENSION || space.dimension === 0) {
     return markovPosterior(samplePosterior(space, likelihood, samplingOptions));

@@ -22,11 +22,12 @@ export interface FitOptions {
   /** Student-t noise with per-point outlier probabilities instead of Gaussian noise (needs an error column). */
   readonly robust?: boolean;
   /**
-   * "auto" (the default unless `sampler` is given): Pareto-smoothed importance sampling from a proposal
-   * fitted at the mode, with MCMC when its diagnostics fail; "mcmc": the MCMC sampler only (the default
-   * when `sampler` is given). See posteriorByMethod in the inference layer.
+   * "auto" (the default unless `sampler` is given): "importance" for models without a period (the damped
+   * random walk), "mcmc" for periodic ones (fitMethod in fit-sampling.ts says why). "importance":
+   * Pareto-smoothed importance sampling from a proposal fitted at the mode, with MCMC when its
+   * diagnostics fail. "mcmc": the MCMC sampler only (the default when `sampler` is given).
    */
-  readonly method?: "auto" | "mcmc";
+  readonly method?: "auto" | "importance" | "mcmc";
   /** Settings of the importance sampler (draws, proposals, thresholds); the defaults suit most fits. */
   readonly importance?: ImportanceSamplingOptions;
   /** "nuts" or "ensemble" (default: DEFAULT_SAMPLER of the inference layer), the sampler MCMC uses. */

@@ -43,7 +43,7 @@ export function sampleStarts(
       starts: plan.startsAtModes ? 1 : 6,
       maxEvaluations: budget / plan.starts.length,
       ...(options.sampler ? { sampler: options.sampler } : {}),
-      ...(options.method ? { method: options.method } : {}),
+      method: fitMethod(model, options),
       ...(options.importance ? { importance: options.importance } : {}),
       ...(options.onProgress ? { onProgress: options.onProgress } : {}),
       ...(options.signal ? { signal: options.signal } : {}),
@@ -51,4 +51,18 @@ export function sampleStarts(
     }),
   );
   return { runs, ...(collapsed ? { collapsed } : {}) };
+}
+
+/**
+ * Whether a fit tries importance sampling first. `method: "auto"` (the default) does for models without
+ * a period (the damped random walk) and not for periodic ones: a period posterior can have modes the
+ * mode search did not find (aliases, and broad modes of a short coherence time), and a proposal centred
+ * on one mode never draws from another, which k-hat cannot see; the walkers of the ensemble can cross
+ * to it. `method: "importance"` tries it for any model (bench/samplers-rotation-times.ts measures it on
+ * quasi-periodic fits); `method: "mcmc"`, or giving `sampler`, runs MCMC only.
+ */
+export function fitMethod(model: LightCurveModel, options: FitOptions): "importance" | "mcmc" {
+  const asked = options.method ?? (options.sampler !== undefined ? "mcmc" : "auto");
+  if (asked === "auto") return model.space.names.includes("period") ? "mcmc" : "importance";
+  return asked;
 }
