@@ -16,7 +16,7 @@ import { childSeed, createRng } from "../../src/random/rng.js";
  * drawn from the prior the posterior is computed with (tau log-uniform 50-5000 d, reaching past the
  * 9.5-year baseline; sigma log-uniform 0.05-0.5 mag; mean normal), so a calibrated posterior puts the
  * truth in its central 68% interval with probability 0.68 and in its 95% interval with 0.95 whatever the
- * data (Cook, Gelman & Rubin 2006, J. Comput. Graph. Stat. 15, 675; Talts et al. 2018). With 80
+ * data (Talts, Betancourt, Simpson, Vehtari & Gelman 2018, arXiv:1804.06788). With 80
  * replicates the hit counts are Binomial(80, 0.68) (mean 54.4, sd 4.2) and Binomial(80, 0.95) (mean 76,
  * sd 1.9); the test accepts three binomial standard deviations: 42-66 and 71-80. The slow,
  * many-replicate check is bench/samplers-sbc.ts.
