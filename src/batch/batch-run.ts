@@ -133,141 +133,174 @@ export async function runBatch(options: BatchRunOptions): Promise<BatchSummary> 
   }
 }
 
+/** The counts of one invocation so far, with the first few failures and duplicated ids as examples. */
+interface RunTally {
+  recorded: number;
+  ok: number;
+  failed: number;
+  resumed: number;
+  otherShards: number;
+  duplicates: number;
+  readonly failureExamples: { id: string; reason: string }[];
+  readonly duplicateExamples: string[];
+}
+
+/** Where the rows of a run go: the journal, and the CSV table as it grows (flagged for a rebuild when a row brings new columns). */
+interface RowSinks {
+  readonly journal: ResultsJournal;
+  csv: CsvResultsAppender | undefined;
+  csvNeedsRebuild: boolean;
+}
+
+/** Stage 1: the columns of the table, the expected ones and those of the rows already recorded; a CSV table started with the rows so far. */
+async function openRowSinks(options: BatchRunOptions, journal: ResultsJournal, journalPath: string, recordedColumns: readonly string[]) {
+  let columns = expectedColumns(options.model, options.background) as readonly string[];
+  for (const column of recordedColumns) columns = unionColumns(columns, { [column]: null });
+  columns = orderColumns(columns);
+  const sinks: RowSinks = { journal, csv: undefined, csvNeedsRebuild: false };
+  if (options.format === "csv") {
+    await writeCsvTable(options.out, columns, journalRows(journalPath));
+    sinks.csv = new CsvResultsAppender(options.out, columns);
+  }
+  return { columns, sinks };
+}
+
+/** Appends one row to the journal and the CSV table and counts it. */
+function recordRow(sinks: RowSinks, tally: RunTally, row: ResultRow): void {
+  sinks.journal.append(row);
+  if (sinks.csv) {
+    if (unionColumns(sinks.csv.columns, row) !== sinks.csv.columns) sinks.csvNeedsRebuild = true;
+    sinks.csv.append(row);
+  }
+  tally.recorded += 1;
+  if (row.status === "ok") tally.ok += 1;
+  else {
+    tally.failed += 1;
+    if (tally.failureExamples.length < EXAMPLES) tally.failureExamples.push({ id: String(row.object_id), reason: String(row.reason) });
+  }
+}
+
+/**
+ * Stage 2: every object of the catalogue in this shard, not seen before in the catalogue and not already
+ * in the journal, fitted on the pool (at most one fit per worker in flight) and recorded as it ends;
+ * objects without a light curve are recorded as failed. Rethrows the first error of the pool itself.
+ */
+async function fitEveryObject(options: BatchRunOptions, pool: FitPool, done: Set<string>, tally: RunTally, record: (row: ResultRow) => void): Promise<void> {
+  const seen = new Set<string>();
+  const inFlight = new Set<Promise<void>>();
+  let fatal: Error | undefined;
+  for await (const object of options.objects) {
+    if (fatal) break;
+    const id = object.id;
+    if (!isInShard(id, options.shard)) {
+      tally.otherShards += 1;
+      continue;
+    }
+    if (seen.has(id)) {
+      tally.duplicates += 1;
+      if (tally.duplicateExamples.length < EXAMPLES) tally.duplicateExamples.push(id);
+      continue;
+    }
+    seen.add(id);
+    if (done.delete(id)) {
+      tally.resumed += 1;
+      continue;
+    }
+    const seed = objectSeed(options.seed, id);
+    if (!object.lightCurve) {
+      record(failedRow(id, seed, options.model, object.problem ?? "no light curve"));
+      continue;
+    }
+    const fitOptions = { ...options.fitOptions, model: options.model, background: options.background, seed };
+    const task: Promise<void> = pool
+      .fit(id, object.lightCurve, fitOptions)
+      .then((outcome: FitOutcome) =>
+        record(outcome.kind === "ok" ? withWarnings(outcome.row, object.warnings) : failedRow(id, seed, options.model, outcome.reason)),
+      )
+      .catch((error: Error) => {
+        fatal ??= error;
+      })
+      .finally(() => inFlight.delete(task));
+    inFlight.add(task);
+    if (inFlight.size >= pool.size) await Promise.race(inFlight);
+  }
+  await Promise.all(inFlight);
+  if (fatal) throw fatal;
+}
+
+/** Stage 3: the final table from the journal: Parquet always written at the end, CSV rewritten only when rows brought new columns. */
+async function writeFinalTable(options: BatchRunOptions, journalPath: string, columnsSoFar: readonly string[], csvNeedsRebuild: boolean): Promise<void> {
+  let columns = columnsSoFar;
+  if (options.format === "parquet") {
+    const types = new ColumnTypeTracker();
+    for await (const row of journalRows(journalPath)) {
+      columns = unionColumns(columns, row);
+      types.observe(row);
+    }
+    await writeParquetTable(options.out, orderColumns(columns), types, journalRows(journalPath), {
+      "horologium.batch.run": JSON.stringify(runIdentity(options)),
+    });
+  } else if (csvNeedsRebuild) {
+    for await (const row of journalRows(journalPath)) columns = unionColumns(columns, row);
+    await writeCsvTable(options.out, orderColumns(columns), journalRows(journalPath));
+  }
+}
+
+/** The run on a started pool, under the run lock: open the journal and table, fit every object, write the final table, summarise. */
 async function fitWithPool(options: BatchRunOptions, pool: FitPool, inShard: number | undefined): Promise<BatchSummary> {
   const journalPath = journalPathFor(options.out);
   const lock = acquireRunLock(options.out, options.env);
   try {
     const { journal, contents } = await ResultsJournal.open(journalPath, runIdentity(options), options.mode);
-    let csv: CsvResultsAppender | undefined;
+    let sinks: RowSinks | undefined;
     try {
-      let columns = expectedColumns(options.model, options.background) as readonly string[];
-      for (const column of contents.columns) columns = unionColumns(columns, { [column]: null });
-      columns = orderColumns(columns);
-      let csvNeedsRebuild = false;
-      if (options.format === "csv") {
-        await writeCsvTable(options.out, columns, journalRows(journalPath));
-        csv = new CsvResultsAppender(options.out, columns);
-      }
-
+      const opened = await openRowSinks(options, journal, journalPath, contents.columns);
+      sinks = opened.sinks;
+      const rowSinks = sinks;
       const done = contents.ids;
       const toDo = inShard === undefined ? undefined : Math.max(0, inShard - done.size);
-
-      const seen = new Set<string>();
-      const failureExamples: { id: string; reason: string }[] = [];
-      const duplicateExamples: string[] = [];
-      let recorded = 0;
-      let ok = 0;
-      let failed = 0;
-      let resumed = 0;
-      let otherShards = 0;
-      let duplicates = 0;
+      const tally: RunTally = { recorded: 0, ok: 0, failed: 0, resumed: 0, otherShards: 0, duplicates: 0, failureExamples: [], duplicateExamples: [] };
       const started = options.now();
       const progress = (): BatchProgress => ({
-        recorded,
-        ok,
-        failed,
-        resumed,
+        recorded: tally.recorded,
+        ok: tally.ok,
+        failed: tally.failed,
+        resumed: tally.resumed,
         toDo,
         elapsedMs: options.now() - started,
       });
-
       const record = (row: ResultRow): void => {
-        journal.append(row);
-        if (csv) {
-          if (unionColumns(csv.columns, row) !== csv.columns) csvNeedsRebuild = true;
-          csv.append(row);
-        }
-        recorded += 1;
-        if (row.status === "ok") ok += 1;
-        else {
-          failed += 1;
-          if (failureExamples.length < EXAMPLES) failureExamples.push({ id: String(row.object_id), reason: String(row.reason) });
-        }
+        recordRow(rowSinks, tally, row);
         options.onProgress?.(progress());
       };
 
       options.onProgress?.(progress());
       try {
-        const inFlight = new Set<Promise<void>>();
-        let fatal: Error | undefined;
-        for await (const object of options.objects) {
-          if (fatal) break;
-          const id = object.id;
-          if (!isInShard(id, options.shard)) {
-            otherShards += 1;
-            continue;
-          }
-          if (seen.has(id)) {
-            duplicates += 1;
-            if (duplicateExamples.length < EXAMPLES) duplicateExamples.push(id);
-            continue;
-          }
-          seen.add(id);
-          if (done.delete(id)) {
-            resumed += 1;
-            continue;
-          }
-          const seed = objectSeed(options.seed, id);
-          if (!object.lightCurve) {
-            record(failedRow(id, seed, options.model, object.problem ?? "no light curve"));
-            continue;
-          }
-          const fitOptions = { ...options.fitOptions, model: options.model, background: options.background, seed };
-          const task: Promise<void> = pool
-            .fit(id, object.lightCurve, fitOptions)
-            .then((outcome: FitOutcome) =>
-              record(
-                outcome.kind === "ok"
-                  ? withWarnings(outcome.row, object.warnings)
-                  : failedRow(id, seed, options.model, outcome.reason),
-              ),
-            )
-            .catch((error: Error) => {
-              fatal ??= error;
-            })
-            .finally(() => inFlight.delete(task));
-          inFlight.add(task);
-          if (inFlight.size >= pool.size) await Promise.race(inFlight);
-        }
-        await Promise.all(inFlight);
-        if (fatal) throw fatal;
+        await fitEveryObject(options, pool, done, tally, record);
       } finally {
         await pool.close();
       }
-      await csv?.close();
-      csv = undefined;
+      await sinks.csv?.close();
+      sinks.csv = undefined;
       await journal.close();
-
-      if (options.format === "parquet") {
-        const types = new ColumnTypeTracker();
-        for await (const row of journalRows(journalPath)) {
-          columns = unionColumns(columns, row);
-          types.observe(row);
-        }
-        await writeParquetTable(options.out, orderColumns(columns), types, journalRows(journalPath), {
-          "horologium.batch.run": JSON.stringify(runIdentity(options)),
-        });
-      } else if (csvNeedsRebuild) {
-        for await (const row of journalRows(journalPath)) columns = unionColumns(columns, row);
-        await writeCsvTable(options.out, orderColumns(columns), journalRows(journalPath));
-      }
+      await writeFinalTable(options, journalPath, opened.columns, sinks.csvNeedsRebuild);
 
       const final = progress();
       return {
         ...final,
         toDo,
-        totalOk: contents.ok + ok,
-        totalFailed: contents.failed + failed,
-        otherShards,
-        duplicates,
-        duplicateExamples,
-        failureExamples,
+        totalOk: contents.ok + tally.ok,
+        totalFailed: contents.failed + tally.failed,
+        otherShards: tally.otherShards,
+        duplicates: tally.duplicates,
+        duplicateExamples: tally.duplicateExamples,
+        failureExamples: tally.failureExamples,
         repairedBytes: contents.repairedBytes,
         out: options.out,
         journal: journalPath,
       };
     } finally {
-      await csv?.close();
+      await sinks?.csv?.close();
       await journal.close();
     }
   } finally {

@@ -201,7 +201,7 @@ function zoom(search: LineSearch, lowIn: LinePoint, highIn: LinePoint): void {
 
 /**
  * Stage 2, the bracketing phase of the strong Wolfe line search (Nocedal & Wright 2006, algorithm 3.5):
- * doubles the step from `initialAlpha` until a point meets both conditions or a bracket for {@link zoom}
+ * doubles the step from `initialAlpha` until a point meets both conditions or a bracket for `zoom`
  * is found; leaves the step to take in `search.accepted` (null when none lowered the objective enough).
  */
 function strongWolfeSearch(search: LineSearch, initialAlpha: number): void {
@@ -248,9 +248,9 @@ function convergenceStop(
  * conditions with c1 = 1e-4, c2 = 0.9 (Nocedal & Wright 2006, Numerical Optimization, 2nd ed.,
  * algorithms 7.4, 7.5, 3.5 and 3.6). Points where f is not finite are treated as too far and the step
  * is shortened, so a log posterior that is -Infinity outside its support can be minimised as -ln p.
- * Each iteration: the search direction ({@link searchDirection}), the line search
- * ({@link strongWolfeSearch} with {@link zoom}), the step and its correction pair ({@link rememberPair}),
- * the convergence tests ({@link convergenceStop}).
+ * Each iteration: the search direction (`searchDirection`), the line search
+ * (`strongWolfeSearch` with `zoom`), the step and its correction pair (`rememberPair`),
+ * the convergence tests (`convergenceStop`).
  *
  * @example minimizeLbfgs((x, g) => { g[0] = 2 * (x[0] - 3); return (x[0] - 3) ** 2; }, new Float64Array([0]))
  */

@@ -111,7 +111,7 @@ function leapfrog(trajectory: Trajectory, from: PhasePoint, eps: number): PhaseP
 
 /**
  * The subtree of depth 0: one leapfrog step, its acceptance statistic counted; null when the energy error
- * exceeds {@link MAX_ENERGY_ERROR} (a divergence).
+ * exceeds `MAX_ENERGY_ERROR` (a divergence).
  */
 function singleStepSubtree(trajectory: Trajectory, from: PhasePoint, eps: number): Subtree | null {
   const { h0, stats } = trajectory;
@@ -202,7 +202,7 @@ function extendTrajectory(state: TrajectoryState, subtree: Subtree, forward: boo
  * Betancourt 2017, arXiv:1701.02434, appendix A), and the U-turn test uses the sum of momenta rho with
  * p# = M^-1 p: a (sub)trajectory turns when p#_left . rho <= 0 or p#_right . rho <= 0, checked also
  * across each merged pair of subtrees so that turns at their junction are caught (common practice).
- * Stages: a fresh momentum, then per doubling {@link buildSubtree} and {@link extendTrajectory}.
+ * Stages: a fresh momentum, then per doubling `buildSubtree` and `extendTrajectory`.
  */
 export function nutsTransition(
   target: DifferentiablePosteriorTarget,

@@ -199,8 +199,8 @@ function convertedMeasurements(columns: ObservationColumns, rows: readonly numbe
  * band, and rows whose value or error is a placeholder code (both counted in `provenance.dropped`, the
  * placeholders also in `provenance.placeholders`, with a warning); rejects non-positive errors with their line;
  * splits by band (or keeps `options.band`); sorts each light curve by time (stable, repeated times
- * kept); rejects too few points and zero time span; converts units if asked. Stages: {@link groupRowsByBand},
- * {@link requireRows}, then per band {@link exclusionWarnings}, {@link sortRowsByTime}, {@link convertedMeasurements}.
+ * kept); rejects too few points and zero time span; converts units if asked. Stages: `groupRowsByBand`,
+ * `requireRows`, then per band `exclusionWarnings`, `sortRowsByTime`, `convertedMeasurements`.
  */
 export function assembleLightCurves(columns: ObservationColumns, options: AssembleOptions = {}): LightCurveSet {
   const { source, choice } = columns;
