@@ -3,27 +3,15 @@ import { DenseGaussianProcess } from "../../src/gp/dense-gaussian-process.js";
 import { GaussianProcess } from "../../src/gp/gaussian-process.js";
 import { kernels, type Kernel } from "../../src/kernels/index.js";
 import { createRng } from "../../src/random/rng.js";
+import { COMPOSITE_CASES, FAMILY_CASES } from "../helpers/kernel-cases.js";
 import { maxRelativeDifference, randomErrors, seasonalTimes } from "../helpers/seasonal-times.js";
 
 // Reference: the dense Cholesky of ml-matrix (a general-purpose linear-algebra library) computing
 // log N(y | m, K) and the prediction equations of Rasmussen & Williams 2006, Algorithm 2.1 / eq. 5.9.
 const families: Array<[string, Kernel]> = [
-  ["damped random walk", kernels.dampedRandomWalk({ sigma: 0.3, tau: 120 })],
-  ["oscillator Q > 1/2", kernels.oscillator({ sigma: 0.2, period: 37, quality: 6 })],
-  ["oscillator Q < 1/2", kernels.oscillator({ sigma: 0.2, period: 90, quality: 0.3 })],
+  ...FAMILY_CASES,
   ["oscillator Q = 1/2", kernels.oscillator({ sigma: 0.2, period: 60, quality: 0.5 })],
-  ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.35 })],
-  ["matern32", kernels.matern32({ sigma: 0.15, scale: 15 })],
-  [
-    "quasi-periodic plus damped random walk",
-    kernels
-      .quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.35 })
-      .plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 })),
-  ],
-  [
-    "oscillator times damped random walk",
-    kernels.oscillator({ sigma: 0.5, period: 40, quality: 3 }).times(kernels.dampedRandomWalk({ sigma: 0.4, tau: 200 })),
-  ],
+  ...COMPOSITE_CASES,
   [
     "(matern32 + drw) times oscillator",
     kernels

@@ -4,29 +4,17 @@ import { MultiBandProcess } from "../../src/gp/multi-band-process.js";
 import { kernels, type Kernel } from "../../src/kernels/index.js";
 import { createRng } from "../../src/random/rng.js";
 import { denseMeanMarginal, denseMultiBand, type DenseBand } from "../helpers/dense-multi-band.js";
+import { COMPOSITE_CASES, FAMILY_CASES } from "../helpers/kernel-cases.js";
 import { maxRelativeDifference, randomErrors, seasonalTimes } from "../helpers/seasonal-times.js";
 
 // Reference: the covariance a_i a_j k(t_i - l_i - t_j + l_j) + noise written out densely and factorised by
 // ml-matrix's Cholesky (a general-purpose linear-algebra library), with the gradient of Rasmussen &
 // Williams 2006, eq. 5.9, and their prediction equations 2.25-2.26 (test/helpers/dense-multi-band.ts).
 const families: Array<[string, Kernel]> = [
-  ["damped random walk", kernels.dampedRandomWalk({ sigma: 0.3, tau: 120 })],
-  ["oscillator Q > 1/2", kernels.oscillator({ sigma: 0.2, period: 37, quality: 6 })],
-  ["oscillator Q < 1/2", kernels.oscillator({ sigma: 0.2, period: 90, quality: 0.3 })],
-  ["quasi-periodic", kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.35 })],
-  ["matern32", kernels.matern32({ sigma: 0.15, scale: 15 })],
+  ...FAMILY_CASES,
   ["carma(2,1)", kernels.carma({ sigma: 0.2, oscillations: [{ period: 60, quality: 0.9 }], movingAverage: [4] })],
   ["carma(3,0)", kernels.carma({ sigma: 0.2, oscillations: [{ period: 45, quality: 2 }], timescales: [200] })],
-  [
-    "quasi-periodic plus damped random walk",
-    kernels
-      .quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.35 })
-      .plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 300 })),
-  ],
-  [
-    "oscillator times damped random walk",
-    kernels.oscillator({ sigma: 0.5, period: 40, quality: 3 }).times(kernels.dampedRandomWalk({ sigma: 0.4, tau: 200 })),
-  ],
+  ...COMPOSITE_CASES,
 ];
 
 /** Three unevenly sampled bands (60, 21 and 37 points) with different depths. */
