@@ -1,7 +1,7 @@
 import { drawBandMeans, type BandMeanMarginal, type BandMeanPrior } from "../gp/band-mean-sums.js";
 import type { MultiBandProcess } from "../gp/multi-band-process.js";
 import { createParameterSpace, type ParameterSpace, type PhysicalLikelihood, type PosteriorDraws } from "../inference/index.js";
-import { FactorizationError } from "../linalg/factorization-error.js";
+import { logLikelihoodOrImpossible } from "./impossible-parameters.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { Rng } from "../random/rng.js";
 import { jointProcessAt, type JointModel } from "./joint-model.js";
@@ -44,12 +44,7 @@ export function collapseJointMeans(model: JointModel, lightCurves: readonly Ligh
     space,
     likelihood: {
       logLikelihood(physical) {
-        try {
-          return marginalAt(physical).logLikelihood;
-        } catch (error) {
-          if (error instanceof FactorizationError) return -Infinity;
-          throw error;
-        }
+        return logLikelihoodOrImpossible(() => marginalAt(physical).logLikelihood);
       },
     },
     meanPosterior: marginalAt,

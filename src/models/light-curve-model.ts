@@ -10,6 +10,7 @@ import {
 import { dampedRandomWalkFamily } from "../kernels/damped-random-walk.js";
 import { familyOfModel, KERNEL_FAMILIES, type AnyKernelFamily, type FamilyParameter, type Kernel, type ModelName as FamilyModelName } from "../kernels/index.js";
 import { FactorizationError } from "../linalg/factorization-error.js";
+import { logLikelihoodOrImpossible } from "./impossible-parameters.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { DataSummary } from "./data-summary.js";
 import type { PeriodRange } from "./period-range.js";
@@ -195,12 +196,7 @@ export function modelLikelihood(model: LightCurveModel, lightCurve: LightCurve):
   const processAt = processFactory(model, lightCurve);
   return {
     logLikelihood(physical) {
-      try {
-        return processAt(physical).logLikelihood(y);
-      } catch (error) {
-        if (error instanceof FactorizationError) return -Infinity;
-        throw error;
-      }
+      return logLikelihoodOrImpossible(() => processAt(physical).logLikelihood(y));
     },
     logLikelihoodAndGradient(physical, gradientOut) {
       try {

@@ -1,5 +1,5 @@
 import { createParameterSpace, type ParameterSpace, type PhysicalLikelihood, type PosteriorDraws } from "../inference/index.js";
-import { FactorizationError } from "../linalg/factorization-error.js";
+import { logLikelihoodOrImpossible } from "./impossible-parameters.js";
 import type { MeanPrior } from "../linalg/mean-marginal-likelihood.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { Rng } from "../random/rng.js";
@@ -60,12 +60,7 @@ export function collapseMean(model: LightCurveModel, lightCurve: LightCurve): Co
     prior,
     likelihood: {
       logLikelihood(physical) {
-        try {
-          return marginalAt(physical).logLikelihood;
-        } catch (error) {
-          if (error instanceof FactorizationError) return -Infinity;
-          throw error;
-        }
+        return logLikelihoodOrImpossible(() => marginalAt(physical).logLikelihood);
       },
     },
     meanPosterior: (physical) => recent.get(Array.prototype.join.call(physical, " ")) ?? marginalAt(physical).meanPosterior,
