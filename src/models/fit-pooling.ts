@@ -1,7 +1,6 @@
 import type { PosteriorDraws } from "../inference/index.js";
 import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 
-
 /**
  * The pooling stage of a fit: the draws of several runs (one per period mode) in one set, each run
  * contributing a share proportional to its weight. The pooled size is the largest for which every

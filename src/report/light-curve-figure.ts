@@ -1,5 +1,5 @@
-import { medianOf } from "../numerics/order-statistics.js";
 import type { TopLevelSpec } from "vega-lite";
+import { medianOf } from "../numerics/order-statistics.js";
 import { bulkRange } from "./bulk-range.js";
 import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
