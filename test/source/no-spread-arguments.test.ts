@@ -1,7 +1,8 @@
-import { readdirSync, readFileSync } from "node:fs";
-import { join, relative } from "node:path";
+import { readFileSync } from "node:fs";
+import { relative } from "node:path";
 import ts from "typescript";
 import { describe, expect, it } from "vitest";
+import { SOURCE_ROOT, sourceFiles } from "./source-files.js";
 
 /**
  * No source spreads an array into the arguments of a call (`Math.max(...xs)`, `push(...xs)`,
@@ -10,16 +11,6 @@ import { describe, expect, it } from "vitest";
  * (issue 12). The rule holds for every spread, bounded or not, so that nobody has to judge which arrays
  * can grow. Checked on the TypeScript syntax tree, not by text search.
  */
-const SOURCE_ROOT = join(import.meta.dirname, "..", "..", "src");
-
-function sourceFiles(folder: string): string[] {
-  return readdirSync(folder, { withFileTypes: true }).flatMap((entry) => {
-    const path = join(folder, entry.name);
-    if (entry.isDirectory()) return sourceFiles(path);
-    return entry.name.endsWith(".ts") && !entry.name.endsWith(".d.ts") ? [path] : [];
-  });
-}
-
 /** `file:line: text` of every spread argument and every `.apply(...)` call in one source text. */
 function spreadArguments(fileName: string, text: string): string[] {
   const source = ts.createSourceFile(fileName, text, ts.ScriptTarget.Latest, true);
