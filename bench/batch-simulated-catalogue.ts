@@ -58,7 +58,7 @@ export function* simulatedQuasars(options: SimulatedQuasarOptions): Generator<Si
     const rng = createRng(childSeed(options.seed, k));
     const id = `LQ-${String(k + 1).padStart(5, "0")}`;
     const time = seasonalGroundCadence({ start: 59000, seasons: options.seasons ?? 10, revisitInterval: 6 }, rng);
-    const baseline = time[time.length - 1]! - time[0]!;
+    const baseline = time[time.length - 1] - time[0];
     const shortest = Math.min(100, baseline / 2);
     const tau = Math.exp(Math.log(shortest) + rng.uniform() * Math.log(baseline / shortest));
     const sigma = Math.exp(Math.log(0.05) + rng.uniform() * Math.log(5));

@@ -61,7 +61,7 @@ interface MethodFigures {
 
 function quantileOf(values: number[], p: number): number {
   const sorted = [...values].sort((a, b) => a - b);
-  return sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))]! : NaN;
+  return sorted.length ? sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))] : NaN;
 }
 
 const SELF = fileURLToPath(import.meta.url);

@@ -44,12 +44,12 @@ function scaledGaussian(): Target {
     label: "Gaussian, sd 1e-3..1e3",
     density: {
       dimension: sd.length,
-      logPosterior: (x) => x.reduce((a, v, i) => a - (0.5 * v * v) / (sd[i]! * sd[i]!), 0),
+      logPosterior: (x) => x.reduce((a, v, i) => a - (0.5 * v * v) / (sd[i] * sd[i]), 0),
       logPosteriorAndGradient: (x, g) => {
         let lp = 0;
         for (let i = 0; i < x.length; i++) {
-          g[i] = -x[i]! / (sd[i]! * sd[i]!);
-          lp -= (0.5 * x[i]! * x[i]!) / (sd[i]! * sd[i]!);
+          g[i] = -x[i] / (sd[i] * sd[i]);
+          lp -= (0.5 * x[i] * x[i]) / (sd[i] * sd[i]);
         }
         return lp;
       },
@@ -72,7 +72,7 @@ interface RunFigures {
 function runNuts(target: Target, seed: number, way: "schedule" | "oracle" | "no windows"): RunFigures {
   const rng = createRng(seed);
   const initial = Array.from({ length: CHAINS }, () =>
-    Float64Array.from(target.centre, (c, i) => c + 0.1 * Math.sqrt(target.startInverseMass[i]!) * rng.normal()),
+    Float64Array.from(target.centre, (c, i) => c + 0.1 * Math.sqrt(target.startInverseMass[i]) * rng.normal()),
   );
   const sampler = createNutsSampler(target.density, initial, `warmup-bench-${seed}`, {
     warmup: WARMUP,
@@ -86,7 +86,7 @@ function runNuts(target: Target, seed: number, way: "schedule" | "oracle" | "no 
   const essMin = draws.reduce((least, chains) => Math.min(least, bulkEffectiveSampleSize(chains)), Infinity);
   let massError = 0;
   for (const diagonal of details.inverseMassDiagonals) {
-    diagonal.forEach((m, j) => (massError = Math.max(massError, Math.abs(Math.log(m / target.variance[j]!)))));
+    diagonal.forEach((m, j) => (massError = Math.max(massError, Math.abs(Math.log(m / target.variance[j])))));
   }
   return {
     stepSize: details.stepSizes.reduce((a, b) => a + b, 0) / details.stepSizes.length,

@@ -58,7 +58,7 @@ for (let r = 0; r < replicates; r++) {
   const kernel = kernels.quasiPeriodic({ sigma: sigma!, period: period!, decayTime: decayTime!, harmonicWeight: harmonicWeight! });
   const latent = new GaussianProcess(kernel, time, { mean: mean! }).priorDraw(rng);
   const error = Float64Array.from(time, () => errorLevel);
-  const value = Float64Array.from(latent, (v, i) => v + error[i]! * rng.normal());
+  const value = Float64Array.from(latent, (v, i) => v + error[i] * rng.normal());
   const peak = computePeriodogram({ time, value, error }, { minimumFrequency: 1 / 15, maximumFrequency: 1 / 2, peaks: 1 }).peaks[0];
   const guess = peak?.period ?? 5;
   const fit = samplePosterior(space, quasiPeriodicLikelihood(time, value, error), {
@@ -70,7 +70,7 @@ for (let r = 0; r < replicates; r++) {
   if (fit.diagnostics.converged) converged++;
   const draws = posteriorDraws(space, fit.run);
   if (draws.chain.length < drawsPerRank) throw new Error(`replicate ${r}: the fit kept ${draws.chain.length} draws (${fit.stopReason})`);
-  names.forEach((name, i) => ranks[i]!.push(rankOfTruth(draws.columns[name]!, truth[i]!, drawsPerRank)));
+  names.forEach((name, i) => ranks[i].push(rankOfTruth(draws.columns[name], truth[i], drawsPerRank)));
   if (!fit.diagnostics.converged) console.error(`replicate ${r + 1}: not converged (${fit.stopReason})`);
   // The figures so far every 10 replicates (stderr), so that a long run can be read before it ends.
   if ((r + 1) % 10 === 0 && r + 1 < replicates) report(r + 1, console.error);
@@ -84,7 +84,7 @@ function report(done: number, print: (line: string) => void): boolean {
   print(`converged fits: ${converged}/${done}; ranks among ${drawsPerRank} draws, ${bins} bins`);
   const threshold = 0.01 / names.length;
   names.forEach((name, i) => {
-    print(`${name.padEnd(15)} histogram ${histograms[i]!.map((c) => String(c).padStart(3)).join(" ")}  chi-square p = ${pValues[i]!.toFixed(3)}`);
+    print(`${name.padEnd(15)} histogram ${histograms[i].map((c) => String(c).padStart(3)).join(" ")}  chi-square p = ${pValues[i].toFixed(3)}`);
   });
   const passed = pValues.every((p) => p >= threshold);
   print(`${((performance.now() - started) / 1000).toFixed(0)} s; ${passed ? "passed" : "FAILED"} (every p >= ${threshold.toFixed(4)})`);

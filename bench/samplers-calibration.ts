@@ -96,7 +96,7 @@ export function runCalibration(options: CalibrationOptions): CalibrationResult {
   for (let r = 0; r < replicates; r++) {
     const rng = createRng(childSeed(options.seed, r));
     const truthVector = space.toPhysical(space.drawFromPrior(rng));
-    const truth = { tau: truthVector[0]!, sigma: truthVector[1]!, mean: truthVector[2]! };
+    const truth = { tau: truthVector[0], sigma: truthVector[1], mean: truthVector[2] };
     const time = seasonalGroundCadence(
       setup === "short"
         ? { start: 60000, seasons: options.seasons ?? 3, seasonLength: 243, revisitInterval: 4, weatherLoss: 0.3 }
@@ -137,7 +137,7 @@ export function runCalibration(options: CalibrationOptions): CalibrationResult {
     const total = draws.chain.length;
     // A fit stopped before it kept any draws has no ranks; it must not pass as rank 0.
     if (total < drawsPerRank) throw new Error(`replicate ${r}: the fit kept ${total} draws`);
-    names.forEach((name, i) => ranks[i]!.push(rankOfTruth(draws.columns[name]!, truthVector[i]!, drawsPerRank)));
+    names.forEach((name, i) => ranks[i].push(rankOfTruth(draws.columns[name], truthVector[i], drawsPerRank)));
   }
   return { names, ranks, converged, methods, ...rankUniformity(ranks, drawsPerRank, bins) };
 }
@@ -151,7 +151,7 @@ export function rankOfTruth(column: ArrayLike<number>, truth: number, drawsPerRa
   let rank = 0;
   for (let k = 0; k < drawsPerRank; k++) {
     const index = Math.floor(((k + 0.5) * column.length) / drawsPerRank);
-    if (column[index]! < truth) rank++;
+    if (column[index] < truth) rank++;
   }
   return rank;
 }
@@ -165,7 +165,7 @@ export function rankUniformity(
   const width = (drawsPerRank + 1) / bins;
   const histograms = ranks.map((rs) => {
     const h = new Array<number>(bins).fill(0);
-    for (const rank of rs) h[Math.floor(rank / width)]!++;
+    for (const rank of rs) h[Math.floor(rank / width)]++;
     return h;
   });
   const pValues = histograms.map((h) => chi2gof(h, new Array<number>(bins).fill(1 / bins)).pValue);

@@ -40,13 +40,13 @@ export function dampedRandomWalkSpace(): ParameterSpace {
  */
 export function dampedRandomWalkLikelihood(time: Float64Array, value: Float64Array, error: Float64Array): PhysicalLikelihood {
   const process = (x: Float64Array): GaussianProcess =>
-    new GaussianProcess(kernels.dampedRandomWalk({ sigma: x[1]!, tau: x[0]! }), time, { errors: error, mean: x[2]! });
+    new GaussianProcess(kernels.dampedRandomWalk({ sigma: x[1], tau: x[0] }), time, { errors: error, mean: x[2] });
   return {
     logLikelihood: (x) => process(x).logLikelihood(value),
     logLikelihoodAndGradient: (x, g) => {
       const r = process(x).logLikelihoodGradient(value);
-      g[0] = r.kernel[1]!;
-      g[1] = r.kernel[0]!;
+      g[0] = r.kernel[1];
+      g[1] = r.kernel[0];
       g[2] = r.mean;
       return r.value;
     },
@@ -74,7 +74,7 @@ export function simulateDampedRandomWalk(
   const latent = new GaussianProcess(kernels.dampedRandomWalk({ sigma: truth.sigma, tau: truth.tau }), time, {
     mean: truth.mean,
   }).priorDraw(rng);
-  const value = Float64Array.from(latent, (v, i) => v + error[i]! * rng.normal());
+  const value = Float64Array.from(latent, (v, i) => v + error[i] * rng.normal());
   return { value, error };
 }
 
@@ -111,19 +111,19 @@ export function quasiPeriodicSpace(): ParameterSpace {
 export function quasiPeriodicLikelihood(time: Float64Array, value: Float64Array, error: Float64Array): PhysicalLikelihood {
   const process = (x: Float64Array): GaussianProcess =>
     new GaussianProcess(
-      kernels.quasiPeriodic({ sigma: x[3]!, period: x[0]!, decayTime: x[1]!, harmonicWeight: x[2]! }),
+      kernels.quasiPeriodic({ sigma: x[3], period: x[0], decayTime: x[1], harmonicWeight: x[2] }),
       time,
-      { errors: error, mean: x[4]! },
+      { errors: error, mean: x[4] },
     );
   return {
     logLikelihood: (x) => process(x).logLikelihood(value),
     logLikelihoodAndGradient: (x, g) => {
       // Engine order: sigma, period, decayTime, harmonicWeight.
       const r = process(x).logLikelihoodGradient(value);
-      g[0] = r.kernel[1]!;
-      g[1] = r.kernel[2]!;
-      g[2] = r.kernel[3]!;
-      g[3] = r.kernel[0]!;
+      g[0] = r.kernel[1];
+      g[1] = r.kernel[2];
+      g[2] = r.kernel[3];
+      g[3] = r.kernel[0];
       g[4] = r.mean;
       return r.value;
     },
@@ -145,7 +145,7 @@ export function quasiPeriodicFit(n = 1000, seed = 2025): SimulatedFit {
     time,
     { mean: truth.mean },
   ).priorDraw(rng);
-  const value = Float64Array.from(latent, (v, i) => v + error[i]! * rng.normal());
+  const value = Float64Array.from(latent, (v, i) => v + error[i] * rng.normal());
   return {
     label: `quasi-periodic, ${n} points`,
     space: quasiPeriodicSpace(),

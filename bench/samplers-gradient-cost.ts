@@ -11,7 +11,7 @@ import { dampedRandomWalkFit, quasiPeriodicFit, type SimulatedFit } from "./samp
 function median(values: number[]): number {
   const s = values.slice().sort((a, b) => a - b);
   const m = s.length >> 1;
-  return s.length % 2 ? s[m]! : 0.5 * (s[m - 1]! + s[m]!);
+  return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
 }
 
 function measure(fit: SimulatedFit, blocks: number): { value: number; gradient: number; ratio: number } {

@@ -54,7 +54,7 @@ const loadEnd = (await import("node:os")).loadavg();
 
 const quantile = (values: number[], p: number) => {
   const sorted = [...values].sort((a, b) => a - b);
-  return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))]!;
+  return sorted[Math.min(sorted.length - 1, Math.floor(p * sorted.length))];
 };
 const median = (v: number[]) => quantile(v, 0.5);
 console.log(`posterior methods on ${k} simulated quasars (seed ${values.seed}); load average ${loadStart.map((x) => x.toFixed(2)).join(" ")} -> ${loadEnd.map((x) => x.toFixed(2)).join(" ")}`);

@@ -102,7 +102,7 @@ cases.forEach((c, k) => {
 for (const label of new Set(rows.map((r) => r.label))) {
   for (const method of methods) {
     const t = rows.filter((r) => r.label === label && r.method === method).map((r) => r.cpu).sort((a, b) => a - b);
-    if (t.length > 0) console.log(`${label}, ${method}: median ${t[t.length >> 1]!.toFixed(2)} CPU s, largest ${t[t.length - 1]!.toFixed(2)} (${t.length} fits)`);
+    if (t.length > 0) console.log(`${label}, ${method}: median ${t[t.length >> 1].toFixed(2)} CPU s, largest ${t[t.length - 1].toFixed(2)} (${t.length} fits)`);
   }
 }
 console.log(`load average at end ${loadavg().map((x) => x.toFixed(2)).join(" ")}`);

@@ -47,9 +47,9 @@ console.log(`converged fits: ${result.converged}/${replicates}; by method: ${Obj
 const threshold = 0.01 / result.names.length;
 let failed = false;
 result.names.forEach((name, i) => {
-  const p = result.pValues[i]!;
+  const p = result.pValues[i];
   if (p < threshold) failed = true;
-  console.log(`${name.padEnd(6)} histogram ${result.histograms[i]!.map((c) => String(c).padStart(3)).join(" ")}  chi-square p = ${p.toFixed(3)}`);
+  console.log(`${name.padEnd(6)} histogram ${result.histograms[i].map((c) => String(c).padStart(3)).join(" ")}  chi-square p = ${p.toFixed(3)}`);
 });
 console.log(`${((performance.now() - started) / 1000).toFixed(0)} s; ${failed ? "FAILED" : "passed"} (every p >= ${threshold.toFixed(4)})`);
 process.exitCode = failed ? 1 : 0;

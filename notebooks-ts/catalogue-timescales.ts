@@ -54,19 +54,19 @@ for (let k = 0; k < COUNT; k++) {
   const time = seasonalGroundCadence({ start: 60310, seasons: 5, revisitInterval: 4 }, rng);
   const latent = new GaussianProcess(kernels.dampedRandomWalk({ sigma, tau }), time, { mean }).priorDraw(rng);
   const full = observeMagnitudes(time, latent, { depth5Sigma: 23 }, rng, `${id} (invented)`);
-  const firstSeason = Array.from(time.keys()).filter((i) => time[i]! < 60310 + 200);
+  const firstSeason = Array.from(time.keys()).filter((i) => time[i] < 60310 + 200);
   const short: LightCurve = {
     ...full,
-    time: Float64Array.from(firstSeason, (i) => full.time[i]!),
-    value: Float64Array.from(firstSeason, (i) => full.value[i]!),
-    error: Float64Array.from(firstSeason, (i) => full.error![i]!),
+    time: Float64Array.from(firstSeason, (i) => full.time[i]),
+    value: Float64Array.from(firstSeason, (i) => full.value[i]),
+    error: Float64Array.from(firstSeason, (i) => full.error![i]),
   };
   quasars.push({ id, redshift, tauRest, tau, sigma, mean, full, short });
 }
-const span = (lc: LightCurve) => lc.time[lc.time.length - 1]! - lc.time[0]!;
+const span = (lc: LightCurve) => lc.time[lc.time.length - 1] - lc.time[0];
 const sizes = (pick: (q: Quasar) => LightCurve) => quasars.map((q) => pick(q).time.length);
-console.log(`full light curves: ${Math.min(...sizes((q) => q.full))}-${Math.max(...sizes((q) => q.full))} points over ~${span(quasars[0]!.full).toFixed(0)} d`);
-console.log(`first season only: ${Math.min(...sizes((q) => q.short))}-${Math.max(...sizes((q) => q.short))} points over ~${span(quasars[0]!.short).toFixed(0)} d`);
+console.log(`full light curves: ${Math.min(...sizes((q) => q.full))}-${Math.max(...sizes((q) => q.full))} points over ~${span(quasars[0].full).toFixed(0)} d`);
+console.log(`first season only: ${Math.min(...sizes((q) => q.short))}-${Math.max(...sizes((q) => q.short))} points over ~${span(quasars[0].short).toFixed(0)} d`);
 console.log(`true observed-frame tau: ${Math.min(...quasars.map((q) => q.tau)).toFixed(0)} to ${Math.max(...quasars.map((q) => q.tau)).toFixed(0)} d`);
 
 /* md

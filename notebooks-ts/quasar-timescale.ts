@@ -39,7 +39,7 @@ const rng = createRng("lds-j0417+2205");
 const MJD0 = 60000; // subtracted on the figures' time axes
 const truth = { tau: 100, sigma: 0.14, mean: 20.6, redshift: 1.62 };
 const time = seasonalGroundCadence({ start: 60310, seasons: 5, revisitInterval: 3 }, rng);
-const grid = timeGrid(time[0]! - 5, time[time.length - 1]! + 5, 900);
+const grid = timeGrid(time[0] - 5, time[time.length - 1] + 5, 900);
 const kernel = kernels.dampedRandomWalk({ sigma: truth.sigma, tau: truth.tau });
 const latent = jointDraw(kernel, truth.mean, time, grid, rng);
 const observed = observeMagnitudes(time, latent.atObserved, { depth5Sigma: 22.8 }, rng, "LDS J0417+2205 (invented)");
@@ -47,22 +47,22 @@ const observed = observeMagnitudes(time, latent.atObserved, { depth5Sigma: 22.8 
 // Seasons start every 365.25 d; the fifth is held back to test the forecast.
 const season = (t: number) => Math.floor((t - 60310 + 30) / 365.25) + 1;
 const keep = (pick: (s: number) => boolean): LightCurve => {
-  const rows = Array.from(observed.time.keys()).filter((i) => pick(season(observed.time[i]!)));
+  const rows = Array.from(observed.time.keys()).filter((i) => pick(season(observed.time[i])));
   return {
     ...observed,
-    time: Float64Array.from(rows, (i) => observed.time[i]!),
-    value: Float64Array.from(rows, (i) => observed.value[i]!),
-    error: Float64Array.from(rows, (i) => observed.error![i]!),
+    time: Float64Array.from(rows, (i) => observed.time[i]),
+    value: Float64Array.from(rows, (i) => observed.value[i]),
+    error: Float64Array.from(rows, (i) => observed.error![i]),
   };
 };
 const training = keep((s) => s <= 4);
 const heldOut = keep((s) => s === 5);
 console.log(`${observed.time.length} visits in 5 seasons: ${training.time.length} for fitting (seasons 1-4), ${heldOut.time.length} held back (season 5)`);
-console.log(`median error ${quantile(observed.error!, 0.5).toFixed(3)} mag; training baseline ${(training.time[training.time.length - 1]! - training.time[0]!).toFixed(0)} d`);
+console.log(`median error ${quantile(observed.error!, 0.5).toFixed(3)} mag; training baseline ${(training.time[training.time.length - 1] - training.time[0]).toFixed(0)} d`);
 
 // %%
 const pointRows = (lc: LightCurve, set: string) =>
-  Array.from(lc.time, (t, i) => ({ t: t - MJD0, y: lc.value[i]!, lo: lc.value[i]! - lc.error![i]!, hi: lc.value[i]! + lc.error![i]!, set }));
+  Array.from(lc.time, (t, i) => ({ t: t - MJD0, y: lc.value[i], lo: lc.value[i] - lc.error![i], hi: lc.value[i] + lc.error![i], set }));
 const dataSets = ["fitted (seasons 1-4)", "held back (season 5)", "true latent curve"];
 const setColors = { domain: dataSets, range: [COLORS.data, COLORS.heldOut, COLORS.truth] };
 const magnitudeAxis = { title: "r magnitude [mag]", scale: { zero: false, reverse: true } };
@@ -76,8 +76,8 @@ figure({
     width: 760,
     height: 280,
     datasets: {
-      points: [...pointRows(training, dataSets[0]!), ...pointRows(heldOut, dataSets[1]!)],
-      truth: Array.from(grid, (t, i) => ({ t: t - MJD0, y: latent.atGrid[i]!, set: dataSets[2]! })),
+      points: [...pointRows(training, dataSets[0]), ...pointRows(heldOut, dataSets[1])],
+      truth: Array.from(grid, (t, i) => ({ t: t - MJD0, y: latent.atGrid[i], set: dataSets[2] })),
     },
     encoding: { x: { field: "t", type: "quantitative", title: `Time [MJD − ${MJD0}, d]`, scale: { zero: false, nice: false } } },
     layer: [
@@ -151,7 +151,7 @@ console.log(`the 95% interval of tau spans a factor of ${(tauSummary["q97.5"] / 
 const tauDraws = fit.draws.columns.tau!;
 const sigmaDraws = fit.draws.columns.sigma!;
 const step = Math.max(1, Math.floor(tauDraws.length / 1500));
-const drawRows = Array.from({ length: Math.floor(tauDraws.length / step) }, (_, k) => ({ tau: tauDraws[k * step]!, sigma: sigmaDraws[k * step]! }));
+const drawRows = Array.from({ length: Math.floor(tauDraws.length / step) }, (_, k) => ({ tau: tauDraws[k * step], sigma: sigmaDraws[k * step] }));
 const baseline = result.data.baseline;
 figure({
   id: "tau-sigma-posterior",
@@ -185,9 +185,9 @@ timescale τ until it reaches the quasar's full variability ±1.96 σ about the 
 */
 const sample = storedPosteriorSample(result, fit.model.space.names);
 const rows = sample.rows.filter((_, k) => k % Math.ceil(sample.rows.length / 120) === 0);
-const lastFitted = training.time[training.time.length - 1]!;
+const lastFitted = training.time[training.time.length - 1];
 const windowStart = 60310 + 3 * 365.25 - 10;
-const windowEnd = observed.time[observed.time.length - 1]! + 15;
+const windowEnd = observed.time[observed.time.length - 1] + 15;
 const forecastGrid = timeGrid(windowStart, windowEnd, 500);
 const forecast = posteriorPredictive(fit.model, training, rows, forecastGrid);
 const inWindow = (t: number) => t >= windowStart && t <= windowEnd;
@@ -207,9 +207,9 @@ figure({
     width: 760,
     height: 320,
     datasets: {
-      band: Array.from(forecastGrid, (t, i) => ({ t: t - MJD0, m: forecast.mean[i]!, lo95: forecast.lower95[i]!, hi95: forecast.upper95[i]!, lo68: forecast.mean[i]! - forecast.sd[i]!, hi68: forecast.mean[i]! + forecast.sd[i]! })),
-      truth: Array.from(grid, (t, i) => ({ t: t - MJD0, y: latent.atGrid[i]!, set: dataSets[2]! })).filter((r) => inWindow(r.t + MJD0)),
-      points: [...pointRows(training, dataSets[0]!), ...pointRows(heldOut, dataSets[1]!)].filter((r) => inWindow(r.t + MJD0)),
+      band: Array.from(forecastGrid, (t, i) => ({ t: t - MJD0, m: forecast.mean[i], lo95: forecast.lower95[i], hi95: forecast.upper95[i], lo68: forecast.mean[i] - forecast.sd[i], hi68: forecast.mean[i] + forecast.sd[i] })),
+      truth: Array.from(grid, (t, i) => ({ t: t - MJD0, y: latent.atGrid[i], set: dataSets[2] })).filter((r) => inWindow(r.t + MJD0)),
+      points: [...pointRows(training, dataSets[0]), ...pointRows(heldOut, dataSets[1])].filter((r) => inWindow(r.t + MJD0)),
     },
     encoding: { x: { field: "t", type: "quantitative", title: `Time [MJD − ${MJD0}, d]`, scale: { zero: false, nice: false } } },
     layer: [
@@ -242,7 +242,7 @@ a mean and a standard deviation.
 const perDraw = rows.map((row) => fit.model.processAt(row, training).given(training.value).at(heldOut.time));
 const pit = Array.from(heldOut.time, (_, i) => {
   let u = 0;
-  for (const prediction of perDraw) u += normalCdf(heldOut.value[i]!, prediction.mean[i]!, Math.sqrt(prediction.variance[i]! + heldOut.error![i]! ** 2));
+  for (const prediction of perDraw) u += normalCdf(heldOut.value[i], prediction.mean[i], Math.sqrt(prediction.variance[i] + heldOut.error![i] ** 2));
   return u / perDraw.length;
 });
 const within = (lo: number, hi: number) => pit.filter((u) => u >= lo && u <= hi).length;
@@ -264,16 +264,16 @@ alone. For fixed parameters, if the latent curve at the last visit is known to �
 discussion of its exponential memory). The figure checks the engine against that closed form at the
 posterior-median parameters and shows how much the parameter uncertainty adds.
 */
-const medianRow = fit.model.space.names.map((name) => result.parameters[name]!.median);
+const medianRow = fit.model.space.names.map((name) => result.parameters[name].median);
 const afterGrid = timeGrid(lastFitted, lastFitted + 400, 201);
 const fixed = fit.model.processAt(medianRow, training).given(training.value).at(afterGrid);
 const mixture = posteriorPredictive(fit.model, training, rows, afterGrid);
 const tauMedian = result.parameters.tau!.median;
 const sigmaMedian = result.parameters.sigma!.median;
-const s0 = Math.sqrt(fixed.variance[0]!);
+const s0 = Math.sqrt(fixed.variance[0]);
 const closedForm = (dt: number) => Math.sqrt(sigmaMedian ** 2 - (sigmaMedian ** 2 - s0 ** 2) * Math.exp((-2 * dt) / tauMedian));
 let worst = 0;
-afterGrid.forEach((t, i) => (worst = Math.max(worst, Math.abs(Math.sqrt(fixed.variance[i]!) - closedForm(t - lastFitted)))));
+afterGrid.forEach((t, i) => (worst = Math.max(worst, Math.abs(Math.sqrt(fixed.variance[i]) - closedForm(t - lastFitted)))));
 console.log(`largest difference between the engine and the closed form: ${worst.toExponential(1)} mag`);
 const sdSeries = ["Gaussian process, median parameters", "closed form, median parameters", "averaged over the posterior"];
 figure({
@@ -287,13 +287,13 @@ figure({
     width: 600,
     height: 300,
     layer: [
-      { data: { values: Array.from(afterGrid, (t, i) => ({ dt: t - lastFitted, sd: Math.sqrt(fixed.variance[i]!), series: sdSeries[0] })) }, mark: { type: "line", strokeWidth: 2 }, encoding: {
+      { data: { values: Array.from(afterGrid, (t, i) => ({ dt: t - lastFitted, sd: Math.sqrt(fixed.variance[i]), series: sdSeries[0] })) }, mark: { type: "line", strokeWidth: 2 }, encoding: {
         x: { field: "dt", type: "quantitative", title: "Time since the last fitted visit [d]" },
         y: { field: "sd", type: "quantitative", title: "Forecast standard deviation [mag]", scale: { zero: true } },
         color: { field: "series", type: "nominal", scale: { domain: sdSeries, range: [COLORS.model, COLORS.truth, COLORS.data] }, legend: { title: null, orient: "bottom-right", labelLimit: 0 } },
       } },
       { data: { values: Array.from(afterGrid, (t) => ({ dt: t - lastFitted, sd: closedForm(t - lastFitted), series: sdSeries[1] })).filter((_, i) => i % 10 === 0) }, mark: { type: "point", filled: true, size: 30 }, encoding: { x: { field: "dt", type: "quantitative" }, y: { field: "sd", type: "quantitative" }, color: { field: "series", type: "nominal" } } },
-      { data: { values: Array.from(afterGrid, (t, i) => ({ dt: t - lastFitted, sd: mixture.sd[i]!, series: sdSeries[2] })) }, mark: { type: "line", strokeDash: [6, 4], strokeWidth: 1.5 }, encoding: { x: { field: "dt", type: "quantitative" }, y: { field: "sd", type: "quantitative" }, color: { field: "series", type: "nominal" } } },
+      { data: { values: Array.from(afterGrid, (t, i) => ({ dt: t - lastFitted, sd: mixture.sd[i], series: sdSeries[2] })) }, mark: { type: "line", strokeDash: [6, 4], strokeWidth: 1.5 }, encoding: { x: { field: "dt", type: "quantitative" }, y: { field: "sd", type: "quantitative" }, color: { field: "series", type: "nominal" } } },
       { data: { values: [{ dt: tauMedian }] }, mark: { type: "rule", strokeDash: [2, 3], color: COLORS.muted }, encoding: { x: { field: "dt", type: "quantitative" } } },
     ],
   }),

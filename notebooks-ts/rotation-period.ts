@@ -49,10 +49,10 @@ const depth = { depth5Sigma: 21.5 };
 
 const rng = createRng("lds-v-1187");
 const time = observingSeason(rng);
-const grid = timeGrid(time[0]! - 2, time[time.length - 1]! + 2, 800);
+const grid = timeGrid(time[0] - 2, time[time.length - 1] + 2, 800);
 const latent = jointDraw(kernel, truth.mean, time, grid, rng);
 const star = observeMagnitudes(time, latent.atObserved, depth, rng, "LDS V-1187 (invented)");
-const baseline = star.time[star.time.length - 1]! - star.time[0]!;
+const baseline = star.time[star.time.length - 1] - star.time[0];
 console.log(`${star.time.length} visits over ${baseline.toFixed(0)} d; median error ${(1000 * quantile(star.error!, 0.5)).toFixed(1)} mmag`);
 console.log(`true decay time ${truth.decayTime} d = ${(truth.decayTime / truth.period).toFixed(1)} rotations`);
 
@@ -64,7 +64,7 @@ grid of five points per peak width (VanderPlas 2018, ApJS 236, 16, sect. 7.1), a
 peaks with their search-wide false-alarm probabilities (Baluev 2008, MNRAS 385, 1279).
 */
 const periodogram = computePeriodogram({ time: star.time, value: star.value, error: star.error! }, { minimumFrequency: 2 / baseline, maximumFrequency: 1, peaks: 5 });
-const top = periodogram.peaks[0]!;
+const top = periodogram.peaks[0];
 table(
   periodogram.peaks.map((p, k) => ({
     rank: k + 1,
@@ -141,11 +141,11 @@ const edges = Array.from({ length: bins + 1 }, (_, k) => minP * Math.pow(maxP / 
 const counts = new Array<number>(bins).fill(0);
 for (const value of periodDraws) {
   const k = Math.floor((Math.log(value / minP) / Math.log(maxP / minP)) * bins);
-  if (k >= 0 && k < bins) counts[k]!++;
+  if (k >= 0 && k < bins) counts[k]++;
 }
 // Density per unit ln P, so that the area under the bars on the log axis is one.
-const densityRows = counts.map((c, k) => ({ p0: edges[k]!, p1: edges[k + 1]!, density: c / periodDraws.length / Math.log(edges[k + 1]! / edges[k]!) }));
-const powerRows = Array.from(periodogram.frequency, (f, i) => ({ period: 1 / f, power: periodogram.power[i]! })).filter((r) => r.period >= minP && r.period <= maxP);
+const densityRows = counts.map((c, k) => ({ p0: edges[k], p1: edges[k + 1], density: c / periodDraws.length / Math.log(edges[k + 1] / edges[k]) }));
+const powerRows = Array.from(periodogram.frequency, (f, i) => ({ period: 1 / f, power: periodogram.power[i] })).filter((r) => r.period >= minP && r.period <= maxP);
 const fap = periodogram.falseAlarmLevels.find((l) => l.probability === 0.01)!;
 const periodAxis = { field: "period", type: "quantitative", title: "Period [d]", scale: { type: "log", domain: [minP, maxP], nice: false } };
 // Label heights in pixels from the top of the plot, staggered so that neighbouring labels do not collide.
@@ -202,15 +202,15 @@ const sample = storedPosteriorSample(result, fit.model.space.names);
 const rows = sample.rows.filter((_, k) => k % Math.ceil(sample.rows.length / 80) === 0);
 const predictive = posteriorPredictive(fit.model, star, rows, grid);
 const FOLD_NIGHTS = 40;
-const firstNight = star.time[0]!;
+const firstNight = star.time[0];
 const phaseOf = (t: number, period: number) => ((((t - firstNight) / period) % 1) + 1) % 1;
 const cycleOf = (t: number, period: number) => Math.floor((t - firstNight) / period) + 1;
 const gpPanel = `posterior median P = ${p.period!.median.toFixed(2)} d`;
 const pgPanel = `highest periodogram peak P = ${top.period.toFixed(2)} d`;
 const foldPoints = (period: number, panel: string) =>
-  Array.from(star.time, (t, i) => ({ t, phase: phaseOf(t, period), y: star.value[i]!, panel })).filter((r) => r.t >= firstNight && r.t < firstNight + FOLD_NIGHTS);
+  Array.from(star.time, (t, i) => ({ t, phase: phaseOf(t, period), y: star.value[i], panel })).filter((r) => r.t >= firstNight && r.t < firstNight + FOLD_NIGHTS);
 const foldCurves = (period: number, panel: string) =>
-  Array.from(grid, (t, i) => ({ t, phase: phaseOf(t, period), cycle: cycleOf(t, period), m: predictive.mean[i]!, panel }))
+  Array.from(grid, (t, i) => ({ t, phase: phaseOf(t, period), cycle: cycleOf(t, period), m: predictive.mean[i], panel }))
     .filter((r) => r.t >= firstNight && r.t < firstNight + FOLD_NIGHTS)
     .sort((a, b) => a.cycle - b.cycle || a.phase - b.phase);
 figure({
@@ -265,8 +265,8 @@ figure({
     width: 760,
     height: 300,
     datasets: {
-      band: Array.from(grid, (t, i) => ({ t: t - MJD0, m: predictive.mean[i]!, lo: predictive.lower95[i]!, hi: predictive.upper95[i]!, truth: latent.atGrid[i]! })),
-      points: Array.from(star.time, (t, i) => ({ t: t - MJD0, y: star.value[i]!, lo: star.value[i]! - star.error![i]!, hi: star.value[i]! + star.error![i]! })),
+      band: Array.from(grid, (t, i) => ({ t: t - MJD0, m: predictive.mean[i], lo: predictive.lower95[i], hi: predictive.upper95[i], truth: latent.atGrid[i] })),
+      points: Array.from(star.time, (t, i) => ({ t: t - MJD0, y: star.value[i], lo: star.value[i] - star.error![i], hi: star.value[i] + star.error![i] })),
     },
     encoding: { x: { field: "t", type: "quantitative", title: `Time [MJD − ${MJD0}, d]`, scale: { zero: false, nice: false } } },
     layer: [
@@ -302,8 +302,8 @@ for (let k = 0; k < STARS; k++) {
   const lc: LightCurve = observeMagnitudes(t, new GaussianProcess(kernel, t, { mean: truth.mean }).priorDraw(r), depth, r, `rotation population ${k}`);
   const summary = summarizeLightCurve(lc);
   const series = { time: lc.time, value: lc.value, error: lc.error! };
-  const wide = computePeriodogram(series, { minimumFrequency: 2 / summary.baseline, maximumFrequency: 1, peaks: 1 }).peaks[0]!;
-  const guess = computePeriodogram(series, { minimumFrequency: 2 / summary.baseline, maximumFrequency: 1 / (2 * summary.minimumSpacing), peaks: 1 }).peaks[0]!;
+  const wide = computePeriodogram(series, { minimumFrequency: 2 / summary.baseline, maximumFrequency: 1, peaks: 1 }).peaks[0];
+  const guess = computePeriodogram(series, { minimumFrequency: 2 / summary.baseline, maximumFrequency: 1 / (2 * summary.minimumSpacing), peaks: 1 }).peaks[0];
   const model = buildModel("quasi-periodic", summary, { periodGuess: guess.period });
   const modes = findPeriodModes(model, modelLikelihood(model, lc), model.initialGuess.period!);
   outcomes.push({ periodogram: wide.period, gp: modes[0]?.period ?? NaN, gpProbability: modes[0]?.probability ?? NaN });

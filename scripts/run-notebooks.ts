@@ -37,7 +37,7 @@ function parseArguments(argv: string[]): { names: string[]; jobs: number; out: s
   let jobs = Math.min(2, availableParallelism());
   let out = join(root, "out", "notebooks");
   for (let i = 0; i < argv.length; i++) {
-    const arg = argv[i]!;
+    const arg = argv[i];
     if (arg === "--jobs") {
       jobs = Number(argv[++i]);
       if (!(Number.isInteger(jobs) && jobs >= 1)) throw new Error(`--jobs needs a positive integer, got ${argv[i]}`);
@@ -109,7 +109,7 @@ async function runOne(name: string, out: string): Promise<Outcome> {
 
 function lastCell(stderr: string): string {
   const cells = [...stderr.matchAll(/^\s*cell (\d+)$/gm)];
-  return cells.length > 0 ? String(Number(cells[cells.length - 1]![1]) + 1) : "none";
+  return cells.length > 0 ? String(Number(cells[cells.length - 1][1]) + 1) : "none";
 }
 
 function indexPage(outcomes: readonly Outcome[]): string {
@@ -145,7 +145,7 @@ async function main(): Promise<void> {
   const worker = async () => {
     while (next < chosen.length) {
       const k = next++;
-      outcomes[k] = await runOne(chosen[k]!, out);
+      outcomes[k] = await runOne(chosen[k], out);
     }
   };
   await Promise.all(Array.from({ length: Math.min(jobs, chosen.length) }, worker));

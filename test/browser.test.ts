@@ -23,7 +23,7 @@ const noNodeBuiltins: Plugin = {
   name: "no-node-builtins",
   enforce: "pre",
   resolveId(id, importer) {
-    const bare = id.replace(/^node:/, "").split("/")[0]!;
+    const bare = id.replace(/^node:/, "").split("/")[0];
     const seedrandomCrypto = id === "crypto" && /[\\/]node_modules[\\/]seedrandom[\\/]/.test(importer ?? "");
     if ((id.startsWith("node:") || builtinModules.includes(bare)) && !seedrandomCrypto)
       throw new Error(`${importer ?? "?"} imports the Node built-in "${id}"`);
@@ -99,12 +99,12 @@ describe.skipIf(skipWithoutChromium)("the library bundled for the browser, in he
       })()`)) as string,
     ) as { autocovariance: number[]; power: number[]; result: FitResult };
     const set = await parseLightCurveBytes(new TextEncoder().encode(csv), "lds-j0412-small.csv", "text");
-    const lightCurve = set.lightCurves[0]!;
+    const lightCurve = set.lightCurves[0];
     // k(t) = sigma^2 exp(-|t| / tau) (Kelly, Bechtold & Siemiginowska 2009, ApJ 698, 895).
     lags.forEach((lag, i) => expect(inBrowser.autocovariance[i]).toBeCloseTo(0.04 * Math.exp(-lag / 150), 15));
     const power = computePeriodogram({ time: lightCurve.time, value: lightCurve.value, ...(lightCurve.error ? { error: lightCurve.error } : {}) }).power;
     let largest = 0;
-    for (let i = 0; i < power.length; i++) largest = Math.max(largest, Math.abs(inBrowser.power[i]! - power[i]!));
+    for (let i = 0; i < power.length; i++) largest = Math.max(largest, Math.abs(inBrowser.power[i] - power[i]));
     expect(largest).toBeLessThan(1e-12);
 
     // The same fit in Node. Chromium's Math.exp, sin, pow... are not bit-identical to Node 20's (its V8
@@ -115,7 +115,7 @@ describe.skipIf(skipWithoutChromium)("the library bundled for the browser, in he
     expect(inBrowser.result.data).toEqual(inNode.data);
     expect(Object.keys(inBrowser.result.parameters)).toEqual(Object.keys(inNode.parameters));
     for (const [name, node] of Object.entries(inNode.parameters)) {
-      const browser = inBrowser.result.parameters[name]!;
+      const browser = inBrowser.result.parameters[name];
       expect(browser.median, name).toBeGreaterThan(node["q2.5"]);
       expect(browser.median, name).toBeLessThan(node["q97.5"]);
     }

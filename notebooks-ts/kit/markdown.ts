@@ -38,7 +38,7 @@ function blocksOf(source: string): Block[] {
   const blocks: Block[] = [];
   let i = 0;
   while (i < lines.length) {
-    const line = lines[i]!;
+    const line = lines[i];
     if (line.trim() === "") {
       i++;
       continue;
@@ -46,21 +46,21 @@ function blocksOf(source: string): Block[] {
     if (line.trimStart().startsWith("```")) {
       const code: string[] = [];
       i++;
-      while (i < lines.length && !lines[i]!.trimStart().startsWith("```")) code.push(lines[i++]!);
+      while (i < lines.length && !lines[i].trimStart().startsWith("```")) code.push(lines[i++]);
       i++;
       blocks.push({ kind: "code", lines: code });
       continue;
     }
     const heading = /^(#{1,6})\s+(.*)$/.exec(line);
     if (heading) {
-      blocks.push({ kind: "heading", level: heading[1]!.length, text: heading[2]!.trim() });
+      blocks.push({ kind: "heading", level: heading[1].length, text: heading[2].trim() });
       i++;
       continue;
     }
     if (/^\s*\|/.test(line)) {
       const rows: string[][] = [];
-      while (i < lines.length && /^\s*\|/.test(lines[i]!)) {
-        const cells = lines[i]!.trim().replace(/^\|/, "").replace(/\|$/, "").split("|").map((c) => c.trim());
+      while (i < lines.length && /^\s*\|/.test(lines[i])) {
+        const cells = lines[i].trim().replace(/^\|/, "").replace(/\|$/, "").split("|").map((c) => c.trim());
         if (!cells.every((c) => /^:?-{3,}:?$/.test(c))) rows.push(cells);
         i++;
       }
@@ -69,25 +69,25 @@ function blocksOf(source: string): Block[] {
     }
     if (/^>\s?/.test(line)) {
       const quoted: string[] = [];
-      while (i < lines.length && /^>\s?/.test(lines[i]!)) quoted.push(lines[i++]!.replace(/^>\s?/, ""));
+      while (i < lines.length && /^>\s?/.test(lines[i])) quoted.push(lines[i++].replace(/^>\s?/, ""));
       blocks.push({ kind: "quote", lines: quoted });
       continue;
     }
     const bullet = /^\s*([-*]|\d+\.)\s+(.*)$/.exec(line);
     if (bullet) {
-      const ordered = /\d/.test(bullet[1]!);
+      const ordered = /\d/.test(bullet[1]);
       const items: string[] = [];
-      while (i < lines.length && lines[i]!.trim() !== "") {
-        const item = /^\s*([-*]|\d+\.)\s+(.*)$/.exec(lines[i]!);
-        if (item) items.push(item[2]!);
-        else items[items.length - 1] += " " + lines[i]!.trim();
+      while (i < lines.length && lines[i].trim() !== "") {
+        const item = /^\s*([-*]|\d+\.)\s+(.*)$/.exec(lines[i]);
+        if (item) items.push(item[2]);
+        else items[items.length - 1] += " " + lines[i].trim();
         i++;
       }
       blocks.push({ kind: "list", ordered, items });
       continue;
     }
     const paragraph: string[] = [];
-    while (i < lines.length && lines[i]!.trim() !== "" && !/^(#{1,6}\s|```|\s*\||>)/.test(lines[i]!)) paragraph.push(lines[i++]!.trim());
+    while (i < lines.length && lines[i].trim() !== "" && !/^(#{1,6}\s|```|\s*\||>)/.test(lines[i])) paragraph.push(lines[i++].trim());
     blocks.push({ kind: "paragraph", lines: paragraph });
   }
   return blocks;

@@ -29,8 +29,8 @@ export function notebookCells(source: string): NotebookCell[] {
     // Trim blank lines at both ends but keep the line numbers of what remains.
     let first = 0;
     let last = code.length - 1;
-    while (first <= last && code[first]!.trim() === "") first++;
-    while (last >= first && code[last]!.trim() === "") last--;
+    while (first <= last && code[first].trim() === "") first++;
+    while (last >= first && code[last].trim() === "") last--;
     if (first <= last) {
       cells.push({
         kind: "code",
@@ -44,12 +44,12 @@ export function notebookCells(source: string): NotebookCell[] {
     codeStart = end;
   };
   for (let i = 0; i < lines.length; i++) {
-    const line = lines[i]!;
+    const line = lines[i];
     if (PROSE_OPEN.test(line)) {
       closeCode(i);
       const prose: string[] = [];
       i++;
-      while (i < lines.length && !PROSE_CLOSE.test(lines[i]!)) prose.push(lines[i++]!);
+      while (i < lines.length && !PROSE_CLOSE.test(lines[i])) prose.push(lines[i++]);
       if (i >= lines.length) throw new SyntaxError(`notebook: the prose block opened on line ${codeStart + 1} is never closed`);
       cells.push({ kind: "markdown", text: dedent(prose).join("\n") });
       codeStart = i + 1;
@@ -86,9 +86,9 @@ export function instrumentNotebook(
   for (const cell of cells) if (cell.kind === "code") inserted.set(cell.firstLine, `__beginCell(${cell.index}); `);
   const prose = new Set<number>();
   for (let i = 0, inProse = false; i < lines.length; i++) {
-    if (!inProse && PROSE_OPEN.test(lines[i]!)) inProse = true;
+    if (!inProse && PROSE_OPEN.test(lines[i])) inProse = true;
     if (inProse) prose.add(i);
-    if (inProse && i > 0 && PROSE_CLOSE.test(lines[i]!)) inProse = false;
+    if (inProse && i > 0 && PROSE_CLOSE.test(lines[i])) inProse = false;
   }
   const relative = /(\bfrom\s*|\bimport\s*\(?\s*)(["'])(\.{1,2}\/[^"']+)\2/g;
   const body = lines.map((line, i) => {

@@ -33,7 +33,7 @@ export function notebookTitle(cells: readonly NotebookCell[], name: string): str
   for (const cell of cells) {
     if (cell.kind !== "markdown") continue;
     const heading = /^#\s+(.+)$/m.exec(cell.text);
-    if (heading) return heading[1]!.trim();
+    if (heading) return heading[1].trim();
   }
   return name;
 }
@@ -103,7 +103,7 @@ function mergeText(outputs: readonly CellOutput[]): CellOutput[] {
 
 function tableHtml(rows: readonly Readonly<Record<string, string | number | boolean>>[], caption: string): string {
   if (rows.length === 0) return "";
-  const columns = Object.keys(rows[0]!);
+  const columns = Object.keys(rows[0]);
   const numeric = (value: unknown) => typeof value === "number" || /^[−+\-]?[\d.]/.test(String(value));
   const head = `<tr>${columns.map((c) => `<th>${escapeHtml(c)}</th>`).join("")}</tr>`;
   const bodyRows = rows

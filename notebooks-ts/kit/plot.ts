@@ -39,7 +39,7 @@ export function jointDraw(
   const draw = new GaussianProcess(kernel, Float64Array.from(tagged, (p) => p.t), { mean }).priorDraw(rng);
   const atObserved: number[] = [];
   const atGrid: number[] = [];
-  tagged.forEach((p, i) => (p.grid ? atGrid : atObserved).push(draw[i]!));
+  tagged.forEach((p, i) => (p.grid ? atGrid : atObserved).push(draw[i]));
   return { atObserved: Float64Array.from(atObserved), atGrid: Float64Array.from(atGrid) };
 }
 
@@ -54,5 +54,5 @@ export function quantile(values: ArrayLike<number>, q: number): number {
   const position = q * (sorted.length - 1);
   const lo = Math.floor(position);
   const hi = Math.ceil(position);
-  return sorted[lo]! + (sorted[hi]! - sorted[lo]!) * (position - lo);
+  return sorted[lo] + (sorted[hi] - sorted[lo]) * (position - lo);
 }

@@ -25,10 +25,10 @@ function editDistance(a: string, b: string): number {
   for (let i = 1; i < rows; i++) {
     for (let j = 1; j < columns; j++) {
       const cost = a[i - 1] === b[j - 1] ? 0 : 1;
-      let value = Math.min(d[(i - 1) * columns + j]! + 1, d[i * columns + j - 1]! + 1, d[(i - 1) * columns + j - 1]! + cost);
-      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) value = Math.min(value, d[(i - 2) * columns + j - 2]! + 1);
+      let value = Math.min(d[(i - 1) * columns + j] + 1, d[i * columns + j - 1] + 1, d[(i - 1) * columns + j - 1] + cost);
+      if (i > 1 && j > 1 && a[i - 1] === b[j - 2] && a[i - 2] === b[j - 1]) value = Math.min(value, d[(i - 2) * columns + j - 2] + 1);
       d[i * columns + j] = value;
     }
   }
-  return d[rows * columns - 1]!;
+  return d[rows * columns - 1];
 }

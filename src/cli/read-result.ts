@@ -24,7 +24,7 @@ export function readFitResult(path: string, cwd: string, band?: string): FitResu
   }
   if (isPerBand(parsed)) {
     const names = Object.keys(parsed.perBand);
-    if (band === undefined && names.length === 1) return parseFitResult(parsed.perBand[names[0]!], path, `band ${names[0]}`);
+    if (band === undefined && names.length === 1) return parseFitResult(parsed.perBand[names[0]], path, `band ${names[0]}`);
     if (band === undefined || !(band in parsed.perBand))
       throw new InputError(`the file holds results for bands ${names.join(", ")}; choose one with --band`, { file: path });
     return parseFitResult(parsed.perBand[band], path, `band ${band}`);
@@ -32,7 +32,7 @@ export function readFitResult(path: string, cwd: string, band?: string): FitResu
   if (!Array.isArray(parsed)) return parseFitResult(parsed, path);
   if (parsed.length === 0) throw new InputError("an empty list: no fit result", { file: path });
   const results = parsed.map((candidate, k) => parseFitResult(candidate, path, parsed.length > 1 ? `result ${k + 1}` : undefined));
-  if (results.length === 1) return results[0]!;
+  if (results.length === 1) return results[0];
   const chosen = results.find((result) => result.data.band === band);
   if (!chosen) {
     const bands = results.map((result) => result.data.band).join(", ");

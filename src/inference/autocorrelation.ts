@@ -7,7 +7,7 @@ import { fftInPlace, nextPowerOfTwo } from "./fft.js";
  * (Press et al., Numerical Recipes, 3rd ed., sec. 13.2).
  */
 export function autocovariance(series: ArrayLike<number>): Float64Array {
-  return autocovariances([series])[0]!;
+  return autocovariances([series])[0];
 }
 
 /**
@@ -19,8 +19,8 @@ export function autocovariance(series: ArrayLike<number>): Float64Array {
 export function autocovariances(series: readonly ArrayLike<number>[]): Float64Array[] {
   const out: Float64Array[] = [];
   for (let s = 0; s < series.length; s += 2) {
-    const x = series[s]!;
-    const y = s + 1 < series.length ? series[s + 1]! : null;
+    const x = series[s];
+    const y = s + 1 < series.length ? series[s + 1] : null;
     const n = x.length;
     if (y !== null && y.length !== n) throw new RangeError("autocovariance: series must have equal length");
     const cx = new Float64Array(n);
@@ -32,14 +32,14 @@ export function autocovariances(series: readonly ArrayLike<number>[]): Float64Ar
       let meanX = 0;
       let meanY = 0;
       for (let i = 0; i < n; i++) {
-        meanX += x[i]!;
-        if (y !== null) meanY += y[i]!;
+        meanX += x[i];
+        if (y !== null) meanY += y[i];
       }
       meanX /= n;
       meanY /= n;
       for (let i = 0; i < n; i++) {
-        re[i] = x[i]! - meanX;
-        if (y !== null) im[i] = y[i]! - meanY;
+        re[i] = x[i] - meanX;
+        if (y !== null) im[i] = y[i] - meanY;
       }
       fftInPlace(re, im);
       // Power spectra of both series: |X_k|^2 into pr, |Y_k|^2 into pi (both real and even in k).
@@ -47,18 +47,18 @@ export function autocovariances(series: readonly ArrayLike<number>[]): Float64Ar
       const pi = new Float64Array(m);
       for (let k = 0; k < m; k++) {
         const j = (m - k) & (m - 1);
-        const xr = 0.5 * (re[k]! + re[j]!);
-        const xi = 0.5 * (im[k]! - im[j]!);
-        const yr = 0.5 * (im[k]! + im[j]!);
-        const yi = -0.5 * (re[k]! - re[j]!);
+        const xr = 0.5 * (re[k] + re[j]);
+        const xi = 0.5 * (im[k] - im[j]);
+        const yr = 0.5 * (im[k] + im[j]);
+        const yi = -0.5 * (re[k] - re[j]);
         pr[k] = xr * xr + xi * xi;
         pi[k] = yr * yr + yi * yi;
       }
       // The inverse transform of pr + i pi has the two (real) autocorrelations as its parts.
       fftInPlace(pr, pi, true);
       for (let t = 0; t < n; t++) {
-        cx[t] = pr[t]! / (m * n);
-        cy[t] = pi[t]! / (m * n);
+        cx[t] = pr[t] / (m * n);
+        cy[t] = pi[t] / (m * n);
       }
     }
     out.push(cx);
@@ -75,19 +75,19 @@ export function autocovariances(series: readonly ArrayLike<number>[]): Float64Ar
  */
 export function averagedAutocorrelation(chains: readonly ArrayLike<number>[]): Float64Array {
   if (chains.length === 0) return new Float64Array(0);
-  const n = chains[0]!.length;
+  const n = chains[0].length;
   const sum = new Float64Array(n);
   for (const c of autocovariances(chains)) {
     if (c.length !== n) throw new RangeError("autocorrelation: chains must have equal length");
-    for (let t = 0; t < n; t++) sum[t] = sum[t]! + c[t]!;
+    for (let t = 0; t < n; t++) sum[t] = sum[t] + c[t];
   }
-  const c0 = sum[0]!;
+  const c0 = sum[0];
   const rho = new Float64Array(n);
   if (!(c0 > 0)) {
     rho.fill(NaN);
     return rho;
   }
-  for (let t = 0; t < n; t++) rho[t] = sum[t]! / c0;
+  for (let t = 0; t < n; t++) rho[t] = sum[t] / c0;
   return rho;
 }
 
@@ -114,10 +114,10 @@ export interface AutocorrelationTime {
  */
 export function integratedAutocorrelationTime(rho: ArrayLike<number>, c = 5): AutocorrelationTime {
   const n = rho.length;
-  if (n === 0 || !Number.isFinite(rho[0]!)) return { tau: NaN, window: 0, reliable: false };
+  if (n === 0 || !Number.isFinite(rho[0])) return { tau: NaN, window: 0, reliable: false };
   let tau = 1;
   for (let m = 1; m < n; m++) {
-    tau += 2 * rho[m]!;
+    tau += 2 * rho[m];
     if (m >= c * tau) return { tau, window: m, reliable: true };
   }
   return { tau, window: n - 1, reliable: false };

@@ -112,11 +112,11 @@ export function assessConvergence(
   const finish = (converged: boolean): ConvergenceReport => {
     const parameters = draws.map(
       (_, i): ParameterDiagnostics => ({
-        rhat: rhat[i]!,
-        essBulk: essBulk[i]!,
-        essTail: essTail[i]!,
-        autocorrelationTime: tau[i]!,
-        autocorrReliable: reliable[i]!,
+        rhat: rhat[i],
+        essBulk: essBulk[i],
+        essTail: essTail[i],
+        autocorrelationTime: tau[i],
+        autocorrReliable: reliable[i],
       }),
     );
     const rhatMax = nanMax(rhat);
@@ -148,19 +148,19 @@ export function assessConvergence(
     bulkDraws.push(bulk);
     const folded = rankNormalize(foldAboutMedian(split));
     rhat[i] = Math.max(potentialScaleReduction(bulk), potentialScaleReduction(folded));
-    if (!(rhat[i]! < rhatBound)) ok = false;
+    if (!(rhat[i] < rhatBound)) ok = false;
   });
   if (quick && !ok) return finish(false);
 
   draws.forEach((chains, i) => {
-    essBulk[i] = effectiveSampleSize(bulkDraws[i]!);
-    if (!(essBulk[i]! >= criteria.ess)) ok = false;
+    essBulk[i] = effectiveSampleSize(bulkDraws[i]);
+    if (!(essBulk[i] >= criteria.ess)) ok = false;
   });
   if (quick && !ok) return finish(false);
 
   draws.forEach((chains, i) => {
     essTail[i] = tailEffectiveSampleSize(chains);
-    if (!(essTail[i]! >= criteria.ess)) ok = false;
+    if (!(essTail[i] >= criteria.ess)) ok = false;
   });
   return finish(ok);
 }

@@ -42,8 +42,8 @@ export class DrawStore {
       });
     }
     for (let c = 0; c < this.chains; c++) {
-      this.rows[c]!.set(positions[c]!, this.count * this.dimension);
-      this.logPosteriors[c]![this.count] = logPosterior[c]!;
+      this.rows[c].set(positions[c], this.count * this.dimension);
+      this.logPosteriors[c][this.count] = logPosterior[c];
     }
     this.count++;
   }
@@ -53,19 +53,19 @@ export class DrawStore {
     const d = this.dimension;
     return this.rows.map((block) => {
       const out = new Float64Array(to - from);
-      for (let r = from; r < to; r++) out[r - from] = block[r * d + index]!;
+      for (let r = from; r < to; r++) out[r - from] = block[r * d + index];
       return out;
     });
   }
 
   /** ln p of every kept row of one chain, rows `from` to `to`. */
   logPosteriorOf(chain: number, from = 0, to = this.count): Float64Array {
-    return this.logPosteriors[chain]!.slice(from, to);
+    return this.logPosteriors[chain].slice(from, to);
   }
 
   /** One kept row of one chain (a copy). */
   row(chain: number, index: number): Float64Array {
     const d = this.dimension;
-    return this.rows[chain]!.slice(index * d, (index + 1) * d);
+    return this.rows[chain].slice(index * d, (index + 1) * d);
   }
 }

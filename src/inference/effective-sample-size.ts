@@ -20,9 +20,9 @@ export function effectiveSampleSize(chains: readonly ArrayLike<number>[]): numbe
   if (n < 4 || !(pooledVariance > 0)) return NaN;
   const meanAutocov = new Float64Array(n);
   for (const c of autocovariances(chains)) {
-    for (let t = 0; t < n; t++) meanAutocov[t] = meanAutocov[t]! + c[t]! / m;
+    for (let t = 0; t < n; t++) meanAutocov[t] = meanAutocov[t] + c[t] / m;
   }
-  const rho = (t: number): number => 1 - (within - (meanAutocov[t]! * n) / (n - 1)) / pooledVariance;
+  const rho = (t: number): number => 1 - (within - (meanAutocov[t] * n) / (n - 1)) / pooledVariance;
   let sum = 0;
   let previousPair = Infinity;
   for (let k = 0; 2 * k + 1 < n; k++) {

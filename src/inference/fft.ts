@@ -11,11 +11,11 @@ export function fftInPlace(re: Float64Array, im: Float64Array, inverse = false):
     for (; j & bit; bit >>= 1) j ^= bit;
     j ^= bit;
     if (i < j) {
-      let t = re[i]!;
-      re[i] = re[j]!;
+      let t = re[i];
+      re[i] = re[j];
       re[j] = t;
-      t = im[i]!;
-      im[i] = im[j]!;
+      t = im[i];
+      im[i] = im[j];
       im[j] = t;
     }
   }
@@ -25,17 +25,17 @@ export function fftInPlace(re: Float64Array, im: Float64Array, inverse = false):
     const half = size >> 1;
     const stride = n / size;
     for (let k = 0; k < half; k++) {
-      const wr = cosTable[k * stride]!;
-      const wi = sign * sinTable[k * stride]!;
+      const wr = cosTable[k * stride];
+      const wi = sign * sinTable[k * stride];
       for (let start = 0; start < n; start += size) {
         const a = start + k;
         const b = a + half;
-        const xr = re[b]! * wr - im[b]! * wi;
-        const xi = re[b]! * wi + im[b]! * wr;
-        re[b] = re[a]! - xr;
-        im[b] = im[a]! - xi;
-        re[a] = re[a]! + xr;
-        im[a] = im[a]! + xi;
+        const xr = re[b] * wr - im[b] * wi;
+        const xi = re[b] * wi + im[b] * wr;
+        re[b] = re[a] - xr;
+        im[b] = im[a] - xi;
+        re[a] = re[a] + xr;
+        im[a] = im[a] + xi;
       }
     }
   }

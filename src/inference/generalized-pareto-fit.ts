@@ -19,8 +19,8 @@ export function fitGeneralizedPareto(sortedExceedances: ArrayLike<number>): { re
   const n = x.length;
   if (n < 5) throw new RangeError(`generalised Pareto fit: needs at least 5 exceedances, got ${n}`);
   const gridSize = 30 + Math.floor(Math.sqrt(n));
-  const quartile = x[Math.max(0, Math.floor(n / 4 + 0.5) - 1)]!;
-  const largest = x[n - 1]!;
+  const quartile = x[Math.max(0, Math.floor(n / 4 + 0.5) - 1)];
+  const largest = x[n - 1];
   const theta = new Float64Array(gridSize);
   const profile = new Float64Array(gridSize);
   let best = -Infinity;
@@ -30,14 +30,14 @@ export function fitGeneralizedPareto(sortedExceedances: ArrayLike<number>): { re
     const kappa = meanLogOneMinus(t, x);
     const value = n * (Math.log(-t / kappa) - kappa - 1);
     profile[j] = Number.isFinite(value) ? value : -Infinity;
-    if (profile[j]! > best) best = profile[j]!;
+    if (profile[j] > best) best = profile[j];
   }
   let weightSum = 0;
   let thetaHat = 0;
   for (let j = 0; j < gridSize; j++) {
-    const w = Math.exp(profile[j]! - best);
+    const w = Math.exp(profile[j] - best);
     weightSum += w;
-    thetaHat += w * theta[j]!;
+    thetaHat += w * theta[j];
   }
   thetaHat /= weightSum;
   const raw = meanLogOneMinus(thetaHat, x);
@@ -59,6 +59,6 @@ export function generalizedParetoQuantile(p: number, shape: number, scale: numbe
 /** mean over i of ln(1 - theta x_i). */
 function meanLogOneMinus(theta: number, x: ArrayLike<number>): number {
   let sum = 0;
-  for (let i = 0; i < x.length; i++) sum += Math.log1p(-theta * x[i]!);
+  for (let i = 0; i < x.length; i++) sum += Math.log1p(-theta * x[i]);
   return sum / x.length;
 }

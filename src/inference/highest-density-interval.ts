@@ -14,11 +14,11 @@ export function highestDensityInterval(sorted: ArrayLike<number>, mass: number):
   let best = 0;
   let bestWidth = Infinity;
   for (let i = 0; i + k - 1 < n; i++) {
-    const width = sorted[i + k - 1]! - sorted[i]!;
+    const width = sorted[i + k - 1] - sorted[i];
     if (width < bestWidth) {
       bestWidth = width;
       best = i;
     }
   }
-  return [sorted[best]!, sorted[best + k - 1]!];
+  return [sorted[best], sorted[best + k - 1]];
 }

@@ -131,16 +131,16 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
     componentLogDensity.push(points.map((x) => proposal.logDensity(x)));
   };
   const drawFrom = (j: number, count: number) => {
-    const proposal = components[j]!;
+    const proposal = components[j];
     for (let s = 0; s < count; s++) {
       const x = new Float64Array(d);
       proposal.draw(rng, x);
       const logP = target.logPosterior(x);
       points.push(x);
       logDensity.push(Number.isNaN(logP) ? -Infinity : logP);
-      components.forEach((c, i) => componentLogDensity[i]!.push(c.logDensity(x)));
+      components.forEach((c, i) => componentLogDensity[i].push(c.logDensity(x)));
     }
-    componentDraws[j] = componentDraws[j]! + count;
+    componentDraws[j] = componentDraws[j] + count;
   };
   const smooth = (): SmoothedWeights => {
     const total = points.length;
@@ -148,10 +148,10 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
     const logRatios = new Float64Array(total);
     for (let s = 0; s < total; s++) {
       let largest = -Infinity;
-      for (let j = 0; j < components.length; j++) largest = Math.max(largest, logShares[j]! + componentLogDensity[j]![s]!);
+      for (let j = 0; j < components.length; j++) largest = Math.max(largest, logShares[j] + componentLogDensity[j][s]);
       let sum = 0;
-      for (let j = 0; j < components.length; j++) sum += Math.exp(logShares[j]! + componentLogDensity[j]![s]! - largest);
-      logRatios[s] = logDensity[s]! - (largest + Math.log(sum));
+      for (let j = 0; j < components.length; j++) sum += Math.exp(logShares[j] + componentLogDensity[j][s] - largest);
+      logRatios[s] = logDensity[s] - (largest + Math.log(sum));
     }
     return paretoSmoothedWeights(logRatios);
   };
@@ -179,8 +179,8 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
     addComponent(ridge);
     drawFrom(1, Math.max(100, Math.round(options.profileDraws ?? 700)));
     smoothed = drawUntilEss(1);
-    record("laplace", componentDraws[0]!, smoothed);
-    record("profile", componentDraws[1]!, smoothed);
+    record("laplace", componentDraws[0], smoothed);
+    record("profile", componentDraws[1], smoothed);
   } else {
     drawFrom(0, pilotDraws);
     smoothed = smooth();
@@ -194,7 +194,7 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
     const j = components.length - 1;
     drawFrom(j, Math.min(mainDraws, maxDraws - points.length));
     smoothed = drawUntilEss(j);
-    record("weighted-moments", componentDraws[j]!, smoothed);
+    record("weighted-moments", componentDraws[j], smoothed);
   }
   const shapeThreshold = threshold(points.length);
   const result = {
@@ -223,27 +223,27 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
 function profileFromCovariance(target: PosteriorTarget, mode: Float64Array, covariance: Float64Array, options: ProfileProposalOptions = {}): ImportanceProposal | undefined {
   const a = options.coordinate ?? 0;
   const b = 1 - a;
-  const marginal = Math.sqrt(covariance[a * 2 + a]!);
+  const marginal = Math.sqrt(covariance[a * 2 + a]);
   // Conditional variance of b given a for a Gaussian: S_bb - S_ab^2 / S_aa.
-  const conditional = Math.sqrt(covariance[b * 2 + b]! - covariance[a * 2 + b]! ** 2 / covariance[a * 2 + a]!);
+  const conditional = Math.sqrt(covariance[b * 2 + b] - covariance[a * 2 + b] ** 2 / covariance[a * 2 + a]);
   if (!(marginal > 0 && conditional > 0)) return undefined;
   return profileProposal(target, mode, marginal, conditional, options)?.proposal;
 }
 
 /** A Student-t with the weighted mean and covariance of the draws, or undefined when that covariance is singular. */
 function weightedMomentProposal(points: readonly Float64Array[], weights: Float64Array, nu: number): StudentTProposal | undefined {
-  const d = points[0]!.length;
+  const d = points[0].length;
   const mean = new Float64Array(d);
   points.forEach((x, s) => {
-    for (let i = 0; i < d; i++) mean[i] = mean[i]! + weights[s]! * x[i]!;
+    for (let i = 0; i < d; i++) mean[i] = mean[i] + weights[s] * x[i];
   });
   const covariance = new Float64Array(d * d);
   points.forEach((x, s) => {
     for (let i = 0; i < d; i++) {
-      for (let j = 0; j <= i; j++) covariance[i * d + j] = covariance[i * d + j]! + weights[s]! * (x[i]! - mean[i]!) * (x[j]! - mean[j]!);
+      for (let j = 0; j <= i; j++) covariance[i * d + j] = covariance[i * d + j] + weights[s] * (x[i] - mean[i]) * (x[j] - mean[j]);
     }
   });
-  for (let i = 0; i < d; i++) for (let j = 0; j < i; j++) covariance[j * d + i] = covariance[i * d + j]!;
+  for (let i = 0; i < d; i++) for (let j = 0; j < i; j++) covariance[j * d + i] = covariance[i * d + j];
   try {
     return studentTProposal(mean, covariance, nu);
   } catch (error) {

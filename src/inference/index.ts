@@ -95,6 +95,6 @@ export { importanceSample, type ImportanceSample, type ImportanceSamplingOptions
 export { paretoSmoothedWeights, paretoShapeThreshold, type SmoothedWeights } from "./pareto-smoothed-weights.js";
 export { fitGeneralizedPareto, generalizedParetoQuantile } from "./generalized-pareto-fit.js";
 export { studentTProposal, type StudentTProposal } from "./student-t-proposal.js";
-export { profileProposal, type ImportanceProposal, type ProfileProposalOptions } from "./profile-proposal.js";
+export { profileProposal, type ImportanceProposal, type ProfileGrid, type ProfileProposalOptions } from "./profile-proposal.js";
 export { modeCovariance } from "./mode-covariance.js";
 export { systematicResample } from "./weighted-resampling.js";

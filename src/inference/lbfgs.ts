@@ -52,13 +52,13 @@ function cubicMinimizer(a: LinePoint, b: LinePoint): number {
 
 function supNorm(v: Float64Array): number {
   let m = 0;
-  for (let i = 0; i < v.length; i++) m = Math.max(m, Math.abs(v[i]!));
+  for (let i = 0; i < v.length; i++) m = Math.max(m, Math.abs(v[i]));
   return m;
 }
 
 function dot(a: Float64Array, b: Float64Array): number {
   let s = 0;
-  for (let i = 0; i < a.length; i++) s += a[i]! * b[i]!;
+  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
   return s;
 }
 
@@ -100,28 +100,28 @@ function rememberPair(pairs: CorrectionPairs, s: Float64Array, y: Float64Array, 
  */
 function searchDirection(g: Float64Array, pairs: CorrectionPairs, direction: Float64Array, alphas: Float64Array): number {
   const n = g.length;
-  for (let i = 0; i < n; i++) direction[i] = -g[i]!;
+  for (let i = 0; i < n; i++) direction[i] = -g[i];
   const k = pairs.s.length;
   for (let j = k - 1; j >= 0; j--) {
-    const a = pairs.rho[j]! * dot(pairs.s[j]!, direction);
+    const a = pairs.rho[j] * dot(pairs.s[j], direction);
     alphas[j] = a;
-    const y = pairs.y[j]!;
-    for (let i = 0; i < n; i++) direction[i] = direction[i]! - a * y[i]!;
+    const y = pairs.y[j];
+    for (let i = 0; i < n; i++) direction[i] = direction[i] - a * y[i];
   }
   if (k > 0) {
-    const gamma = dot(pairs.s[k - 1]!, pairs.y[k - 1]!) / dot(pairs.y[k - 1]!, pairs.y[k - 1]!);
-    for (let i = 0; i < n; i++) direction[i] = direction[i]! * gamma;
+    const gamma = dot(pairs.s[k - 1], pairs.y[k - 1]) / dot(pairs.y[k - 1], pairs.y[k - 1]);
+    for (let i = 0; i < n; i++) direction[i] = direction[i] * gamma;
   }
   for (let j = 0; j < k; j++) {
-    const b = pairs.rho[j]! * dot(pairs.y[j]!, direction);
-    const s = pairs.s[j]!;
-    const coef = alphas[j]! - b;
-    for (let i = 0; i < n; i++) direction[i] = direction[i]! + coef * s[i]!;
+    const b = pairs.rho[j] * dot(pairs.y[j], direction);
+    const s = pairs.s[j];
+    const coef = alphas[j] - b;
+    for (let i = 0; i < n; i++) direction[i] = direction[i] + coef * s[i];
   }
   const slope = dot(g, direction);
   if (slope < 0) return slope;
   clearPairs(pairs);
-  for (let i = 0; i < n; i++) direction[i] = -g[i]!;
+  for (let i = 0; i < n; i++) direction[i] = -g[i];
   return dot(g, direction);
 }
 
@@ -151,7 +151,7 @@ interface LineSearch {
 /** The objective at x + alpha direction, its slope along the direction (gradient left in trialG); a non-finite value counts as +Infinity. */
 function evaluateAlong(search: LineSearch, alpha: number): LinePoint {
   const { x, direction, trialX, trialG } = search;
-  for (let i = 0; i < x.length; i++) trialX[i] = x[i]! + alpha * direction[i]!;
+  for (let i = 0; i < x.length; i++) trialX[i] = x[i] + alpha * direction[i];
   const value = search.objective(trialX, trialG);
   search.evaluations++;
   if (!Number.isFinite(value)) return { alpha, value: Infinity, slope: NaN };
@@ -315,9 +315,9 @@ export function minimizeLbfgs(
     const y = new Float64Array(n);
     const newX = new Float64Array(n);
     for (let i = 0; i < n; i++) {
-      newX[i] = x[i]! + step.alpha * direction[i]!;
-      s[i] = newX[i]! - x[i]!;
-      y[i] = newG[i]! - g[i]!;
+      newX[i] = x[i] + step.alpha * direction[i];
+      s[i] = newX[i] - x[i];
+      y[i] = newG[i] - g[i];
     }
     const previousF = f;
     x = newX;

@@ -55,7 +55,7 @@ export function findMaximumPosterior(target: PosteriorTarget, options: MaximumPo
       result = minimizeLbfgs(
         (x, g) => {
           const v = target.logPosteriorAndGradient(x, g);
-          for (let i = 0; i < g.length; i++) g[i] = -g[i]!;
+          for (let i = 0; i < g.length; i++) g[i] = -g[i];
           return -v;
         },
         start,
@@ -76,7 +76,7 @@ export function findMaximumPosterior(target: PosteriorTarget, options: MaximumPo
     throw new RangeError("maximum a posteriori: the log density is not finite at any starting point");
   }
   runs.sort((a, b) => b.logPosterior - a.logPosterior);
-  const best = runs[0]!;
+  const best = runs[0];
   return { x: best.x, logPosterior: best.logPosterior, method, runs };
 }
 

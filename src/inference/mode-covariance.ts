@@ -20,16 +20,16 @@ export function modeCovariance(target: PosteriorTarget, mode: Float64Array): Flo
   const x = Float64Array.from(mode);
   const at = (i: number, si: number, j = -1, sj = 0): number => {
     x.set(mode);
-    x[i] = x[i]! + si * step[i]!;
-    if (j >= 0) x[j] = x[j]! + sj * step[j]!;
+    x[i] = x[i] + si * step[i];
+    if (j >= 0) x[j] = x[j] + sj * step[j];
     return target.logPosterior(x);
   };
   const f0 = target.logPosterior(mode);
   const negativeHessian = new Float64Array(d * d);
   for (let i = 0; i < d; i++) {
-    negativeHessian[i * d + i] = -(at(i, 1) - 2 * f0 + at(i, -1)) / (step[i]! * step[i]!);
+    negativeHessian[i * d + i] = -(at(i, 1) - 2 * f0 + at(i, -1)) / (step[i] * step[i]);
     for (let j = 0; j < i; j++) {
-      const h = (at(i, 1, j, 1) - at(i, 1, j, -1) - at(i, -1, j, 1) + at(i, -1, j, -1)) / (4 * step[i]! * step[j]!);
+      const h = (at(i, 1, j, 1) - at(i, 1, j, -1) - at(i, -1, j, 1) + at(i, -1, j, -1)) / (4 * step[i] * step[j]);
       negativeHessian[i * d + j] = -h;
       negativeHessian[j * d + i] = -h;
     }
@@ -47,13 +47,13 @@ export function inverseFromCholesky(l: Float64Array, d: number): Float64Array {
   for (let c = 0; c < d; c++) {
     for (let i = 0; i < d; i++) {
       let sum = i === c ? 1 : 0;
-      for (let k = 0; k < i; k++) sum -= l[i * d + k]! * y[k]!;
-      y[i] = sum / l[i * d + i]!;
+      for (let k = 0; k < i; k++) sum -= l[i * d + k] * y[k];
+      y[i] = sum / l[i * d + i];
     }
     for (let i = d - 1; i >= 0; i--) {
-      let sum = y[i]!;
-      for (let k = i + 1; k < d; k++) sum -= l[k * d + i]! * inverse[k * d + c]!;
-      inverse[i * d + c] = sum / l[i * d + i]!;
+      let sum = y[i];
+      for (let k = i + 1; k < d; k++) sum -= l[k * d + i] * inverse[k * d + c];
+      inverse[i * d + c] = sum / l[i * d + i];
     }
   }
   return inverse;

@@ -16,21 +16,21 @@ export function modeScales(target: PosteriorTarget, mode: Float64Array, fallback
   for (let i = 0; i < n; i++) {
     let curvature: number;
     if (hasGradient(target)) {
-      const h = 1e-5 * Math.max(1, Math.abs(mode[i]!));
-      x[i] = mode[i]! + h;
+      const h = 1e-5 * Math.max(1, Math.abs(mode[i]));
+      x[i] = mode[i] + h;
       target.logPosteriorAndGradient(x, gPlus);
-      x[i] = mode[i]! - h;
+      x[i] = mode[i] - h;
       target.logPosteriorAndGradient(x, gMinus);
-      curvature = (gPlus[i]! - gMinus[i]!) / (2 * h);
+      curvature = (gPlus[i] - gMinus[i]) / (2 * h);
     } else {
-      const h = 1e-3 * Math.max(1, Math.abs(mode[i]!));
-      x[i] = mode[i]! + h;
+      const h = 1e-3 * Math.max(1, Math.abs(mode[i]));
+      x[i] = mode[i] + h;
       const fp = target.logPosterior(x);
-      x[i] = mode[i]! - h;
+      x[i] = mode[i] - h;
       const fm = target.logPosterior(x);
       curvature = (fp - 2 * f0 + fm) / (h * h);
     }
-    x[i] = mode[i]!;
+    x[i] = mode[i];
     scales[i] = curvature < 0 && Number.isFinite(curvature) ? 1 / Math.sqrt(-curvature) : fallback;
   }
   return scales;

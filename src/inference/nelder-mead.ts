@@ -44,48 +44,48 @@ export function minimizeNelderMead(
   for (let i = 0; i < n; i++) {
     const v = Float64Array.from(start);
     const step = options.initialStep;
-    const h = step === undefined ? 0.1 + 0.05 * Math.abs(start[i]!) : typeof step === "number" ? step : step[i]!;
-    v[i] = v[i]! + h;
+    const h = step === undefined ? 0.1 + 0.05 * Math.abs(start[i]) : typeof step === "number" ? step : step[i];
+    v[i] = v[i] + h;
     vertices.push(v);
   }
   const values = vertices.map(f);
-  if (!Number.isFinite(values[0]!)) {
+  if (!Number.isFinite(values[0])) {
     throw new RangeError(`Nelder-Mead: objective is not finite at the starting point (${values[0]})`);
   }
   const order = Array.from({ length: n + 1 }, (_, i) => i);
   const centroid = new Float64Array(n);
   const point = (base: Float64Array, towards: Float64Array, t: number): Float64Array => {
     const out = new Float64Array(n);
-    for (let i = 0; i < n; i++) out[i] = base[i]! + t * (towards[i]! - base[i]!);
+    for (let i = 0; i < n; i++) out[i] = base[i] + t * (towards[i] - base[i]);
     return out;
   };
 
   let iterations = 0;
   let converged = false;
   while (evaluations < maxEvaluations) {
-    order.sort((a, b) => values[a]! - values[b]!);
-    const best = order[0]!;
-    const worst = order[n]!;
+    order.sort((a, b) => values[a] - values[b]);
+    const best = order[0];
+    const worst = order[n];
     const secondWorst = order[n - 1] ?? best;
     let spread = 0;
     let size = 0;
     for (let j = 1; j <= n; j++) {
-      spread = Math.max(spread, Math.abs(values[order[j]!]! - values[best]!));
-      for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(vertices[order[j]!]![i]! - vertices[best]![i]!));
+      spread = Math.max(spread, Math.abs(values[order[j]] - values[best]));
+      for (let i = 0; i < n; i++) size = Math.max(size, Math.abs(vertices[order[j]][i] - vertices[best][i]));
     }
-    if (spread <= valueTolerance * Math.max(1, Math.abs(values[best]!)) && size <= sizeTolerance) {
+    if (spread <= valueTolerance * Math.max(1, Math.abs(values[best])) && size <= sizeTolerance) {
       converged = true;
       break;
     }
     iterations++;
     centroid.fill(0);
     for (let j = 0; j < n; j++) {
-      const v = vertices[order[j]!]!;
-      for (let i = 0; i < n; i++) centroid[i] = centroid[i]! + v[i]! / n;
+      const v = vertices[order[j]];
+      for (let i = 0; i < n; i++) centroid[i] = centroid[i] + v[i] / n;
     }
-    const xr = point(centroid, vertices[worst]!, -reflect);
+    const xr = point(centroid, vertices[worst], -reflect);
     const fr = f(xr);
-    if (fr < values[best]!) {
+    if (fr < values[best]) {
       const xe = point(centroid, xr, expand);
       const fe = f(xe);
       if (fe < fr) {
@@ -97,12 +97,12 @@ export function minimizeNelderMead(
       }
       continue;
     }
-    if (fr < values[secondWorst]!) {
+    if (fr < values[secondWorst]) {
       vertices[worst] = xr;
       values[worst] = fr;
       continue;
     }
-    if (fr < values[worst]!) {
+    if (fr < values[worst]) {
       const xc = point(centroid, xr, contract);
       const fc = f(xc);
       if (fc <= fr) {
@@ -111,26 +111,26 @@ export function minimizeNelderMead(
         continue;
       }
     } else {
-      const xc = point(centroid, vertices[worst]!, contract);
+      const xc = point(centroid, vertices[worst], contract);
       const fc = f(xc);
-      if (fc < values[worst]!) {
+      if (fc < values[worst]) {
         vertices[worst] = xc;
         values[worst] = fc;
         continue;
       }
     }
-    const anchor = vertices[best]!;
+    const anchor = vertices[best];
     for (let j = 1; j <= n; j++) {
-      const idx = order[j]!;
-      vertices[idx] = point(anchor, vertices[idx]!, shrink);
-      values[idx] = f(vertices[idx]!);
+      const idx = order[j];
+      vertices[idx] = point(anchor, vertices[idx], shrink);
+      values[idx] = f(vertices[idx]);
     }
   }
   let bestIndex = 0;
-  for (let j = 1; j <= n; j++) if (values[j]! < values[bestIndex]!) bestIndex = j;
+  for (let j = 1; j <= n; j++) if (values[j] < values[bestIndex]) bestIndex = j;
   return {
-    x: vertices[bestIndex]!,
-    value: values[bestIndex]!,
+    x: vertices[bestIndex],
+    value: values[bestIndex],
     iterations,
     evaluations,
     converged,

@@ -51,19 +51,19 @@ function initialStepSize(
   const p = new Float64Array(d);
   const q = new Float64Array(d);
   const g = new Float64Array(d);
-  for (let i = 0; i < d; i++) p[i] = rng.normal() / Math.sqrt(inverseMass[i]!);
+  for (let i = 0; i < d; i++) p[i] = rng.normal() / Math.sqrt(inverseMass[i]);
   let h0 = -point.logPosterior;
-  for (let i = 0; i < d; i++) h0 += 0.5 * p[i]! * p[i]! * inverseMass[i]!;
+  for (let i = 0; i < d; i++) h0 += 0.5 * p[i] * p[i] * inverseMass[i];
   const logAcceptance = (eps: number): number => {
     const pHalf = new Float64Array(d);
-    for (let i = 0; i < d; i++) pHalf[i] = p[i]! + 0.5 * eps * point.gradient[i]!;
-    for (let i = 0; i < d; i++) q[i] = point.q[i]! + eps * inverseMass[i]! * pHalf[i]!;
+    for (let i = 0; i < d; i++) pHalf[i] = p[i] + 0.5 * eps * point.gradient[i];
+    for (let i = 0; i < d; i++) q[i] = point.q[i] + eps * inverseMass[i] * pHalf[i];
     const logPosterior = target.logPosteriorAndGradient(q, g);
     if (!Number.isFinite(logPosterior)) return -Infinity;
     let h = -logPosterior;
     for (let i = 0; i < d; i++) {
-      const pe = pHalf[i]! + 0.5 * eps * g[i]!;
-      h += 0.5 * pe * pe * inverseMass[i]!;
+      const pe = pHalf[i] + 0.5 * eps * g[i];
+      h += 0.5 * pe * pe * inverseMass[i];
     }
     return Number.isFinite(h) ? h0 - h : -Infinity;
   };
@@ -150,10 +150,10 @@ export function createNutsSampler(
         if (inWarmup) {
           if (step.divergent) warmupDivergences++;
           chain.stepSize = chain.adaptation.update(step.acceptance);
-          const window = plan.windowEnds.findIndex((end, w) => iterations >= plan.windowStarts[w]! && iterations < end);
+          const window = plan.windowEnds.findIndex((end, w) => iterations >= plan.windowStarts[w] && iterations < end);
           if (window >= 0) {
             chain.variance.add(chain.point.q);
-            if (iterations === plan.windowEnds[window]! - 1) {
+            if (iterations === plan.windowEnds[window] - 1) {
               chain.inverseMass = chain.variance.regularizedVariance(chain.inverseMass);
               chain.variance.reset();
               chain.stepSize = initialStepSize(target, chain.point, chain.inverseMass, chain.rng, chain.stepSize);

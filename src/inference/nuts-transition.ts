@@ -65,26 +65,26 @@ interface Trajectory {
 /** K(p) = p^T M^-1 p / 2. */
 function kineticEnergy(p: Float64Array, inverseMass: Float64Array): number {
   let k = 0;
-  for (let i = 0; i < p.length; i++) k += p[i]! * p[i]! * inverseMass[i]!;
+  for (let i = 0; i < p.length; i++) k += p[i] * p[i] * inverseMass[i];
   return 0.5 * k;
 }
 
 /** p# = M^-1 p. */
 function sharpMomentum(p: Float64Array, inverseMass: Float64Array): Float64Array {
   const out = new Float64Array(p.length);
-  for (let i = 0; i < p.length; i++) out[i] = inverseMass[i]! * p[i]!;
+  for (let i = 0; i < p.length; i++) out[i] = inverseMass[i] * p[i];
   return out;
 }
 
 function dot(a: Float64Array, b: Float64Array): number {
   let s = 0;
-  for (let i = 0; i < a.length; i++) s += a[i]! * b[i]!;
+  for (let i = 0; i < a.length; i++) s += a[i] * b[i];
   return s;
 }
 
 function sum(a: Float64Array, b: Float64Array): Float64Array {
   const out = new Float64Array(a.length);
-  for (let i = 0; i < a.length; i++) out[i] = a[i]! + b[i]!;
+  for (let i = 0; i < a.length; i++) out[i] = a[i] + b[i];
   return out;
 }
 
@@ -100,11 +100,11 @@ function leapfrog(trajectory: Trajectory, from: PhasePoint, eps: number): PhaseP
   const p = new Float64Array(d);
   const q = new Float64Array(d);
   const gradient = new Float64Array(d);
-  for (let i = 0; i < d; i++) p[i] = from.p[i]! + 0.5 * eps * from.gradient[i]!;
-  for (let i = 0; i < d; i++) q[i] = from.q[i]! + eps * inverseMass[i]! * p[i]!;
+  for (let i = 0; i < d; i++) p[i] = from.p[i] + 0.5 * eps * from.gradient[i];
+  for (let i = 0; i < d; i++) q[i] = from.q[i] + eps * inverseMass[i] * p[i];
   const logPosterior = trajectory.target.logPosteriorAndGradient(q, gradient);
   if (Number.isFinite(logPosterior)) {
-    for (let i = 0; i < d; i++) p[i] = p[i]! + 0.5 * eps * gradient[i]!;
+    for (let i = 0; i < d; i++) p[i] = p[i] + 0.5 * eps * gradient[i];
   }
   return { q, p, gradient, logPosterior };
 }
@@ -214,7 +214,7 @@ export function nutsTransition(
 ): NutsTransition {
   const d = start.q.length;
   const p0 = new Float64Array(d);
-  for (let i = 0; i < d; i++) p0[i] = rng.normal() / Math.sqrt(inverseMass[i]!);
+  for (let i = 0; i < d; i++) p0[i] = rng.normal() / Math.sqrt(inverseMass[i]);
   const origin: PhasePoint = { q: start.q, p: p0, gradient: start.gradient, logPosterior: start.logPosterior };
   const stats: TreeStats = { leapfrogSteps: 0, acceptanceSum: 0, divergent: false };
   const trajectory: Trajectory = { target, inverseMass, rng, h0: -start.logPosterior + kineticEnergy(p0, inverseMass), stats };

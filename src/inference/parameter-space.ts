@@ -90,8 +90,8 @@ export function createParameterSpace(specs: readonly ParameterSpec[]): Parameter
     const physical = out ?? new Float64Array(total);
     physical.set(fixedValues);
     for (let i = 0; i < free.length; i++) {
-      const p = free[i]!;
-      physical[p.index] = p.transform.fromUnconstrained(u[i]!);
+      const p = free[i];
+      physical[p.index] = p.transform.fromUnconstrained(u[i]);
     }
     return physical;
   };
@@ -105,19 +105,19 @@ export function createParameterSpace(specs: readonly ParameterSpec[]): Parameter
     toUnconstrained(physical: Float64Array): Float64Array {
       const u = new Float64Array(free.length);
       for (let i = 0; i < free.length; i++) {
-        const p = free[i]!;
-        u[i] = p.transform.toUnconstrained(physical[p.index]!);
+        const p = free[i];
+        u[i] = p.transform.toUnconstrained(physical[p.index]);
       }
       return u;
     },
     logPrior(physical: Float64Array): number {
       let sum = 0;
-      for (const p of free) sum += p.prior.logDensity(physical[p.index]!);
+      for (const p of free) sum += p.prior.logDensity(physical[p.index]);
       return sum;
     },
     logJacobian(u: Float64Array): number {
       let sum = 0;
-      for (let i = 0; i < free.length; i++) sum += free[i]!.transform.logJacobian(u[i]!);
+      for (let i = 0; i < free.length; i++) sum += free[i].transform.logJacobian(u[i]);
       return sum;
     },
     physicalFromRecord(values: Readonly<Record<string, number>>): Float64Array {
@@ -133,13 +133,13 @@ export function createParameterSpace(specs: readonly ParameterSpec[]): Parameter
     },
     recordFromPhysical(physical: Float64Array): Record<string, number> {
       const out: Record<string, number> = {};
-      names.forEach((name, i) => (out[name] = physical[i]!));
+      names.forEach((name, i) => (out[name] = physical[i]));
       return out;
     },
     drawFromPrior(rng: Rng): Float64Array {
       const u = new Float64Array(free.length);
       for (let i = 0; i < free.length; i++) {
-        const p = free[i]!;
+        const p = free[i];
         // Keep clear of the support's ends, where the transform sends u to infinity.
         const q = 1e-6 + (1 - 2e-6) * rng.uniform();
         u[i] = p.transform.toUnconstrained(p.prior.quantile(q));

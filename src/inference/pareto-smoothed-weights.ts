@@ -41,37 +41,37 @@ export function paretoSmoothedWeights(logRatios: ArrayLike<number>): SmoothedWei
   if (count < 10) throw new RangeError(`Pareto-smoothed importance weights: needs at least 10 draws, got ${count}`);
   let largest = -Infinity;
   for (let s = 0; s < count; s++) {
-    const r = logRatios[s]!;
+    const r = logRatios[s];
     if (Number.isNaN(r) || r === Infinity) throw new RangeError(`Pareto-smoothed importance weights: log ratio ${s} is ${r}`);
     if (r > largest) largest = r;
   }
   if (largest === -Infinity) throw new RangeError("Pareto-smoothed importance weights: every draw has zero weight");
-  const weights = Float64Array.from({ length: count }, (_, s) => Math.exp(logRatios[s]! - largest));
+  const weights = Float64Array.from({ length: count }, (_, s) => Math.exp(logRatios[s] - largest));
   const tailLength = Math.min(Math.floor(0.2 * count), Math.ceil(3 * Math.sqrt(count)));
-  const order = Int32Array.from({ length: count }, (_, s) => s).sort((a, b) => weights[a]! - weights[b]!);
-  const cutoff = weights[order[count - tailLength - 1]!]!;
+  const order = Int32Array.from({ length: count }, (_, s) => s).sort((a, b) => weights[a] - weights[b]);
+  const cutoff = weights[order[count - tailLength - 1]];
   const exceedances = new Float64Array(tailLength);
-  for (let z = 0; z < tailLength; z++) exceedances[z] = weights[order[count - tailLength + z]!]! - cutoff;
+  for (let z = 0; z < tailLength; z++) exceedances[z] = weights[order[count - tailLength + z]] - cutoff;
   let paretoShape = NaN;
   let smoothed = 0;
   // A tail of ties (weights that are all equal, or zero) carries no shape to fit.
-  if (cutoff > 0 && tailLength >= 5 && exceedances[Math.max(0, Math.floor(tailLength / 4 + 0.5) - 1)]! > 0) {
+  if (cutoff > 0 && tailLength >= 5 && exceedances[Math.max(0, Math.floor(tailLength / 4 + 0.5) - 1)] > 0) {
     const fit = fitGeneralizedPareto(exceedances);
     paretoShape = fit.shape;
     if (Number.isFinite(fit.shape) && fit.scale > 0) {
       for (let z = 0; z < tailLength; z++) {
         const value = cutoff + generalizedParetoQuantile((z + 0.5) / tailLength, fit.shape, fit.scale);
-        weights[order[count - tailLength + z]!] = Math.min(value, 1);
+        weights[order[count - tailLength + z]] = Math.min(value, 1);
       }
       smoothed = tailLength;
     }
   }
   let total = 0;
-  for (let s = 0; s < count; s++) total += weights[s]!;
+  for (let s = 0; s < count; s++) total += weights[s];
   let squares = 0;
   for (let s = 0; s < count; s++) {
-    weights[s] = weights[s]! / total;
-    squares += weights[s]! * weights[s]!;
+    weights[s] = weights[s] / total;
+    squares += weights[s] * weights[s];
   }
   return { weights, paretoShape, tailLength: smoothed, effectiveSampleSize: 1 / squares };
 }

@@ -195,10 +195,10 @@ function drawsFromPoints(space: ParameterSpace, sample: ImportanceSample, picks:
   const physical = new Float64Array(space.names.length);
   const logPosterior = new Float64Array(total);
   for (let k = 0; k < total; k++) {
-    const s = picks[k]!;
-    space.toPhysical(sample.points[s]!, physical);
-    space.names.forEach((name, i) => (columns[name]![k] = physical[i]!));
-    logPosterior[k] = sample.logPosterior[s]!;
+    const s = picks[k];
+    space.toPhysical(sample.points[s], physical);
+    space.names.forEach((name, i) => (columns[name][k] = physical[i]));
+    logPosterior[k] = sample.logPosterior[s];
   }
   return { names: space.names, columns, chain: new Int32Array(total), iteration: Int32Array.from({ length: total }, (_, k) => k), logPosterior };
 }

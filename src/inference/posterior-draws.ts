@@ -36,10 +36,10 @@ export function posteriorDraws(space: ParameterSpace, run: SamplerRun, thin = 1)
     const logp = store.logPosteriorOf(c, from);
     for (let r = from, j = 0; r < store.length; r += thin, j += thin) {
       space.toPhysical(store.row(c, r), physical);
-      space.names.forEach((name, i) => (columns[name]![k] = physical[i]!));
+      space.names.forEach((name, i) => (columns[name][k] = physical[i]));
       chain[k] = c;
       iteration[k] = j;
-      logPosterior[k] = logp[j]!;
+      logPosterior[k] = logp[j];
       k++;
     }
   }
@@ -54,7 +54,7 @@ export function posteriorDrawsToCsv(draws: PosteriorDraws): string {
   const lines = [["chain", "iteration", ...draws.names, "log_posterior"].join(",")];
   for (let k = 0; k < draws.chain.length; k++) {
     const row = [String(draws.chain[k]), String(draws.iteration[k])];
-    for (const name of draws.names) row.push(String(draws.columns[name]![k]));
+    for (const name of draws.names) row.push(String(draws.columns[name][k]));
     row.push(String(draws.logPosterior[k]));
     lines.push(row.join(","));
   }

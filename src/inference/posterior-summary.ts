@@ -37,10 +37,10 @@ export function summarizeDraws(draws: ArrayLike<number>): PosteriorSummary {
   }
   const sorted = sortedCopy(draws);
   let mean = 0;
-  for (let i = 0; i < n; i++) mean += draws[i]!;
+  for (let i = 0; i < n; i++) mean += draws[i];
   mean /= n;
   let ss = 0;
-  for (let i = 0; i < n; i++) ss += (draws[i]! - mean) ** 2;
+  for (let i = 0; i < n; i++) ss += (draws[i] - mean) ** 2;
   return {
     median: sortedQuantile(sorted, 0.5),
     mean,

@@ -102,15 +102,15 @@ export function profileProposal(
     return Number.isFinite(value) ? { mode: x, scale: s, value } : undefined;
   };
 
-  const centre = conditional(mode[a]!, mode[b]!, conditionalScale);
+  const centre = conditional(mode[a], mode[b], conditionalScale);
   if (centre === undefined) return undefined;
   const nodes: { u: number; mode: number; scale: number; logMarginal: number }[] = [
-    { u: mode[a]!, mode: centre.mode, scale: centre.scale, logMarginal: centre.value + Math.log(centre.scale) },
+    { u: mode[a], mode: centre.mode, scale: centre.scale, logMarginal: centre.value + Math.log(centre.scale) },
   ];
-  let highest = nodes[0]!.logMarginal;
+  let highest = nodes[0].logMarginal;
   for (const direction of [1, -1]) {
     let step = 0.5 * marginalScale;
-    let previous = nodes[0]!;
+    let previous = nodes[0];
     for (let k = 0; k < maxNodes; k++) {
       const u = previous.u + direction * step;
       const next = conditional(u, previous.mode, previous.scale);
@@ -143,13 +143,13 @@ function proposalFromGrid(grid: ProfileGrid, a: number, nu: number, marginalScal
   const { nodes, conditionalMode, conditionalScale, logMarginal: ell } = grid;
   const n = nodes.length;
   // Exponential tails beyond the ends, decaying at least as fast as over one marginal scale.
-  const leftRate = Math.max(1 / marginalScale, n > 1 ? (ell[1]! - ell[0]!) / (nodes[1]! - nodes[0]!) : 0);
-  const rightRate = Math.max(1 / marginalScale, n > 1 ? (ell[n - 2]! - ell[n - 1]!) / (nodes[n - 1]! - nodes[n - 2]!) : 0);
+  const leftRate = Math.max(1 / marginalScale, n > 1 ? (ell[1] - ell[0]) / (nodes[1] - nodes[0]) : 0);
+  const rightRate = Math.max(1 / marginalScale, n > 1 ? (ell[n - 2] - ell[n - 1]) / (nodes[n - 1] - nodes[n - 2]) : 0);
   // Mass of each piece (left tail, segments, right tail), relative to exp(highest ell) = 1.
   const pieces = new Float64Array(n + 1);
-  pieces[0] = Math.exp(ell[0]!) / leftRate;
-  for (let j = 0; j + 1 < n; j++) pieces[j + 1] = segmentMass(nodes[j]!, nodes[j + 1]!, ell[j]!, ell[j + 1]!);
-  pieces[n] = Math.exp(ell[n - 1]!) / rightRate;
+  pieces[0] = Math.exp(ell[0]) / leftRate;
+  for (let j = 0; j + 1 < n; j++) pieces[j + 1] = segmentMass(nodes[j], nodes[j + 1], ell[j], ell[j + 1]);
+  pieces[n] = Math.exp(ell[n - 1]) / rightRate;
   let total = 0;
   for (const m of pieces) total += m;
   const logTotal = Math.log(total);
@@ -162,46 +162,46 @@ function proposalFromGrid(grid: ProfileGrid, a: number, nu: number, marginalScal
 
   /** Index j of the segment [nodes[j], nodes[j+1]] holding u, -1 left of the grid, n - 1 right of it. */
   const segmentOf = (u: number): number => {
-    if (u < nodes[0]!) return -1;
-    if (u >= nodes[n - 1]!) return n - 1;
+    if (u < nodes[0]) return -1;
+    if (u >= nodes[n - 1]) return n - 1;
     let lo = 0;
     let hi = n - 1;
     while (hi - lo > 1) {
       const mid = (lo + hi) >> 1;
-      if (nodes[mid]! <= u) lo = mid;
+      if (nodes[mid] <= u) lo = mid;
       else hi = mid;
     }
     return lo;
   };
   const marginalLogDensity = (u: number, j: number): number => {
-    if (j < 0) return ell[0]! - leftRate * (nodes[0]! - u) - logTotal;
-    if (j >= n - 1) return ell[n - 1]! - rightRate * (u - nodes[n - 1]!) - logTotal;
-    const f = (u - nodes[j]!) / (nodes[j + 1]! - nodes[j]!);
-    return ell[j]! + f * (ell[j + 1]! - ell[j]!) - logTotal;
+    if (j < 0) return ell[0] - leftRate * (nodes[0] - u) - logTotal;
+    if (j >= n - 1) return ell[n - 1] - rightRate * (u - nodes[n - 1]) - logTotal;
+    const f = (u - nodes[j]) / (nodes[j + 1] - nodes[j]);
+    return ell[j] + f * (ell[j + 1] - ell[j]) - logTotal;
   };
   const conditionalAt = (u: number, j: number): [number, number] => {
-    if (j < 0) return [conditionalMode[0]!, conditionalScale[0]!];
-    if (j >= n - 1) return [conditionalMode[n - 1]!, conditionalScale[n - 1]!];
-    const f = (u - nodes[j]!) / (nodes[j + 1]! - nodes[j]!);
-    return [conditionalMode[j]! + f * (conditionalMode[j + 1]! - conditionalMode[j]!), conditionalScale[j]! + f * (conditionalScale[j + 1]! - conditionalScale[j]!)];
+    if (j < 0) return [conditionalMode[0], conditionalScale[0]];
+    if (j >= n - 1) return [conditionalMode[n - 1], conditionalScale[n - 1]];
+    const f = (u - nodes[j]) / (nodes[j + 1] - nodes[j]);
+    return [conditionalMode[j] + f * (conditionalMode[j + 1] - conditionalMode[j]), conditionalScale[j] + f * (conditionalScale[j + 1] - conditionalScale[j])];
   };
   const logDensity = (x: Float64Array): number => {
-    const u = x[a]!;
+    const u = x[a];
     const j = segmentOf(u);
     const [m, s] = conditionalAt(u, j);
-    return marginalLogDensity(u, j) + studentTLogPdf((x[b]! - m) / s, nu) - Math.log(s);
+    return marginalLogDensity(u, j) + studentTLogPdf((x[b] - m) / s, nu) - Math.log(s);
   };
   return {
     logDensity,
     draw(rng: Rng, out: Float64Array): number {
       const v = rng.uniform();
       let piece = 0;
-      while (piece < n && cumulative[piece]! < v) piece++;
+      while (piece < n && cumulative[piece] < v) piece++;
       let u: number;
       const w = rng.uniform();
-      if (piece === 0) u = nodes[0]! + Math.log1p(-w) / leftRate;
-      else if (piece === n) u = nodes[n - 1]! - Math.log1p(-w) / rightRate;
-      else u = sampleSegment(nodes[piece - 1]!, nodes[piece]!, ell[piece - 1]!, ell[piece]!, w);
+      if (piece === 0) u = nodes[0] + Math.log1p(-w) / leftRate;
+      else if (piece === n) u = nodes[n - 1] - Math.log1p(-w) / rightRate;
+      else u = sampleSegment(nodes[piece - 1], nodes[piece], ell[piece - 1], ell[piece], w);
       const [m, s] = conditionalAt(u, segmentOf(u));
       // A t draw: normal over the root of a chi-square over nu.
       let chiSquare = 0;

@@ -15,8 +15,8 @@ export function splitChains(chains: readonly ArrayLike<number>[]): Float64Array[
     const first = new Float64Array(half);
     const second = new Float64Array(half);
     for (let i = 0; i < half; i++) {
-      first[i] = chain[i]!;
-      second[i] = chain[n - half + i]!;
+      first[i] = chain[i];
+      second[i] = chain[n - half + i];
     }
     out.push(first, second);
   }
@@ -43,7 +43,7 @@ export function rankNormalize(chains: readonly ArrayLike<number>[]): Float64Arra
   }
   return chains.map((chain) => {
     const z = new Float64Array(chain.length);
-    for (let i = 0; i < chain.length; i++) z[i] = score[firstAtOrAbove(sorted, chain[i]!)]!;
+    for (let i = 0; i < chain.length; i++) z[i] = score[firstAtOrAbove(sorted, chain[i])];
     return z;
   });
 }
@@ -54,7 +54,7 @@ function firstAtOrAbove(sorted: Float64Array, x: number): number {
   let hi = sorted.length;
   while (lo < hi) {
     const mid = (lo + hi) >>> 1;
-    if (sorted[mid]! < x) lo = mid + 1;
+    if (sorted[mid] < x) lo = mid + 1;
     else hi = mid;
   }
   return lo;

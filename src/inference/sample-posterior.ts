@@ -90,7 +90,7 @@ function cloudAround(
   for (let k = 0; k < count; k++) {
     let point = Float64Array.from(centre);
     for (let attempt = 0, s = spread; attempt < 50; attempt++, s *= 0.5) {
-      const trial = Float64Array.from(centre, (c, i) => c + s * scale[i]! * rng.normal());
+      const trial = Float64Array.from(centre, (c, i) => c + s * scale[i] * rng.normal());
       if (Number.isFinite(target.logPosterior(trial))) {
         point = trial;
         break;
@@ -172,12 +172,12 @@ export function samplePosterior(
   const parameters: Record<string, PosteriorSummary & { fixed?: boolean; rhat?: number; essBulk?: number; essTail?: number }> = {};
   const freeIndex = new Map(space.free.map((p, i) => [p.name, i]));
   for (const name of space.names) {
-    const summary = summarizeDraws(draws.columns[name]!);
+    const summary = summarizeDraws(draws.columns[name]);
     const i = freeIndex.get(name);
     if (i === undefined) {
       parameters[name] = { ...summary, sd: 0, fixed: true };
     } else {
-      const diag = run.diagnostics.convergence.parameters[i]!;
+      const diag = run.diagnostics.convergence.parameters[i];
       parameters[name] = { ...summary, rhat: diag.rhat, essBulk: diag.essBulk, essTail: diag.essTail };
     }
   }

@@ -4,10 +4,10 @@ import { foldAboutMedian, rankNormalize, splitChains } from "./rank-normalizatio
 export function chainMoments(chain: ArrayLike<number>): { mean: number; variance: number } {
   const n = chain.length;
   let mean = 0;
-  for (let i = 0; i < n; i++) mean += chain[i]!;
+  for (let i = 0; i < n; i++) mean += chain[i];
   mean /= n;
   let ss = 0;
-  for (let i = 0; i < n; i++) ss += (chain[i]! - mean) ** 2;
+  for (let i = 0; i < n; i++) ss += (chain[i] - mean) ** 2;
   return { mean, variance: n > 1 ? ss / (n - 1) : NaN };
 }
 

@@ -28,14 +28,14 @@ export interface StudentTProposal {
 export function choleskyFactor(matrix: ArrayLike<number>, d: number): Float64Array | undefined {
   const l = new Float64Array(d * d);
   for (let j = 0; j < d; j++) {
-    let diagonal = matrix[j * d + j]!;
-    for (let k = 0; k < j; k++) diagonal -= l[j * d + k]! * l[j * d + k]!;
+    let diagonal = matrix[j * d + j];
+    for (let k = 0; k < j; k++) diagonal -= l[j * d + k] * l[j * d + k];
     if (!(diagonal > 0) || !Number.isFinite(diagonal)) return undefined;
     const root = Math.sqrt(diagonal);
     l[j * d + j] = root;
     for (let i = j + 1; i < d; i++) {
-      let sum = matrix[i * d + j]!;
-      for (let k = 0; k < j; k++) sum -= l[i * d + k]! * l[j * d + k]!;
+      let sum = matrix[i * d + j];
+      for (let k = 0; k < j; k++) sum -= l[i * d + k] * l[j * d + k];
       l[i * d + j] = sum / root;
     }
   }
@@ -73,7 +73,7 @@ export function studentTProposal(location: ArrayLike<number>, scaleMatrix: Array
   const m = Float64Array.from(location);
   const nu = degreesOfFreedom;
   let logDetL = 0;
-  for (let i = 0; i < d; i++) logDetL += Math.log(l[i * d + i]!);
+  for (let i = 0; i < d; i++) logDetL += Math.log(l[i * d + i]);
   const constant = studentTLogNormaliser(d, nu) - logDetL;
   const z = new Float64Array(d);
   const logDensityOfSquare = (r2: number) => constant - ((nu + d) / 2) * Math.log1p(r2 / nu);
@@ -92,12 +92,12 @@ export function studentTProposal(location: ArrayLike<number>, scaleMatrix: Array
       let r2 = 0;
       for (let i = 0; i < d; i++) {
         z[i] = rng.normal();
-        r2 += z[i]! * z[i]!;
+        r2 += z[i] * z[i];
       }
       for (let i = 0; i < d; i++) {
         let sum = 0;
-        for (let k = 0; k <= i; k++) sum += l[i * d + k]! * z[k]!;
-        out[i] = m[i]! + stretch * sum;
+        for (let k = 0; k <= i; k++) sum += l[i * d + k] * z[k];
+        out[i] = m[i] + stretch * sum;
       }
       return logDensityOfSquare(r2 * stretch * stretch);
     },
@@ -105,10 +105,10 @@ export function studentTProposal(location: ArrayLike<number>, scaleMatrix: Array
       // Forward substitution: z = L^-1 (x - m).
       let r2 = 0;
       for (let i = 0; i < d; i++) {
-        let sum = x[i]! - m[i]!;
-        for (let k = 0; k < i; k++) sum -= l[i * d + k]! * z[k]!;
-        z[i] = sum / l[i * d + i]!;
-        r2 += z[i]! * z[i]!;
+        let sum = x[i] - m[i];
+        for (let k = 0; k < i; k++) sum -= l[i * d + k] * z[k];
+        z[i] = sum / l[i * d + i];
+        r2 += z[i] * z[i];
       }
       return logDensityOfSquare(r2);
     },

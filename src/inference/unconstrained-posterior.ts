@@ -67,10 +67,10 @@ export function unconstrainedPosterior(
       }
       let value = logL + prior;
       for (let i = 0; i < free.length; i++) {
-        const p = free[i]!;
-        const x = physical[p.index]!;
-        const ui = u[i]!;
-        let g = (physicalGradient[p.index]! + p.prior.logDensityDerivative(x)) * p.transform.derivative(ui);
+        const p = free[i];
+        const x = physical[p.index];
+        const ui = u[i];
+        let g = (physicalGradient[p.index] + p.prior.logDensityDerivative(x)) * p.transform.derivative(ui);
         if (jacobian) {
           g += p.transform.logJacobianDerivative(ui);
           value += p.transform.logJacobian(ui);

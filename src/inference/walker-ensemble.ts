@@ -63,7 +63,7 @@ export function createWalkerEnsemble(
   const pickMove = (): number => {
     let u = rng.uniform() * totalWeight;
     for (let i = 0; i < moves.length; i++) {
-      u -= moves[i]!.weight;
+      u -= moves[i].weight;
       if (u < 0) return i;
     }
     return moves.length - 1;
@@ -71,21 +71,21 @@ export function createWalkerEnsemble(
 
   const updateHalf = (first: number, complement: readonly Float64Array[]): number => {
     const which = pickMove();
-    const move = moves[which]!.proposal;
+    const move = moves[which].proposal;
     let acceptedHere = 0;
     for (let w = first; w < first + half; w++) {
-      const logFactor = move.propose(positions[w]!, complement, rng, proposal);
+      const logFactor = move.propose(positions[w], complement, rng, proposal);
       const candidate = target.logPosterior(proposal);
-      const logRatio = logFactor + candidate - logp[w]!;
+      const logRatio = logFactor + candidate - logp[w];
       // Compare in logs; NaN or -Infinity candidates are never accepted.
       if (candidate > -Infinity && (logRatio >= 0 || Math.log(rng.uniform()) < logRatio)) {
-        positions[w]!.set(proposal);
+        positions[w].set(proposal);
         logp[w] = candidate;
         acceptedHere++;
       }
     }
-    proposed[which] = proposed[which]! + half;
-    accepted[which] = accepted[which]! + acceptedHere;
+    proposed[which] = proposed[which] + half;
+    accepted[which] = accepted[which] + acceptedHere;
     return acceptedHere;
   };
 
@@ -117,7 +117,7 @@ export function createWalkerEnsemble(
         proposals: moves.map((m, i) => ({
           proposal: m.proposal.name,
           weight: m.weight / totalWeight,
-          acceptance: proposed[i]! > 0 ? accepted[i]! / proposed[i]! : null,
+          acceptance: proposed[i] > 0 ? accepted[i] / proposed[i] : null,
         })),
       };
     },

@@ -23,10 +23,10 @@ export function stretchProposal(a = 2): WalkerProposal {
     name: `stretch(a=${a})`,
     propose(current, complement, rng, out) {
       const d = current.length;
-      const partner = complement[Math.floor(rng.uniform() * complement.length)]!;
+      const partner = complement[Math.floor(rng.uniform() * complement.length)];
       const root = (a - 1) * rng.uniform() + 1;
       const z = (root * root) / a;
-      for (let i = 0; i < d; i++) out[i] = partner[i]! + z * (current[i]! - partner[i]!);
+      for (let i = 0; i < d; i++) out[i] = partner[i] + z * (current[i] - partner[i]);
       return (d - 1) * Math.log(z);
     },
   };
@@ -57,11 +57,11 @@ export function differentialEvolutionProposal(options: { gamma?: number; jitter?
       const j = Math.floor(rng.uniform() * m);
       let k = Math.floor(rng.uniform() * (m - 1));
       if (k >= j) k++;
-      const xj = complement[j]!;
-      const xk = complement[k]!;
+      const xj = complement[j];
+      const xk = complement[k];
       for (let i = 0; i < d; i++) {
-        const diff = xj[i]! - xk[i]!;
-        out[i] = current[i]! + gamma * diff + jitter * Math.abs(diff) * rng.normal();
+        const diff = xj[i] - xk[i];
+        out[i] = current[i] + gamma * diff + jitter * Math.abs(diff) * rng.normal();
       }
       return 0;
     },

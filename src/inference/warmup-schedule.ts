@@ -81,7 +81,7 @@ export class WindowSpread {
 
   /** Adds one vector (for example a chain's position after an iteration). */
   add(x: Float64Array): void {
-    for (let i = 0; i < this.columns.length; i++) this.columns[i]!.push(x[i]!);
+    for (let i = 0; i < this.columns.length; i++) this.columns[i].push(x[i]);
   }
 
   /**
@@ -97,7 +97,7 @@ export class WindowSpread {
     return Float64Array.from(this.columns, (column, i) => {
       const dof = column.length - 1;
       const s = interquartileScale(column);
-      return (MASS_PRIOR_DRAWS * target[i]! + dof * s * s) / (MASS_PRIOR_DRAWS + dof);
+      return (MASS_PRIOR_DRAWS * target[i] + dof * s * s) / (MASS_PRIOR_DRAWS + dof);
     });
   }
 

@@ -10,11 +10,11 @@ import type { Rng } from "../random/rng.js";
 export function systematicResample(weights: ArrayLike<number>, count: number, rng: Rng): Int32Array {
   const picks = new Int32Array(count);
   const u = rng.uniform();
-  let cumulative = weights[0]!;
+  let cumulative = weights[0];
   let s = 0;
   for (let k = 0; k < count; k++) {
     const position = (k + u) / count;
-    while (cumulative < position && s < weights.length - 1) cumulative += weights[++s]!;
+    while (cumulative < position && s < weights.length - 1) cumulative += weights[++s];
     picks[k] = s;
   }
   return picks;

@@ -31,7 +31,7 @@ export async function* streamParquetCatalogue(
     .children.filter((child) => child.children.length === 0)
     .map((child) => child.element.name);
   const idIndex = findColumn(names, options.idColumn, "object-id", path);
-  const idName = names[idIndex]!;
+  const idName = names[idIndex];
   const chosen = chooseColumns(names, options, path);
   for (const role of [chosen.time, chosen.value, chosen.error, chosen.band]) {
     if (role && role.index === idIndex) throw new InputError("the object-id column is also chosen as a light-curve column", { file: path, column: idName });
@@ -60,7 +60,7 @@ export async function* streamParquetCatalogue(
     }
     for (let i = 0; i < rows.length; i++) {
       const row = rowStart + i + 1;
-      const cells = rows[i]!;
+      const cells = rows[i];
       const idCell = cells[idName];
       const id = idCell === null || idCell === undefined ? "" : String(idCell).trim();
       if (id === "") throw new InputError("no object id", { file: path, row, column: idName });

@@ -56,10 +56,10 @@ export function carmaTerm(order: CarmaOrder): KernelTerm {
     names,
     build: (values) => {
       let i = 1;
-      const oscillations = Array.from({ length: pairs }, () => ({ period: values[i++]!, quality: values[i++]! }));
-      const timescales = Array.from({ length: real }, () => values[i++]!);
-      const movingAverage = Array.from({ length: order.q }, () => values[i++]!);
-      return kernels.carma({ sigma: values[0]!, oscillations, timescales, movingAverage });
+      const oscillations = Array.from({ length: pairs }, () => ({ period: values[i++], quality: values[i++] }));
+      const timescales = Array.from({ length: real }, () => values[i++]);
+      const movingAverage = Array.from({ length: order.q }, () => values[i++]);
+      return kernels.carma({ sigma: values[0], oscillations, timescales, movingAverage });
     },
   };
 }

@@ -41,7 +41,7 @@ export function combinedDiagnostics(runs: readonly MethodPosterior[], seconds: n
     acceptance: acceptances.length > 0 ? acceptances.reduce((a, b) => a + b, 0) / acceptances.length : null,
     likelihoodEvaluations: runs.reduce((sum, run) => sum + run.diagnostics.likelihoodEvaluations, 0),
     seconds,
-    method: methods.every((m) => m === methods[0]) ? methods[0]! : "mixed",
+    method: methods.every((m) => m === methods[0]) ? methods[0] : "mixed",
     ...(methods.length > 1 ? { methods } : {}),
     ...(markov?.sample ? { sampler: markov.sample.sampler } : {}),
     stopReason: stopped ? stopped.diagnostics.stopReason : "converged",

@@ -76,7 +76,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
   if (collapsed) {
     const means = collapsed.meanPosterior(collapsed.space.physicalFromRecord(run.maximum)).mean;
     model.bands.forEach((band, b) => (maximumPosterior[`mean.${band}`] = means[b]));
-    maximumPosterior = Object.fromEntries(model.space.names.map((name) => [name, maximumPosterior[name]!]));
+    maximumPosterior = Object.fromEntries(model.space.names.map((name) => [name, maximumPosterior[name]]));
   }
   const summaries = posteriorSummaries(draws, model.space.names, options.model, options.redshift);
   const diagnostics = combinedDiagnostics([markovPosterior(run)], (clock() - start) / 1000);

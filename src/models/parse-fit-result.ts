@@ -108,7 +108,7 @@ function parameterSummary(f: Fields): FitParameterSummary {
     q16: f.number("q16"),
     q84: f.number("q84"),
     "q97.5": f.number("q97.5"),
-    hdi95: [hdi[0]!, hdi[1]!],
+    hdi95: [hdi[0], hdi[1]],
   };
 }
 

@@ -21,7 +21,7 @@ export function bulkRange(values: ArrayLike<number>, alsoShow: ArrayLike<number>
   low -= MARGIN * span;
   high += MARGIN * span;
   for (let i = 0; i < alsoShow.length; i++) {
-    const v = alsoShow[i]!;
+    const v = alsoShow[i];
     if (Number.isFinite(v)) (low = Math.min(low, v)), (high = Math.max(high, v));
   }
   if (!(high > low)) {

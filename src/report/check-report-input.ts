@@ -19,14 +19,14 @@ export function checkReportInput(input: ReportInput): void {
     if (chains === undefined || chains.length === 0) throw new RangeError(`draws.chains has no chains for parameter "${name}"`);
     for (const [c, chain] of chains.entries()) {
       if (chain.length === 0) throw new RangeError(`draws.chains.${name}[${c}] is empty`);
-      if (chain.length !== chains[0]!.length) {
-        throw new RangeError(`draws.chains.${name}[${c}] has ${chain.length} draws, chain 0 has ${chains[0]!.length}`);
+      if (chain.length !== chains[0].length) {
+        throw new RangeError(`draws.chains.${name}[${c}] has ${chain.length} draws, chain 0 has ${chains[0].length}`);
       }
     }
-    if (shape === undefined) shape = { chains: chains.length, steps: chains[0]!.length };
-    else if (shape.chains !== chains.length || shape.steps !== chains[0]!.length) {
+    if (shape === undefined) shape = { chains: chains.length, steps: chains[0].length };
+    else if (shape.chains !== chains.length || shape.steps !== chains[0].length) {
       throw new RangeError(
-        `draws.chains.${name} is ${chains.length} chains × ${chains[0]!.length} draws, ` +
+        `draws.chains.${name} is ${chains.length} chains × ${chains[0].length} draws, ` +
           `but "${draws.names[0]}" is ${shape.chains} × ${shape.steps}`,
       );
     }
@@ -35,7 +35,7 @@ export function checkReportInput(input: ReportInput): void {
 
 function sameLength(what: string, columns: Record<string, ArrayLike<number>>): void {
   const entries = Object.entries(columns);
-  const [firstName, first] = entries[0]!;
+  const [firstName, first] = entries[0];
   for (const [name, column] of entries) {
     if (column.length !== first.length) {
       throw new RangeError(`${what}.${name} has ${column.length} values, ${what}.${firstName} has ${first.length}`);

@@ -48,7 +48,7 @@ interface PairAxis {
 export function cornerFigure(input: ReportInput): ReportFigure {
   const names = input.draws.names.filter((name) => input.draws.chains[name] !== undefined);
   if (names.length === 0) throw new RangeError("the pair figure needs posterior draws of at least one parameter");
-  const total = pooledDraws(input.draws, names[0]!).length;
+  const total = pooledDraws(input.draws, names[0]).length;
   const axes = names.map((name) => pairAxis(input, name));
   const k = axes.length;
   // Smaller cells for many parameters keep the whole figure near the page width, so its text is not shrunk.
@@ -59,8 +59,8 @@ export function cornerFigure(input: ReportInput): ReportFigure {
     for (let column = 0; column < k; column++) {
       const bottom = row === k - 1;
       if (column > row) cells.push(emptyCell(cell));
-      else if (column === row) cells.push(marginalCell(axes[row]!, `marginal-${row}`, datasets, cell, bottom));
-      else cells.push(pairCell(axes[column]!, axes[row]!, `pair-${row}-${column}`, datasets, cell, bottom, column === 0));
+      else if (column === row) cells.push(marginalCell(axes[row], `marginal-${row}`, datasets, cell, bottom));
+      else cells.push(pairCell(axes[column], axes[row], `pair-${row}-${column}`, datasets, cell, bottom, column === 0));
     }
   }
   const base = figureConfig();
@@ -90,7 +90,7 @@ export function cornerFigure(input: ReportInput): ReportFigure {
 function pairAxis(input: ReportInput, name: string): PairAxis {
   const display = parameterDisplay(input, name);
   const pooled = pooledDraws(input.draws, name);
-  const thinned = Float64Array.from(evenlySpacedIndices(pooled.length, MAX_DRAWS), (i) => pooled[i]!);
+  const thinned = Float64Array.from(evenlySpacedIndices(pooled.length, MAX_DRAWS), (i) => pooled[i]);
   const log = display.logScale === true;
   const sorted = Float64Array.from(thinned).sort();
   const tail = (1 - AXIS_MASS) / 2;
@@ -148,7 +148,7 @@ function marginalCell(axis: PairAxis, name: string, datasets: Record<string, Dat
     if (!(b > a)) return;
     rows.push({ x: fromPlot(axis, a), d: interpolate(curve.x, curve.density, a), part });
     for (let i = 0; i < curve.x.length; i++) {
-      if (curve.x[i]! > a && curve.x[i]! < b) rows.push({ x: fromPlot(axis, curve.x[i]!), d: curve.density[i]!, part });
+      if (curve.x[i] > a && curve.x[i] < b) rows.push({ x: fromPlot(axis, curve.x[i]), d: curve.density[i], part });
     }
     rows.push({ x: fromPlot(axis, b), d: interpolate(curve.x, curve.density, b), part });
   };
@@ -214,14 +214,14 @@ function pairCell(
   for (let r = 0; r < bins; r++) {
     let start = 0;
     for (let c = 1; c <= bins; c++) {
-      const level = grid.level[r * bins + start]!;
-      if (c < bins && Object.is(grid.level[r * bins + c]!, level)) continue;
+      const level = grid.level[r * bins + start];
+      if (c < bins && Object.is(grid.level[r * bins + c], level)) continue;
       if (!Number.isNaN(level)) {
         rows.push({
-          x: fromPlot(xAxis, grid.xEdges[start]!),
-          x2: fromPlot(xAxis, grid.xEdges[c]!),
-          y: fromPlot(yAxis, grid.yEdges[r]!),
-          y2: fromPlot(yAxis, grid.yEdges[r + 1]!),
+          x: fromPlot(xAxis, grid.xEdges[start]),
+          x2: fromPlot(xAxis, grid.xEdges[c]),
+          y: fromPlot(yAxis, grid.yEdges[r]),
+          y2: fromPlot(yAxis, grid.yEdges[r + 1]),
           region: formatPercent(level),
         });
       }
@@ -267,12 +267,12 @@ function emptyCell(size: number): ViewSpec {
 /** Linear interpolation of (xs, ys) at x, clamped to the ends. */
 function interpolate(xs: Float64Array, ys: Float64Array, x: number): number {
   const n = xs.length;
-  if (x <= xs[0]!) return ys[0]!;
-  if (x >= xs[n - 1]!) return ys[n - 1]!;
-  const step = (xs[n - 1]! - xs[0]!) / (n - 1);
-  const i = Math.min(n - 2, Math.floor((x - xs[0]!) / step));
-  const w = (x - xs[i]!) / (xs[i + 1]! - xs[i]!);
-  return ys[i]! + w * (ys[i + 1]! - ys[i]!);
+  if (x <= xs[0]) return ys[0];
+  if (x >= xs[n - 1]) return ys[n - 1];
+  const step = (xs[n - 1] - xs[0]) / (n - 1);
+  const i = Math.min(n - 2, Math.floor((x - xs[0]) / step));
+  const w = (x - xs[i]) / (xs[i + 1] - xs[i]);
+  return ys[i] + w * (ys[i + 1] - ys[i]);
 }
 
 function formatPercent(mass: number): string {

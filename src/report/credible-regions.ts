@@ -32,20 +32,20 @@ export function credibleRegions(
   const xStep = (xExtent[1] - xExtent[0]) / bins;
   const yStep = (yExtent[1] - yExtent[0]) / bins;
   for (let i = 0; i < n; i++) {
-    const cx = Math.floor((xs[i]! - xExtent[0]) / xStep);
-    const cy = Math.floor((ys[i]! - yExtent[0]) / yStep);
-    if (cx >= 0 && cx < bins && cy >= 0 && cy < bins) counts[cy * bins + cx]! += 1;
+    const cx = Math.floor((xs[i] - xExtent[0]) / xStep);
+    const cy = Math.floor((ys[i] - yExtent[0]) / yStep);
+    if (cx >= 0 && cx < bins && cy >= 0 && cy < bins) counts[cy * bins + cx] += 1;
   }
   for (let pass = 0; pass < 2; pass++) counts = smoothRows(smoothColumns(counts, bins), bins);
-  const order = Array.from({ length: counts.length }, (_, i) => i).sort((a, b) => counts[b]! - counts[a]!);
+  const order = Array.from({ length: counts.length }, (_, i) => i).sort((a, b) => counts[b] - counts[a]);
   const level = new Float64Array(counts.length).fill(Number.NaN);
   let held = 0;
   let next = 0;
   for (const cell of order) {
-    if (next >= masses.length || counts[cell]! <= 0) break;
-    level[cell] = masses[next]!;
-    held += counts[cell]!;
-    while (next < masses.length && held >= masses[next]! * n) next++;
+    if (next >= masses.length || counts[cell] <= 0) break;
+    level[cell] = masses[next];
+    held += counts[cell];
+    while (next < masses.length && held >= masses[next] * n) next++;
   }
   return { xEdges, yEdges, level };
 }
@@ -55,9 +55,9 @@ function smoothRows(values: Float64Array, bins: number): Float64Array {
   const out = new Float64Array(values.length);
   for (let y = 0; y < bins; y++) {
     for (let x = 0; x < bins; x++) {
-      const left = values[y * bins + Math.max(0, x - 1)]!;
-      const right = values[y * bins + Math.min(bins - 1, x + 1)]!;
-      out[y * bins + x] = 0.25 * left + 0.5 * values[y * bins + x]! + 0.25 * right;
+      const left = values[y * bins + Math.max(0, x - 1)];
+      const right = values[y * bins + Math.min(bins - 1, x + 1)];
+      out[y * bins + x] = 0.25 * left + 0.5 * values[y * bins + x] + 0.25 * right;
     }
   }
   return out;
@@ -69,7 +69,7 @@ function smoothColumns(values: Float64Array, bins: number): Float64Array {
     const below = Math.max(0, y - 1);
     const above = Math.min(bins - 1, y + 1);
     for (let x = 0; x < bins; x++) {
-      out[y * bins + x] = 0.25 * values[below * bins + x]! + 0.5 * values[y * bins + x]! + 0.25 * values[above * bins + x]!;
+      out[y * bins + x] = 0.25 * values[below * bins + x] + 0.5 * values[y * bins + x] + 0.25 * values[above * bins + x];
     }
   }
   return out;

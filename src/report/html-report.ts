@@ -206,7 +206,7 @@ function outlierSection(input: ReportInput): string {
     .slice(0, MAX_OUTLIERS_LISTED)
     .map(
       (i) =>
-        `<tr><td>${escapeHtml(formatSignificant(time[i]!, 10))}</td><td>${escapeHtml(formatSignificant(value[i]!, 6))}</td><td>${error ? escapeHtml(formatSignificant(error[i]!, 3)) : "–"}</td><td>${escapeHtml(formatSignificant(robust.outlierProbability[i]!, 3))}</td></tr>`,
+        `<tr><td>${escapeHtml(formatSignificant(time[i], 10))}</td><td>${escapeHtml(formatSignificant(value[i], 6))}</td><td>${error ? escapeHtml(formatSignificant(error[i], 3)) : "–"}</td><td>${escapeHtml(formatSignificant(robust.outlierProbability[i], 3))}</td></tr>`,
     );
   const more = flagged.length > MAX_OUTLIERS_LISTED ? `\n<p class="note">The first ${MAX_OUTLIERS_LISTED} of ${flagged.length} are listed; the result JSON has every point's probability (robust.outlierProbability).</p>` : "";
   return `<section id="outliers">

@@ -7,7 +7,7 @@
 export function inlineSvg(svg: string, prefix: string, label: string): string {
   const body = svg.replace(/^<\?xml[^>]*>\s*/, "");
   const ids = new Set<string>();
-  for (const match of body.matchAll(/\sid="([^"]+)"/g)) ids.add(match[1]!);
+  for (const match of body.matchAll(/\sid="([^"]+)"/g)) ids.add(match[1]);
   let out = body;
   for (const id of ids) {
     const escaped = id.replace(/[.*+?^${}()|[\]\\]/g, "\\$&");

@@ -52,26 +52,26 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
   const domain = bulkRange(lightCurve.value, prediction.mean);
   const clamp = (v: number) => Math.min(domain[1], Math.max(domain[0], v));
   const dataRows = drawn
-    .filter((i) => !flagged(i) && lightCurve.value[i]! >= domain[0] && lightCurve.value[i]! <= domain[1])
+    .filter((i) => !flagged(i) && lightCurve.value[i] >= domain[0] && lightCurve.value[i] <= domain[1])
     .map((i) => {
-      const y = lightCurve.value[i]!;
+      const y = lightCurve.value[i];
       const e = lightCurve.error?.[i] ?? 0;
-      return { t: lightCurve.time[i]! - offset, y, lo: clamp(y - e), hi: clamp(y + e) };
+      return { t: lightCurve.time[i] - offset, y, lo: clamp(y - e), hi: clamp(y + e) };
     });
   // Every flagged or off-axis point is drawn, thinned or not: these are the points a reader looks for.
   const outlierRows: { t: number; y: number }[] = [];
   const beyondRows: { t: number; y: number; side: string }[] = [];
   for (let i = 0; i < n; i++) {
-    const y = lightCurve.value[i]!;
+    const y = lightCurve.value[i];
     const beyond = y < domain[0] || y > domain[1];
-    if (beyond) beyondRows.push({ t: lightCurve.time[i]! - offset, y: clamp(y), side: (y > domain[1]) !== (lightCurve.unit === "mag") ? "up" : "down" });
-    else if (flagged(i)) outlierRows.push({ t: lightCurve.time[i]! - offset, y });
+    if (beyond) beyondRows.push({ t: lightCurve.time[i] - offset, y: clamp(y), side: (y > domain[1]) !== (lightCurve.unit === "mag") ? "up" : "down" });
+    else if (flagged(i)) outlierRows.push({ t: lightCurve.time[i] - offset, y });
   }
   const gridRows = evenlySpacedIndices(prediction.time.length, MAX_GRID_DRAWN).map((i) => {
-    const m = prediction.mean[i]!;
-    const s = prediction.sd[i]!;
+    const m = prediction.mean[i];
+    const s = prediction.sd[i];
     return {
-      t: prediction.time[i]! - offset,
+      t: prediction.time[i] - offset,
       m,
       lo68: m - s,
       hi68: m + s,

@@ -21,16 +21,16 @@ export function kernelDensity(values: ArrayLike<number>, low: number, high: numb
   if (n === 0) return { x, density };
   const sorted = Float64Array.from(values).sort();
   let mean = 0;
-  for (let i = 0; i < n; i++) mean += sorted[i]!;
+  for (let i = 0; i < n; i++) mean += sorted[i];
   mean /= n;
   let square = 0;
-  for (let i = 0; i < n; i++) square += (sorted[i]! - mean) ** 2;
+  for (let i = 0; i < n; i++) square += (sorted[i] - mean) ** 2;
   const sd = Math.sqrt(square / Math.max(1, n - 1));
   const iqr = sortedQuantile(sorted, 0.75) - sortedQuantile(sorted, 0.25);
   const spread = iqr > 0 ? Math.min(sd, iqr / 1.34) : sd;
   const h = 0.9 * spread * Math.pow(n, -0.2);
   if (!(h > 0)) {
-    const nearest = Math.round(((sorted[0]! - low) / (high - low)) * (points - 1));
+    const nearest = Math.round(((sorted[0] - low) / (high - low)) * (points - 1));
     if (nearest >= 0 && nearest < points) density[nearest] = 1 / ((high - low) / (points - 1));
     return { x, density };
   }
@@ -38,11 +38,11 @@ export function kernelDensity(values: ArrayLike<number>, low: number, high: numb
   const norm = 1 / (n * h * Math.sqrt(2 * Math.PI));
   let first = 0;
   for (let k = 0; k < points; k++) {
-    const at = x[k]!;
-    while (first < n && sorted[first]! < at - 5 * h) first++;
+    const at = x[k];
+    while (first < n && sorted[first] < at - 5 * h) first++;
     let total = 0;
-    for (let i = first; i < n && sorted[i]! <= at + 5 * h; i++) {
-      const z = (sorted[i]! - at) / h;
+    for (let i = first; i < n && sorted[i] <= at + 5 * h; i++) {
+      const z = (sorted[i] - at) / h;
       total += Math.exp(-0.5 * z * z);
     }
     density[k] = total * norm;

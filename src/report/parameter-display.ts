@@ -35,7 +35,7 @@ const DERIVED_KINDS: Readonly<Record<string, UnitKind>> = {
  * @example parameterUnit("tau", "mag", "d") // "d"
  */
 export function parameterUnit(name: string, valueUnit: string, timeUnit: string): string {
-  const base = name.split(".")[0]!;
+  const base = name.split(".")[0];
   const kind = KNOWN[name]?.kind ?? DERIVED_KINDS[name] ?? (base === "lag" ? "time" : base === "mean" ? "value" : "none");
   return kind === "time" ? timeUnit : kind === "value" ? valueUnit : "";
 }
@@ -82,7 +82,7 @@ export function parameterAxisTitle(display: ParameterDisplay): string {
 function spansDecades(input: ReportInput, name: string): boolean {
   if (input.draws.chains[name] === undefined) return false;
   const sorted = pooledDraws(input.draws, name).sort();
-  if (sorted.length === 0 || sorted[0]! <= 0) return false;
+  if (sorted.length === 0 || sorted[0] <= 0) return false;
   const low = sortedQuantile(sorted, 0.005);
   const high = sortedQuantile(sorted, 0.995);
   return high / low > LOG_AXIS_SPAN;

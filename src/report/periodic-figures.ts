@@ -28,16 +28,16 @@ export function phaseFigure(input: ReportInput): ReportFigure | undefined {
   if (period === undefined || curves === undefined) return undefined;
   const P = period.median;
   const { lightCurve } = input;
-  const t0 = lightCurve.time[0]!;
+  const t0 = lightCurve.time[0];
   const phase = (t: number) => (((t - t0) / P) % 1 + 1) % 1;
   const drawn = evenlySpacedIndices(lightCurve.time.length, MAX_POINTS_DRAWN);
   const points = drawn.flatMap((i) => {
-    const p = phase(lightCurve.time[i]!);
-    return [{ phase: p, y: lightCurve.value[i]! }, { phase: p + 1, y: lightCurve.value[i]! }];
+    const p = phase(lightCurve.time[i]);
+    return [{ phase: p, y: lightCurve.value[i] }, { phase: p + 1, y: lightCurve.value[i] }];
   });
   const binned: number[][] = Array.from({ length: PHASE_BINS }, () => []);
   for (let i = 0; i < curves.atData.time.length; i++) {
-    binned[Math.min(PHASE_BINS - 1, Math.floor(phase(curves.atData.time[i]!) * PHASE_BINS))]!.push(curves.atData.mean[i]!);
+    binned[Math.min(PHASE_BINS - 1, Math.floor(phase(curves.atData.time[i]) * PHASE_BINS))].push(curves.atData.mean[i]);
   }
   const model = binned.flatMap((values, b) => {
     if (values.length < 3) return [];
@@ -95,8 +95,8 @@ export function zoomFigure(input: ReportInput): ReportFigure | undefined {
   const period = input.result.parameters["period"];
   const zoom = input.periodic?.zoom;
   if (period === undefined || zoom === undefined || zoom.time.length < 2) return undefined;
-  const start = zoom.time[0]!;
-  const end = zoom.time[zoom.time.length - 1]!;
+  const start = zoom.time[0];
+  const end = zoom.time[zoom.time.length - 1];
   const lightCurve = windowOf(input.lightCurve, start, end);
   if (lightCurve.time.length === 0) return undefined;
   const figure = lightCurveFigure({ ...input, lightCurve, prediction: zoom });
@@ -111,8 +111,8 @@ export function zoomFigure(input: ReportInput): ReportFigure | undefined {
 
 function windowOf(lightCurve: LightCurve, start: number, end: number): LightCurve {
   const keep: number[] = [];
-  for (let i = 0; i < lightCurve.time.length; i++) if (lightCurve.time[i]! >= start && lightCurve.time[i]! <= end) keep.push(i);
-  const pick = (values: Float64Array) => Float64Array.from(keep, (i) => values[i]!);
+  for (let i = 0; i < lightCurve.time.length; i++) if (lightCurve.time[i] >= start && lightCurve.time[i] <= end) keep.push(i);
+  const pick = (values: Float64Array) => Float64Array.from(keep, (i) => values[i]);
   return {
     ...lightCurve,
     time: pick(lightCurve.time),

@@ -93,7 +93,7 @@ function headlineParameters(model: string): string[] {
 }
 
 function describe(input: ReportInput, name: string, terse = false): string {
-  const summary = input.result.parameters[name]!;
+  const summary = input.result.parameters[name];
   const display = parameterDisplay(input, name);
   const value = formatMeasurement(summary.median, summary.median - summary.q16, summary.q84 - summary.median);
   const unit = display.unit === "" ? "" : ` ${display.unit}`;

@@ -96,7 +96,7 @@ function spectrumRows(input: ReportInput): SpectrumRows {
   let fMax = -Infinity;
   if (psdBand !== undefined) {
     const psd = evenlySpacedIndices(psdBand.frequency.length, MAX_FREQUENCIES)
-      .map((i) => ({ f: psdBand.frequency[i]!, m: psdBand.median[i]!, lo: psdBand.lower[i]!, hi: psdBand.upper[i]! }))
+      .map((i) => ({ f: psdBand.frequency[i], m: psdBand.median[i], lo: psdBand.lower[i], hi: psdBand.upper[i] }))
       .filter((r) => r.f > 0 && r.m > 0 && r.lo > 0 && r.hi > 0);
     for (const r of psd) (fMin = Math.min(fMin, r.f)), (fMax = Math.max(fMax, r.f));
     datasets["psd"] = psd;
@@ -105,7 +105,7 @@ function spectrumRows(input: ReportInput): SpectrumRows {
   let periodogramDomain: [number, number] = [1, 1];
   if (periodogram !== undefined) {
     const power = evenlySpacedIndices(periodogram.frequency.length, MAX_FREQUENCIES)
-      .map((i) => ({ f: periodogram.frequency[i]!, period: 1 / periodogram.frequency[i]!, p: periodogram.power[i]! }))
+      .map((i) => ({ f: periodogram.frequency[i], period: 1 / periodogram.frequency[i], p: periodogram.power[i] }))
       .filter((r) => r.f > 0 && r.p > 0);
     const sorted = Float64Array.from(power, (r) => r.p).sort();
     // Headroom above the highest peak, so it is not flattened against the frame.

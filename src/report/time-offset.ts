@@ -7,7 +7,7 @@
 export function timeOffset(times: ArrayLike<number>): number {
   if (times.length === 0) return 0;
   let first = Infinity;
-  for (let i = 0; i < times.length; i++) if (times[i]! < first) first = times[i]!;
+  for (let i = 0; i < times.length; i++) if (times[i] < first) first = times[i];
   // Below 1e4 labels are at most four digits before the point; nothing to gain.
   if (!(Math.abs(first) >= 1e4)) return 0;
   return Math.sign(first) * Math.floor(Math.abs(first) / 1000) * 1000;

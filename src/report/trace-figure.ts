@@ -17,8 +17,8 @@ const MAX_COLOURED_CHAINS = 10;
 export function traceFigure(input: ReportInput): ReportFigure {
   const names = input.draws.names.filter((name) => input.draws.chains[name] !== undefined);
   if (names.length === 0) throw new RangeError("the trace figure needs posterior draws of at least one parameter");
-  const chainCount = input.draws.chains[names[0]!]!.length;
-  const steps = input.draws.chains[names[0]!]![0]?.length ?? 0;
+  const chainCount = input.draws.chains[names[0]].length;
+  const steps = input.draws.chains[names[0]][0]?.length ?? 0;
   const perChain = Math.max(50, Math.floor(MAX_POINTS_PER_PARAMETER / Math.max(1, chainCount)));
   const keptSteps = evenlySpacedIndices(steps, perChain);
   const coloured = chainCount <= MAX_COLOURED_CHAINS;
@@ -27,9 +27,9 @@ export function traceFigure(input: ReportInput): ReportFigure {
   const panels = names.map((name, p) => {
     const display = parameterDisplay(input, name);
     const rows: { step: number; chain: number; v: number }[] = [];
-    input.draws.chains[name]!.forEach((chain, c) => {
+    input.draws.chains[name].forEach((chain, c) => {
       for (const s of keptSteps) {
-        const v = chain[s]!;
+        const v = chain[s];
         rows.push({ step: s, chain: c, v: display.logScale ? Math.log10(v) : v });
       }
     });

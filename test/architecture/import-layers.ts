@@ -35,7 +35,7 @@ const VERBS_FOLDER = "src/cli/verbs/";
 /** The verb a file belongs to (its file or folder under cli/verbs/), or undefined outside the verbs. */
 export function verbOf(path: string): string | undefined {
   if (!path.startsWith(VERBS_FOLDER)) return undefined;
-  return path.slice(VERBS_FOLDER.length).split("/")[0]!.replace(/\.ts$/, "");
+  return path.slice(VERBS_FOLDER.length).split("/")[0].replace(/\.ts$/, "");
 }
 
 /** npm packages that run only under Node (native code, terminal output). */
@@ -83,7 +83,7 @@ function levelOf(layer: string): number {
 
 function isNodeOnly(specifier: string): boolean {
   if (specifier.startsWith("node:")) return true;
-  const bare = specifier.split("/")[0]!;
+  const bare = specifier.split("/")[0];
   if (builtinModules.includes(specifier) || builtinModules.includes(bare)) return true;
   return NODE_ONLY_PACKAGES.some((name) => specifier === name || specifier.startsWith(`${name}/`));
 }

@@ -33,9 +33,9 @@ describe("fitArguments: one set of rules for every verb that fits", () => {
     const list = fitArgumentList(choice);
     const again: Record<string, string | boolean> = {};
     for (let k = 0; k < list.length; k++) {
-      const name = list[k]!.slice(2);
-      if (list[k + 1] === undefined || list[k + 1]!.startsWith("--")) again[name] = true;
-      else again[name] = list[++k]!;
+      const name = list[k].slice(2);
+      if (list[k + 1] === undefined || list[k + 1].startsWith("--")) again[name] = true;
+      else again[name] = list[++k];
     }
     expect(fitArguments(again, true)).toEqual(choice);
   });
@@ -78,7 +78,7 @@ describe("the same bad option gives the same one-line error in fit, predict, com
         expect(code, name).toBe(2);
         expect(stderr, name).toBe(`horologium ${name.split(" ")[0]}: ${message}\n`);
       }
-      if (/^--(seed|background|min-period)/.test(option[0]!)) {
+      if (/^--(seed|background|min-period)/.test(option[0])) {
         const { stderr } = await runInProcess(["compare", "lc.csv", ...option], cwd);
         expect(stderr).toBe(`horologium compare: ${message}\n`);
       }

@@ -105,8 +105,16 @@ function resultProblems(result: FitResult): string[] {
   }
   const d = result.diagnostics;
   const flagged = result.warnings.some((w) => /too few to compute R-hat/.test(w));
-  if (!(Number.isFinite(d.rhatMax) && Number.isFinite(d.essMin)) && !flagged) problems.push("R-hat or ESS not computed and not flagged");
-  if (d.converged && !(Number.isFinite(d.rhatMax) && Number.isFinite(d.essMin))) problems.push("converged with a figure not computed");
+  // The figures that decide convergence depend on the method (docs/diagnostics.md): R-hat and ESS for
+  // the Markov chains; k-hat and the weights' ESS for importance sampling, where R-hat is null by design.
+  const chainsComputed = Number.isFinite(d.rhatMax) && Number.isFinite(d.essMin);
+  const weightsComputed = Number.isFinite(d.paretoK) && Number.isFinite(d.essMin);
+  const computed = d.method === "importance" ? weightsComputed : d.method === "mixed" ? chainsComputed || weightsComputed : chainsComputed;
+  if (!computed && !flagged) problems.push(`convergence figures of ${d.method} not computed and not flagged`);
+  if (d.converged && !computed) problems.push("converged with a figure not computed");
+  if (d.converged && d.method === "importance" && !((d.paretoK ?? Infinity) <= (d.paretoKThreshold ?? -Infinity))) {
+    problems.push(`importance sampling converged with k-hat ${d.paretoK} above its threshold ${d.paretoKThreshold}`);
+  }
   return problems;
 }
 

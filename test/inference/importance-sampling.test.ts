@@ -10,13 +10,13 @@ const PROBABILITIES = [0.025, 0.16, 0.5, 0.84, 0.975];
 
 /** The weighted p-quantile of coordinate i: the smallest draw whose cumulative weight reaches p. */
 function weightedQuantile(sample: ImportanceSample, i: number, p: number): number {
-  const order = sample.points.map((_, s) => s).sort((a, b) => sample.points[a]![i]! - sample.points[b]![i]!);
+  const order = sample.points.map((_, s) => s).sort((a, b) => sample.points[a][i] - sample.points[b][i]);
   let cumulative = 0;
   for (const s of order) {
-    cumulative += sample.weights[s]!;
-    if (cumulative >= p) return sample.points[s]![i]!;
+    cumulative += sample.weights[s];
+    if (cumulative >= p) return sample.points[s][i];
   }
-  return sample.points[order[order.length - 1]!]![i]!;
+  return sample.points[order[order.length - 1]][i];
 }
 
 /**
@@ -29,7 +29,7 @@ function multivariateT(d: number, nu: number): PosteriorTarget {
     dimension: d,
     logPosterior: (x) => {
       let r2 = 0;
-      for (let i = 0; i < d; i++) r2 += x[i]! * x[i]!;
+      for (let i = 0; i < d; i++) r2 += x[i] * x[i];
       return -((nu + d) / 2) * Math.log1p(r2 / nu);
     },
   };
@@ -82,7 +82,7 @@ describe("Pareto-smoothed importance sampling from a Student-t at the mode", () 
   });
 
   it("refuses a density that is not curved downwards at the given point", () => {
-    const saddle: PosteriorTarget = { dimension: 2, logPosterior: (x) => -0.5 * x[0]! * x[0]! + 0.5 * x[1]! * x[1]! };
+    const saddle: PosteriorTarget = { dimension: 2, logPosterior: (x) => -0.5 * x[0] * x[0] + 0.5 * x[1] * x[1] };
     const sample = importanceSample(saddle, new Float64Array(2), createRng("is-saddle"));
     expect(sample.accepted).toBe(false);
     expect(sample.reason).toMatch(/curved/);

@@ -24,10 +24,10 @@ describe("warm-up plan (the schedule documented at planWarmup)", () => {
       expect(windowStarts[0]).toBe(Math.round(warmup / 8));
       expect(windowEnds[windowEnds.length - 1]).toBe(warmup - Math.round(warmup / 10));
       for (let w = 0; w < windowStarts.length; w++) {
-        expect(windowEnds[w]! - windowStarts[w]!).toBeGreaterThanOrEqual(MIN_WARMUP_WINDOW);
+        expect(windowEnds[w] - windowStarts[w]).toBeGreaterThanOrEqual(MIN_WARMUP_WINDOW);
         if (w > 0) {
           expect(windowStarts[w]).toBe(windowEnds[w - 1]);
-          const ratio = (windowEnds[w]! - windowStarts[w]!) / (windowEnds[w - 1]! - windowStarts[w - 1]!);
+          const ratio = (windowEnds[w] - windowStarts[w]) / (windowEnds[w - 1] - windowStarts[w - 1]);
           expect(Math.abs(ratio - WARMUP_WINDOW_GROWTH)).toBeLessThan(0.2);
         }
       }
@@ -48,8 +48,8 @@ describe("window spread (normal-consistent interquartile range)", () => {
     // With nu0 pseudo-draws at the target the estimate is (nu0 t + (n - 1) s^2) / (nu0 + n - 1); a target
     // equal to the true variance leaves it unbiased. The IQR of 2e4 normal draws has a relative sd near 1.1%.
     const variance = spread.regularizedVariance(Float64Array.of(1, 1e-4));
-    expect(Math.sqrt(variance[0]!)).toBeCloseTo(1, 1);
-    expect(Math.sqrt(variance[1]!) / 0.01).toBeCloseTo(1, 1);
+    expect(Math.sqrt(variance[0])).toBeCloseTo(1, 1);
+    expect(Math.sqrt(variance[1]) / 0.01).toBeCloseTo(1, 1);
   });
 
   it("is not moved by a long tail, unlike the sample variance, and is shrunk towards the target as documented", () => {
@@ -59,7 +59,7 @@ describe("window spread (normal-consistent interquartile range)", () => {
     values.forEach((v) => spread.add(Float64Array.of(v)));
     const n = values.length;
     const target = 4;
-    const shrunk = spread.regularizedVariance(Float64Array.of(target))[0]!;
+    const shrunk = spread.regularizedVariance(Float64Array.of(target))[0];
     // Solve the documented shrinkage for the spread itself: s^2 = ((nu0 + n - 1) v - nu0 t) / (n - 1).
     const s2 = ((MASS_PRIOR_DRAWS + n - 1) * shrunk - MASS_PRIOR_DRAWS * target) / (n - 1);
     const mean = values.reduce((a, v) => a + v, 0) / n;

@@ -14,7 +14,7 @@ const problems: Problem[] = [
     start: [-1.2, 1],
     minimum: [1, 1],
     f: (x, g) => {
-      const [a, b] = [x[0]!, x[1]!];
+      const [a, b] = [x[0], x[1]];
       if (g) {
         g[0] = -400 * a * (b - a * a) - 2 * (1 - a);
         g[1] = 200 * (b - a * a);
@@ -27,7 +27,7 @@ const problems: Problem[] = [
     start: [-1, 0, 0],
     minimum: [1, 0, 0],
     f: (x, g) => {
-      const [a, b, c] = [x[0]!, x[1]!, x[2]!];
+      const [a, b, c] = [x[0], x[1], x[2]];
       const theta = (Math.atan2(b, a) / (2 * Math.PI) + 1) % 1;
       const r = Math.hypot(a, b);
       const f1 = 10 * (c - 10 * theta);
@@ -47,13 +47,13 @@ const problems: Problem[] = [
     start: [1, 1],
     minimum: [3, 0.5],
     f: (x, g) => {
-      const [a, b] = [x[0]!, x[1]!];
+      const [a, b] = [x[0], x[1]];
       const r = [1.5 - a * (1 - b), 2.25 - a * (1 - b * b), 2.625 - a * (1 - b ** 3)];
       if (g) {
-        g[0] = 2 * (r[0]! * -(1 - b) + r[1]! * -(1 - b * b) + r[2]! * -(1 - b ** 3));
-        g[1] = 2 * (r[0]! * a + r[1]! * 2 * a * b + r[2]! * 3 * a * b * b);
+        g[0] = 2 * (r[0] * -(1 - b) + r[1] * -(1 - b * b) + r[2] * -(1 - b ** 3));
+        g[1] = 2 * (r[0] * a + r[1] * 2 * a * b + r[2] * 3 * a * b * b);
       }
-      return r[0]! ** 2 + r[1]! ** 2 + r[2]! ** 2;
+      return r[0] ** 2 + r[1] ** 2 + r[2] ** 2;
     },
   },
 ];
@@ -63,7 +63,7 @@ const powell: Problem = {
   start: [3, -1, 0, 1],
   minimum: [0, 0, 0, 0],
   f: (x, g) => {
-    const [a, b, c, d] = [x[0]!, x[1]!, x[2]!, x[3]!];
+    const [a, b, c, d] = [x[0], x[1], x[2], x[3]];
     const f1 = a + 10 * b;
     const f2 = Math.sqrt(5) * (c - d);
     const f3 = (b - 2 * c) ** 2;
@@ -89,14 +89,14 @@ describe("L-BFGS", () => {
   it("reaches the singular minimum of Powell's function (slowly convergent: only the value is tight)", () => {
     const result = minimizeLbfgs((x, g) => powell.f(x, g), Float64Array.from(powell.start), { gradientTolerance: 1e-12 });
     expect(result.value).toBeLessThan(1e-10);
-    powell.minimum.forEach((m, i) => expect(Math.abs(result.x[i]! - m)).toBeLessThan(1e-2));
+    powell.minimum.forEach((m, i) => expect(Math.abs(result.x[i] - m)).toBeLessThan(1e-2));
   });
 
   it("shortens steps into regions where the objective is infinite", () => {
     // f = x - ln x has its minimum at x = 1 and is +Infinity for x <= 0 (as -ln p outside a support).
     const result = minimizeLbfgs(
       (x, g) => {
-        const v = x[0]!;
+        const v = x[0];
         g[0] = 1 - 1 / v;
         return v > 0 ? v - Math.log(v) : Infinity;
       },
@@ -122,8 +122,8 @@ describe("maximum a posteriori from several starts", () => {
   it("keeps the highest of two local maxima of a two-mode density", () => {
     // ln p = ln(0.3 N(x; -2, 0.5) + 0.7 N(x; 3, 0.5)): the global maximum is the mode near 3.
     const logPosterior = (x: Float64Array): number => {
-      const a = 0.3 * Math.exp(-0.5 * ((x[0]! + 2) / 0.5) ** 2);
-      const b = 0.7 * Math.exp(-0.5 * ((x[0]! - 3) / 0.5) ** 2);
+      const a = 0.3 * Math.exp(-0.5 * ((x[0] + 2) / 0.5) ** 2);
+      const b = 0.7 * Math.exp(-0.5 * ((x[0] - 3) / 0.5) ** 2);
       return Math.log(a + b);
     };
     const target = { dimension: 1, logPosterior };
@@ -131,6 +131,6 @@ describe("maximum a posteriori from several starts", () => {
     expect(result.method).toBe("nelder-mead");
     expect(result.x[0]).toBeCloseTo(3, 4);
     expect(result.runs).toHaveLength(2);
-    expect(result.runs[1]!.x[0]).toBeCloseTo(-2, 3);
+    expect(result.runs[1].x[0]).toBeCloseTo(-2, 3);
   });
 });

@@ -15,11 +15,11 @@ const space = createParameterSpace([
 
 /** A smooth likelihood in all four parameters, with its analytic gradient. */
 const likelihood: PhysicalLikelihood = {
-  logLikelihood: (x) => -((Math.log(x[0]!) - 5) ** 2) - 3 * (x[1]! - 0.3) ** 2 - 0.5 * (x[2]! - 18.4) ** 2 + x[3]!,
+  logLikelihood: (x) => -((Math.log(x[0]) - 5) ** 2) - 3 * (x[1] - 0.3) ** 2 - 0.5 * (x[2] - 18.4) ** 2 + x[3],
   logLikelihoodAndGradient(x, g) {
-    g[0] = (-2 * (Math.log(x[0]!) - 5)) / x[0]!;
-    g[1] = -6 * (x[1]! - 0.3);
-    g[2] = -(x[2]! - 18.4);
+    g[0] = (-2 * (Math.log(x[0]) - 5)) / x[0];
+    g[1] = -6 * (x[1] - 0.3);
+    g[2] = -(x[2] - 18.4);
     g[3] = 1;
     return this.logLikelihood(x);
   },
@@ -32,7 +32,7 @@ describe("parameter space", () => {
     const physical = space.physicalFromRecord({ tau: 150, sigma: 0.4, mean: 17.5 });
     expect(Array.from(physical)).toEqual([150, 0.4, 17.5, 0.02]);
     const back = space.toPhysical(space.toUnconstrained(physical));
-    for (let i = 0; i < 4; i++) expect(back[i]).toBeCloseTo(physical[i]!, 10);
+    for (let i = 0; i < 4; i++) expect(back[i]).toBeCloseTo(physical[i], 10);
   });
 
   it("the prior in u of a log-normal parameter under x = exp(u) is the normal N(mu, sigma) (change of variables)", () => {
@@ -64,8 +64,8 @@ describe("parameter space", () => {
       const h = 1e-6;
       const up = Float64Array.from(u);
       const down = Float64Array.from(u);
-      up[i] = up[i]! + h;
-      down[i] = down[i]! - h;
+      up[i] = up[i] + h;
+      down[i] = down[i] - h;
       expect(g[i]).toBeCloseTo((target.logPosterior(up) - target.logPosterior(down)) / (2 * h), 5);
     }
   });

@@ -20,11 +20,11 @@ describe("R-hat worked by hand", () => {
   it("rank normalisation of 1..8 split over two chains", () => {
     // Ranks equal the values; z_r = Phi^-1((r - 0.375) / 8.25).
     const z = rankNormalize([Float64Array.of(1, 3, 5, 7), Float64Array.of(2, 4, 6, 8)]);
-    expect(z[0]![1]).toBeCloseTo(normalQuantile((3 - 0.375) / 8.25, 0, 1), 14);
-    expect(z[1]![3]).toBeCloseTo(normalQuantile((8 - 0.375) / 8.25, 0, 1), 14);
+    expect(z[0][1]).toBeCloseTo(normalQuantile((3 - 0.375) / 8.25, 0, 1), 14);
+    expect(z[1][3]).toBeCloseTo(normalQuantile((8 - 0.375) / 8.25, 0, 1), 14);
     // Ties share their average rank: 2, 2, 2 get rank 2 among 1, 2, 2, 2.
     const tied = rankNormalize([Float64Array.of(1, 2, 2, 2)]);
-    expect(tied[0]![2]).toBeCloseTo(normalQuantile((3 - 0.375) / 4.25, 0, 1), 14);
+    expect(tied[0][2]).toBeCloseTo(normalQuantile((3 - 0.375) / 4.25, 0, 1), 14);
   });
 
   it("rank-normalised split R-hat of chains [1,3,5,7] and [2,4,6,8]", () => {
@@ -32,8 +32,8 @@ describe("R-hat worked by hand", () => {
     const rhatOf = (chains: number[][]): number => {
       // Eq. 1-4 with N = 2 draws per (split) chain and M = 4 chains.
       const n = 2;
-      const means = chains.map((c) => (c[0]! + c[1]!) / 2);
-      const variances = chains.map((c) => (c[0]! - c[1]!) ** 2 / 2);
+      const means = chains.map((c) => (c[0] + c[1]) / 2);
+      const variances = chains.map((c) => (c[0] - c[1]) ** 2 / 2);
       const grand = means.reduce((a, b) => a + b, 0) / 4;
       const w = variances.reduce((a, b) => a + b, 0) / 4;
       const b = (n / 3) * means.reduce((a, m) => a + (m - grand) ** 2, 0);
@@ -68,7 +68,7 @@ describe("ESS worked by hand", () => {
     const rng = createRng(8);
     const chains = [0, 1, 2].map(() => {
       const x = new Float64Array(60);
-      for (let t = 1; t < 60; t++) x[t] = 0.7 * x[t - 1]! + rng.normal();
+      for (let t = 1; t < 60; t++) x[t] = 0.7 * x[t - 1] + rng.normal();
       return x;
     });
     const m = chains.length;
@@ -77,7 +77,7 @@ describe("ESS worked by hand", () => {
     const acov = (c: Float64Array, t: number): number => {
       const mu = mean(c);
       let s = 0;
-      for (let i = 0; i + t < n; i++) s += (c[i]! - mu) * (c[i + t]! - mu);
+      for (let i = 0; i + t < n; i++) s += (c[i] - mu) * (c[i + t] - mu);
       return s / n;
     };
     const w = chains.reduce((a, c) => a + (acov(c, 0) * n) / (n - 1), 0) / m;

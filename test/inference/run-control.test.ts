@@ -26,8 +26,8 @@ describe.each(["ensemble", "nuts"] as const)("%s run control", (kind) => {
     const b = draws(5);
     const c = draws(6);
     expect(a.length).toBeGreaterThan(0);
-    a.forEach((chain, i) => expect(Buffer.from(chain.buffer).equals(Buffer.from(b[i]!.buffer))).toBe(true));
-    expect(Buffer.from(a[0]!.buffer).equals(Buffer.from(c[0]!.buffer))).toBe(false);
+    a.forEach((chain, i) => expect(Buffer.from(chain.buffer).equals(Buffer.from(b[i].buffer))).toBe(true));
+    expect(Buffer.from(a[0].buffer).equals(Buffer.from(c[0].buffer))).toBe(false);
   });
 
   it("stops on the evaluation budget and says so", () => {
@@ -58,7 +58,7 @@ describe.each(["ensemble", "nuts"] as const)("%s run control", (kind) => {
     expect(run.stopReason).toBe("cancelled");
     expect(run.sampler.iterations).toBeLessThanOrEqual(155);
     expect(seen.length).toBeGreaterThan(10);
-    for (let k = 1; k < seen.length; k++) expect(seen[k]!.fraction).toBeGreaterThanOrEqual(seen[k - 1]!.fraction);
+    for (let k = 1; k < seen.length; k++) expect(seen[k].fraction).toBeGreaterThanOrEqual(seen[k - 1].fraction);
     expect(seen.at(-1)!.fraction).toBeLessThan(1);
   });
 });

@@ -28,9 +28,9 @@ const space = createParameterSpace([
   { name: "errorScale", fixed: sigma },
 ]);
 const likelihood: PhysicalLikelihood = {
-  logLikelihood: (x) => data.reduce((a, y) => a - 0.5 * ((y - x[0]!) / x[2]!) ** 2, 0),
+  logLikelihood: (x) => data.reduce((a, y) => a - 0.5 * ((y - x[0]) / x[2]) ** 2, 0),
   logLikelihoodAndGradient(x, g) {
-    g[0] = data.reduce((a, y) => a + (y - x[0]!) / x[2]! ** 2, 0);
+    g[0] = data.reduce((a, y) => a + (y - x[0]) / x[2] ** 2, 0);
     g[1] = 0;
     g[2] = 0;
     return this.logLikelihood(x);
@@ -81,7 +81,7 @@ describe.each(["nuts", "ensemble"] as const)("samplePosterior with %s", (sampler
     const lines = csv.trim().split("\n");
     expect(lines[0]).toBe("chain,iteration,mean,tau,errorScale,log_posterior");
     expect(lines.length - 1).toBe(draws.chain.length);
-    expect(Number(lines[1]!.split(",")[2])).toBe(draws.columns.mean![0]);
+    expect(Number(lines[1].split(",")[2])).toBe(draws.columns.mean![0]);
   });
 });
 

@@ -66,7 +66,7 @@ describe("model with the constant mean integrated out", () => {
     const { mean: _guessedMean, ...guess } = model.initialGuess;
     const theta = collapsed.space.physicalFromRecord(guess);
     const count = 20000;
-    const columns = Object.fromEntries(collapsed.space.names.map((n, i) => [n, new Float64Array(count).fill(theta[i]!)]));
+    const columns = Object.fromEntries(collapsed.space.names.map((n, i) => [n, new Float64Array(count).fill(theta[i])]));
     const draws = { names: collapsed.space.names, columns, chain: new Int32Array(count), iteration: Int32Array.from({ length: count }, (_, i) => i), logPosterior: new Float64Array(count) };
     const restored = restoreMean(model, collapsed, draws, createRng(5));
     expect(restored.names).toEqual(model.space.names);

@@ -8,12 +8,16 @@ const summary: DataSummary = { n: 300, baseline: 900, medianCadence: 2.1, minimu
 // Reference: the fit-result contract in docs/choosing-a-kernel.md ("The models of the trade") and the
 // parameter names of each model it lists.
 describe("the models of the trade, read from the kernel family descriptors", () => {
-  it("are drw, oscillator and quasi-periodic with the documented parameters, in order", () => {
-    expect(MODEL_NAMES).toEqual(["drw", "oscillator", "quasi-periodic"]);
+  it("are drw, oscillator, quasi-periodic and carma with the documented parameters, in order", () => {
+    expect(MODEL_NAMES).toEqual(["drw", "oscillator", "quasi-periodic", "carma"]);
     expect(modelParameterNames("drw")).toEqual(["tau", "sigma", "mean"]);
     expect(modelParameterNames("oscillator")).toEqual(["period", "quality", "sigma", "mean"]);
     expect(modelParameterNames("quasi-periodic")).toEqual(["period", "decayTime", "harmonicWeight", "sigma", "mean"]);
-    for (const name of MODEL_NAMES) expect(buildModel(name, summary).space.names).toEqual(modelParameterNames(name));
+    for (const name of MODEL_NAMES.filter((m) => m !== "carma")) expect(buildModel(name, summary).space.names).toEqual(modelParameterNames(name));
+    // CARMA's parameters follow its order; the amplitude and the mean are those of every model.
+    expect(modelParameterNames("carma")).toEqual(["sigma", "mean"]);
+    const carma = buildModel("carma", summary, { order: { p: 2, q: 1 } }).space.names;
+    for (const name of modelParameterNames("carma")) expect(carma).toContain(name);
   });
 
   it("priors by kind: the rotation period stops at half the baseline, the oscillator's at the baseline; the decay time from the shortest period to ten baselines", () => {

@@ -32,8 +32,8 @@ function inventedLightCurve(n: number, seed: number): LightCurve {
   const value = new Float64Array(n);
   let x = 0;
   for (let i = 0; i < n; i++) {
-    time[i] = i === 0 ? 0 : time[i - 1]! + 2 + 8 * rng.uniform();
-    const a = i === 0 ? 0 : Math.exp(-(time[i]! - time[i - 1]!) / 40);
+    time[i] = i === 0 ? 0 : time[i - 1] + 2 + 8 * rng.uniform();
+    const a = i === 0 ? 0 : Math.exp(-(time[i] - time[i - 1]) / 40);
     x = a * x + 0.2 * Math.sqrt(1 - a * a) * rng.normal();
     value[i] = 19 + x + 0.03 * rng.normal();
   }

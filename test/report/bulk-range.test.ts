@@ -18,13 +18,13 @@ describe("the value axis spans the bulk of the data", () => {
   it("draws an off-axis point at the edge with a triangle pointing its way, and says so", () => {
     const input = inventedReportInput({ nPoints: 300 });
     const value = Float64Array.from(input.lightCurve.value);
-    value[5] = value[5]! + 6; // six magnitudes fainter: below the bottom of a magnitude axis
+    value[5] = value[5] + 6; // six magnitudes fainter: below the bottom of a magnitude axis
     const faint: ReportInput = { ...input, lightCurve: { ...input.lightCurve, value } };
     const figure = lightCurveFigure(faint);
     const spec = figure.spec as { datasets: Record<string, { y: number; side?: string }[]> };
     expect(spec.datasets["beyond"]).toHaveLength(1);
-    expect(spec.datasets["beyond"]![0]!.side).toBe("down");
-    expect(spec.datasets["data"]!.every((r) => r.y < value[5]!)).toBe(true);
+    expect(spec.datasets["beyond"][0].side).toBe("down");
+    expect(spec.datasets["data"].every((r) => r.y < value[5])).toBe(true);
     expect(figure.caption).toContain("1 point lies beyond it");
   });
 });

@@ -20,11 +20,11 @@ describe("credibleRegions", () => {
       let area = 0;
       for (let r = 0; r < bins; r++) {
         for (let c = 0; c < bins; c++) {
-          const level = grid.level[r * bins + c]!;
+          const level = grid.level[r * bins + c];
           if (!(level <= mass)) continue;
           area += 0.04;
-          const x = 0.5 * (grid.xEdges[c]! + grid.xEdges[c + 1]!);
-          const y = 0.5 * (grid.yEdges[r]! + grid.yEdges[r + 1]!);
+          const x = 0.5 * (grid.xEdges[c] + grid.xEdges[c + 1]);
+          const y = 0.5 * (grid.yEdges[r] + grid.yEdges[r + 1]);
           if (Math.hypot(x, y) < radius + 0.3) inside++;
         }
       }

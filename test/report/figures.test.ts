@@ -25,7 +25,7 @@ function datasets(spec: unknown): Record<string, Record<string, number>[]> {
 
 describe("every figure renders to SVG and PNG", () => {
   it.each(["light-curve", "corner", "spectrum", "traces"])("%s: PNG signature and size twice the SVG's", (id) => {
-    const r = rendered[id]!;
+    const r = rendered[id];
     expect(r.svg.startsWith("<svg")).toBe(true);
     expect(Array.from(r.png.slice(0, 8))).toEqual(PNG_SIGNATURE);
     expect(pngSize(r.png)).toEqual({ width: r.pngWidth, height: r.pngHeight });
@@ -38,14 +38,14 @@ describe("every figure renders to SVG and PNG", () => {
 
 describe("light-curve figure", () => {
   it("labels both axes with units and names every series", () => {
-    const texts = svgTexts(rendered["light-curve"]!.svg);
+    const texts = svgTexts(rendered["light-curve"].svg);
     // MJD-like times near 58000 are shown relative to a round offset (common practice).
     expect(texts).toContain(`${input.lightCurve.provenance.timeColumn === "mjd" ? "MJD" : "Time"} − 58000 [d]`);
     expect(texts).toContain("Magnitude [mag]");
     for (const label of ["data ± 1σ", "posterior-predictive mean", "68% band", "95% band"]) expect(texts).toContain(label);
   });
   it("draws every measurement and its error bar, and both bands and the mean", () => {
-    const sets = markSets(rendered["light-curve"]!.svg);
+    const sets = markSets(rendered["light-curve"].svg);
     const n = input.lightCurve.time.length;
     expect(sets.find((s) => s.type === "symbol")!.items).toBe(n);
     expect(sets.find((s) => s.type === "rule")!.items).toBe(n);
@@ -55,11 +55,11 @@ describe("light-curve figure", () => {
   it("puts the 95% band at the Gaussian 0.975 quantile times the sd", () => {
     // Reference: the normal quantile function of @stdlib/stats.
     expect(NORMAL_Z95).toBeCloseTo(normalQuantile(0.975, 0, 1), 14);
-    const grid = datasets(lightCurveFigure(input).spec)["grid"]!;
+    const grid = datasets(lightCurveFigure(input).spec)["grid"];
     grid.forEach((row, i) => {
-      const sd = input.prediction.sd[i]!;
-      expect(row["hi95"]! - row["m"]!).toBeCloseTo(normalQuantile(0.975, 0, 1) * sd, 10);
-      expect(row["m"]! - row["lo68"]!).toBeCloseTo(sd, 12);
+      const sd = input.prediction.sd[i];
+      expect(row["hi95"] - row["m"]).toBeCloseTo(normalQuantile(0.975, 0, 1) * sd, 10);
+      expect(row["m"] - row["lo68"]).toBeCloseTo(sd, 12);
     });
   });
   it("reverses the axis for magnitudes only, and drops error bars for files without errors", async () => {
@@ -92,7 +92,7 @@ describe("light-curve figure", () => {
       },
     };
     const figure = lightCurveFigure(big);
-    expect(datasets(figure.spec)["data"]!.length).toBeLessThanOrEqual(5000);
+    expect(datasets(figure.spec)["data"].length).toBeLessThanOrEqual(5000);
     expect(figure.caption).toContain("median 1σ error is 0.05 mag");
     expect(figure.caption).toContain("5000 of the 25000 points");
     expect(JSON.stringify(figure.spec)).not.toContain('"type":"rule"');
@@ -101,13 +101,13 @@ describe("light-curve figure", () => {
 
 describe("pair figure of the posterior", () => {
   it("has a labelled axis per parameter and no numbers over the marginals (they are in the parameter table)", () => {
-    const texts = svgTexts(rendered["corner"]!.svg);
+    const texts = svgTexts(rendered["corner"].svg);
     for (const title of ["τ [d]", "σ [mag]", "mean [mag]"]) expect(texts).toContain(title);
     expect(texts.filter((t) => /=|\+.*\/|−.*\+/.test(t))).toEqual([]);
   });
   it("draws per parameter a density line, a 68% and a 95% band and the median; per pair the regions and the medians", () => {
     const k = input.draws.names.length;
-    const sets = markSets(rendered["corner"]!.svg);
+    const sets = markSets(rendered["corner"].svg);
     expect(sets.filter((s) => s.type === "area")).toHaveLength(2 * k);
     expect(sets.filter((s) => s.type === "line")).toHaveLength(k);
     expect(sets.filter((s) => s.type === "rule")).toHaveLength(k);
@@ -117,7 +117,7 @@ describe("pair figure of the posterior", () => {
   });
   it("shades the marginal exactly over the parameter table's 68% and 95% intervals", () => {
     const rows = datasets(cornerFigure(input).spec)["marginal-0"] as unknown as { x: number; part: string }[];
-    const tau = input.result.parameters["tau"]!;
+    const tau = input.result.parameters["tau"];
     const span = (part: string) => {
       const xs = rows.filter((r) => r.part === part).map((r) => r.x);
       return [Math.min(...xs), Math.max(...xs)];
@@ -170,7 +170,7 @@ describe("pair figure of the posterior", () => {
 });
 
 describe("spectrum figure of a periodic model", () => {
-  const period = { ...input.result.parameters["tau"]!, median: 7.4, q16: 7.35, q84: 7.45, "q2.5": 7.3, "q97.5": 7.5 };
+  const period = { ...input.result.parameters["tau"], median: 7.4, q16: 7.35, q84: 7.45, "q2.5": 7.3, "q97.5": 7.5 };
   const periodic: ReportInput = {
     ...input,
     result: { ...input.result, model: "quasi-periodic", parameters: { period }, periodModes: [{ period: 7.4, probability: 0.97 }, { period: 22.2, probability: 0.03 }], periodogramPeriod: 14.8 },
@@ -181,7 +181,7 @@ describe("spectrum figure of a periodic model", () => {
     expect(data["period-interval"]).toEqual([{ f: 1 / 7.5, f2: 1 / 7.3, period: 7.3, period2: 7.5 }]);
     const candidates = data["alias-candidates"] as unknown as { period: number; label: string }[];
     expect(candidates.map((c) => c.period)).toEqual([22.2, 14.8]);
-    expect(candidates[0]!.label).toBe("mode 22.2 d, p = 0.03");
+    expect(candidates[0].label).toBe("mode 22.2 d, p = 0.03");
     expect((figure.spec as { vconcat?: unknown[] }).vconcat).toHaveLength(2);
     const texts = svgTexts(await renderSvg(figure));
     expect(texts).toContain("Period [d]");
@@ -192,28 +192,28 @@ describe("spectrum figure of a periodic model", () => {
 
 describe("spectrum figure", () => {
   it("labels frequency, PSD and periodogram axes with units", () => {
-    const texts = svgTexts(rendered["spectrum"]!.svg);
+    const texts = svgTexts(rendered["spectrum"].svg);
     expect(texts).toContain("Frequency [cycles / d]");
     expect(texts).toContain("Power spectral density [mag² d]");
     expect(texts).toContain("Periodogram power (normalised)");
     expect(texts).toContain("1/(2πτ)");
   });
   it("draws the band, the median and the periodogram", () => {
-    const sets = markSets(rendered["spectrum"]!.svg);
+    const sets = markSets(rendered["spectrum"].svg);
     expect(sets.filter((s) => s.type === "area")).toHaveLength(1);
     expect(sets.filter((s) => s.type === "line")).toHaveLength(2);
   });
   it("marks the damped-random-walk break at 1/(2π tau) and an oscillator at 1/P", () => {
     // The DRW PSD is proportional to 1 / (1 + (2 pi f tau)^2) (Kelly, Bechtold & Siemiginowska 2009, ApJ 698, 895),
     // so it falls to half its low-frequency level at f = 1 / (2 pi tau).
-    const tau = input.result.parameters["tau"]!.median;
+    const tau = input.result.parameters["tau"].median;
     const breakMarker = spectrumMarkers(input).find((m) => m.label === "1/(2πτ)")!;
     expect(1 / (1 + (2 * Math.PI * breakMarker.frequency * tau) ** 2)).toBeCloseTo(0.5, 12);
     const baseline = spectrumMarkers(input).find((m) => m.label === "1/baseline")!;
     expect(baseline.frequency).toBeCloseTo(1 / input.result.data.baseline, 15);
     const oscillator: ReportInput = {
       ...input,
-      result: { ...input.result, model: "oscillator", parameters: { period: { ...input.result.parameters["tau"]!, median: 12.5 } } },
+      result: { ...input.result, model: "oscillator", parameters: { period: { ...input.result.parameters["tau"], median: 12.5 } } },
     };
     expect(spectrumMarkers(oscillator)[0]).toEqual({ frequency: 0.08, label: "1/P" });
   });
@@ -228,9 +228,9 @@ describe("spectrum figure", () => {
 
 describe("trace figure", () => {
   it("draws one line per chain and parameter, on a labelled step axis", () => {
-    const svg = rendered["traces"]!.svg;
+    const svg = rendered["traces"].svg;
     const lines = markSets(svg).filter((s) => s.type === "line");
-    const chains = input.draws.chains["tau"]!.length;
+    const chains = input.draws.chains["tau"].length;
     expect(lines).toHaveLength(chains * input.draws.names.length);
     for (const line of lines) expect(line.items).toBe(1);
     const texts = svgTexts(svg);

@@ -39,7 +39,7 @@ describe("htmlReport", () => {
     expect(html).toContain(`content="default-src 'none'; style-src 'unsafe-inline'; img-src data:"`);
   });
   it("keeps element ids unique across the page, so one figure's clip paths cannot clip another's", () => {
-    const ids = [...html.matchAll(/\sid="([^"]+)"/g)].map((m) => m[1]!);
+    const ids = [...html.matchAll(/\sid="([^"]+)"/g)].map((m) => m[1]);
     expect(new Set(ids).size).toBe(ids.length);
     for (const ref of html.matchAll(/url\(#([^)]+)\)/g)) expect(ids).toContain(ref[1]);
   });

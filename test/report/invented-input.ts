@@ -43,8 +43,8 @@ function simulateDrw(rng: Rng, time: Float64Array): Float64Array {
   const x = new Float64Array(time.length);
   x[0] = TRUE_SIGMA * rng.normal();
   for (let i = 1; i < time.length; i++) {
-    const a = Math.exp(-(time[i]! - time[i - 1]!) / TRUE_TAU);
-    x[i] = a * x[i - 1]! + TRUE_SIGMA * Math.sqrt(1 - a * a) * rng.normal();
+    const a = Math.exp(-(time[i] - time[i - 1]) / TRUE_TAU);
+    x[i] = a * x[i - 1] + TRUE_SIGMA * Math.sqrt(1 - a * a) * rng.normal();
   }
   return x;
 }
@@ -58,12 +58,12 @@ function densePrediction(time: Float64Array, y: Float64Array, err: Float64Array,
   const n = time.length;
   const k = new Matrix(n, n);
   for (let i = 0; i < n; i++)
-    for (let j = 0; j < n; j++) k.set(i, j, drwCov(time[i]!, time[j]!) + (i === j ? err[i]! ** 2 : 0));
+    for (let j = 0; j < n; j++) k.set(i, j, drwCov(time[i], time[j]) + (i === j ? err[i] ** 2 : 0));
   const chol = new CholeskyDecomposition(k);
   const resid = Matrix.columnVector(Array.from(y, (v) => v - TRUE_MEAN));
   const alpha = chol.solve(resid);
   const cross = new Matrix(n, grid.length);
-  for (let i = 0; i < n; i++) for (let g = 0; g < grid.length; g++) cross.set(i, g, drwCov(time[i]!, grid[g]!));
+  for (let i = 0; i < n; i++) for (let g = 0; g < grid.length; g++) cross.set(i, g, drwCov(time[i], grid[g]));
   const solved = chol.solve(cross);
   const mean = new Float64Array(grid.length);
   const sd = new Float64Array(grid.length);
@@ -75,7 +75,7 @@ function densePrediction(time: Float64Array, y: Float64Array, err: Float64Array,
       reduction += cross.get(i, g) * solved.get(i, g);
     }
     mean[g] = TRUE_MEAN + m;
-    sd[g] = Math.sqrt(Math.max(drwCov(grid[g]!, grid[g]!) - reduction, 0));
+    sd[g] = Math.sqrt(Math.max(drwCov(grid[g], grid[g]) - reduction, 0));
   }
   return { mean, sd };
 }
@@ -100,10 +100,10 @@ function classicalPeriodogram(time: Float64Array, y: Float64Array, frequency: Fl
     let cc = 0;
     let ss = 0;
     for (let i = 0; i < time.length; i++) {
-      const c = Math.cos(w * (time[i]! - shift));
-      const s = Math.sin(w * (time[i]! - shift));
-      yc += (y[i]! - mean) * c;
-      ys += (y[i]! - mean) * s;
+      const c = Math.cos(w * (time[i] - shift));
+      const s = Math.sin(w * (time[i] - shift));
+      yc += (y[i] - mean) * c;
+      ys += (y[i] - mean) * s;
       cc += c * c;
       ss += s * s;
     }
@@ -117,7 +117,7 @@ function summarise(values: Float64Array): FitParameterSummary {
     const pos = (s.length - 1) * p;
     const lo = Math.floor(pos);
     const hi = Math.min(s.length - 1, lo + 1);
-    return s[lo]! + (pos - lo) * (s[hi]! - s[lo]!);
+    return s[lo] + (pos - lo) * (s[hi] - s[lo]);
   };
   let mean = 0;
   for (const v of s) mean += v / s.length;
@@ -134,7 +134,7 @@ export function inventedReportInput(options: InventedOptions = {}): ReportInput 
   const time = inventedTimes(rng, n, start);
   const signal = simulateDrw(rng, time);
   const error = Float64Array.from(time, () => 0.03 + 0.04 * rng.uniform());
-  const value = Float64Array.from(signal, (s, i) => TRUE_MEAN + s + error[i]! * rng.normal());
+  const value = Float64Array.from(signal, (s, i) => TRUE_MEAN + s + error[i] * rng.normal());
   const withErrors = options.withErrors ?? true;
   const lightCurve: LightCurve = {
     time,
@@ -152,8 +152,8 @@ export function inventedReportInput(options: InventedOptions = {}): ReportInput 
     },
   };
 
-  const first = time[0]!;
-  const last = time[time.length - 1]!;
+  const first = time[0];
+  const last = time[time.length - 1];
   const grid = Float64Array.from({ length: 400 }, (_, i) => first - 30 + ((last - first + 60) * i) / 399);
   const prediction = { time: grid, ...densePrediction(time, value, error, grid) };
 
@@ -176,11 +176,11 @@ export function inventedReportInput(options: InventedOptions = {}): ReportInput 
         arrays[name][s] = name === "mean" ? v : Math.exp(v);
       }
     }
-    for (const name of names) chains[name]!.push(arrays[name]);
+    for (const name of names) chains[name].push(arrays[name]);
   }
   const pooled = (name: string) => {
     const out: number[] = [];
-    for (const chain of chains[name]!) out.push(...chain);
+    for (const chain of chains[name]) out.push(...chain);
     return Float64Array.from(out);
   };
 
@@ -194,8 +194,8 @@ export function inventedReportInput(options: InventedOptions = {}): ReportInput 
   const lower = new Float64Array(frequency.length);
   const upper = new Float64Array(frequency.length);
   frequency.forEach((f, k) => {
-    const s = tauDraws.map((tau, d) => (4 * sigmaDraws[d]! ** 2 * tau) / (1 + (2 * Math.PI * f * tau) ** 2)).sort();
-    const q = (p: number) => s[Math.round((s.length - 1) * p)]!;
+    const s = tauDraws.map((tau, d) => (4 * sigmaDraws[d] ** 2 * tau) / (1 + (2 * Math.PI * f * tau) ** 2)).sort();
+    const q = (p: number) => s[Math.round((s.length - 1) * p)];
     median[k] = q(0.5);
     lower[k] = q(0.16);
     upper[k] = q(0.84);

@@ -12,8 +12,8 @@ describe("kernelDensity", () => {
     // Expected error at the mode: bias f''h^2/2 = 0.003 plus noise sd sqrt(f R(K) / (n h)) = 0.007 with
     // h = 0.124 (Silverman 1986, eqs. 3.14 and 3.17); 0.02 is the bias and about 2.5 sd.
     for (let i = 0; i < curve.x.length; i++) {
-      expect(Math.abs(curve.density[i]! - normalPdf(curve.x[i]!, 0, 1))).toBeLessThan(0.02);
-      integral += curve.density[i]! * (i === 0 || i === 80 ? 0.05 : 0.1);
+      expect(Math.abs(curve.density[i] - normalPdf(curve.x[i], 0, 1))).toBeLessThan(0.02);
+      integral += curve.density[i] * (i === 0 || i === 80 ? 0.05 : 0.1);
     }
     expect(integral).toBeCloseTo(1, 2);
   });

@@ -12,8 +12,8 @@ function periodicInput(): ReportInput {
   const wave = (t: number) => 19 + 0.3 * Math.sin((2 * Math.PI * t) / P);
   const value = base.lightCurve.time.map(wave);
   const curve = (time: Float64Array) => ({ time, mean: time.map(wave), sd: time.map(() => 0.01) });
-  const zoomTimes = Float64Array.from({ length: 200 }, (_, i) => base.lightCurve.time[0]! + (20 * i) / 199);
-  const period = { ...base.result.parameters["tau"]!, median: P, q16: 4.99, q84: 5.01, "q2.5": 4.98, "q97.5": 5.02 };
+  const zoomTimes = Float64Array.from({ length: 200 }, (_, i) => base.lightCurve.time[0] + (20 * i) / 199);
+  const period = { ...base.result.parameters["tau"], median: P, q16: 4.99, q84: 5.01, "q2.5": 4.98, "q97.5": 5.02 };
   return {
     ...base,
     lightCurve: { ...base.lightCurve, value },
@@ -27,7 +27,7 @@ describe("figures of a periodic model", () => {
     const input = periodicInput();
     const figure = phaseFigure(input)!;
     const model = (figure.spec as { datasets: { model: { phase: number; m: number }[] } }).datasets.model;
-    const t0 = input.lightCurve.time[0]!;
+    const t0 = input.lightCurve.time[0];
     // A folded sine: the value at phase p is 19 + 0.3 sin(2 pi (t0 / P + p)) (bins are 1/20 wide: error <= 0.3 * pi / 20).
     for (const row of model) expect(Math.abs(row.m - (19 + 0.3 * Math.sin(2 * Math.PI * (t0 / 5 + row.phase))))).toBeLessThan(0.05);
     const texts = svgTexts(await renderSvg(figure));

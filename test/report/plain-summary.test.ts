@@ -68,7 +68,7 @@ describe("plainSummary", () => {
   });
   it("mentions dropped rows and a missing error column", () => {
     const input = withResult({ data: { ...base.result.data, dropped: 1, errorColumn: null } });
-    const text = plainSummary(input)[0]!;
+    const text = plainSummary(input)[0];
     expect(text).toContain("1 row was dropped for missing values");
     expect(text).toContain("a white-noise term was fitted");
   });

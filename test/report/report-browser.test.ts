@@ -83,7 +83,7 @@ describe.skipIf(skipWithoutChromium)("the HTML report in headless Chromium", () 
       expect(figure.drawnMarks, figure.id!).toBeGreaterThanOrEqual(3);
     }
     // Every measurement is a drawn symbol (plus its error bar and the prediction).
-    expect(figures[0]!.drawnMarks).toBeGreaterThanOrEqual(2 * inventedReportInput({ chains: 1, steps: 2 }).lightCurve.time.length);
+    expect(figures[0].drawnMarks).toBeGreaterThanOrEqual(2 * inventedReportInput({ chains: 1, steps: 2 }).lightCurve.time.length);
   });
 
   it("shows the axis titles with their units and the warnings box", () => {

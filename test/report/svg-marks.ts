@@ -18,7 +18,7 @@ export function markSets(svg: string): MarkSet[] {
     const end = svg.indexOf("</g>", start);
     const body = svg.slice(start, end);
     const items = (body.match(/<(path|line|rect|text)\b/g) ?? []).length;
-    sets.push({ type: match[1]!, name: match[2]!, items });
+    sets.push({ type: match[1], name: match[2], items });
   }
   return sets;
 }
@@ -26,7 +26,7 @@ export function markSets(svg: string): MarkSet[] {
 /** The text content of every <text> element of an SVG (axis titles, labels, headings, legends). */
 export function svgTexts(svg: string): string[] {
   return [...svg.matchAll(/<text\b[^>]*>([^<]*)<\/text>/g)].map((m) =>
-    m[1]!.replace(/&amp;/g, "&").replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&quot;/g, '"').replace(/&#39;/g, "'"),
+    m[1].replace(/&amp;/g, "&").replace(/&lt;/g, "<").replace(/&gt;/g, ">").replace(/&quot;/g, '"').replace(/&#39;/g, "'"),
   );
 }
 

@@ -95,7 +95,7 @@ describe.skipIf(skipWithoutChromium)("the browser page", () => {
     expect(Object.keys(result["parameters"])).toEqual(expect.arrayContaining(["tau", "sigma", "mean"]));
     for (const summary of Object.values(result["parameters"]) as Record<string, number>[]) {
       for (const key of ["median", "mean", "sd", "q2.5", "q16", "q84", "q97.5"]) expect(Number.isFinite(summary[key]), key).toBe(true);
-      expect(summary["q2.5"]).toBeLessThanOrEqual(summary["q97.5"]!);
+      expect(summary["q2.5"]).toBeLessThanOrEqual(summary["q97.5"]);
     }
     expect(Object.keys(result["diagnostics"])).toEqual(
       expect.arrayContaining(["converged", "rhatMax", "essMin", "autocorrelationTime", "acceptance", "likelihoodEvaluations", "seconds"]),

@@ -34,17 +34,17 @@ export function correlatedGaussian(): KnownTarget {
   const s = [1, 2, 0.5, 3, 1.5];
   const d = mu.length;
   const covariance = new Matrix(d, d);
-  for (let i = 0; i < d; i++) for (let j = 0; j < d; j++) covariance.set(i, j, s[i]! * s[j]! * 0.7 ** Math.abs(i - j));
+  for (let i = 0; i < d; i++) for (let j = 0; j < d; j++) covariance.set(i, j, s[i] * s[j] * 0.7 ** Math.abs(i - j));
   const precision = inverse(covariance).to2DArray();
   const residual = new Float64Array(d);
   const logPosteriorAndGradient = (x: Float64Array, g: Float64Array): number => {
-    for (let i = 0; i < d; i++) residual[i] = x[i]! - mu[i]!;
+    for (let i = 0; i < d; i++) residual[i] = x[i] - mu[i];
     let q = 0;
     for (let i = 0; i < d; i++) {
       let pi = 0;
-      for (let j = 0; j < d; j++) pi += precision[i]![j]! * residual[j]!;
+      for (let j = 0; j < d; j++) pi += precision[i][j] * residual[j];
       g[i] = -pi;
-      q += residual[i]! * pi;
+      q += residual[i] * pi;
     }
     return -0.5 * q;
   };
@@ -52,8 +52,8 @@ export function correlatedGaussian(): KnownTarget {
   return {
     name: "correlated 5-D Gaussian",
     density: { dimension: d, logPosterior: (x) => logPosteriorAndGradient(x, scratch), logPosteriorAndGradient },
-    quantile: (i, p) => normalQuantile(p, mu[i]!, s[i]!),
-    marginalDensity: (i, x) => normalPdf(x, mu[i]!, s[i]!),
+    quantile: (i, p) => normalQuantile(p, mu[i], s[i]),
+    marginalDensity: (i, x) => normalPdf(x, mu[i], s[i]),
   };
 }
 
@@ -67,10 +67,10 @@ export function banana(b = 0.15): KnownTarget {
 
   const shift = (x1: number): number => b * (x1 * x1 - 9);
   const logPosteriorAndGradient = (x: Float64Array, g: Float64Array): number => {
-    const r = x[1]! - shift(x[0]!);
-    g[0] = -x[0]! / 9 + r * 2 * b * x[0]!;
+    const r = x[1] - shift(x[0]);
+    g[0] = -x[0] / 9 + r * 2 * b * x[0];
     g[1] = -r;
-    return -(x[0]! * x[0]!) / 18 - 0.5 * r * r;
+    return -(x[0] * x[0]) / 18 - 0.5 * r * r;
   };
   const scratch = new Float64Array(2);
   const x2Cdf = (q: number): number => simpsonRule((x1) => normalPdf(x1, 0, 3) * normalCdf(q - shift(x1), 0, 1), -30, 30, 6000);
@@ -94,30 +94,30 @@ export function twoModeMixture(): KnownTarget {
   const logWeights = weights.map(Math.log);
   const logPosteriorAndGradient = (x: Float64Array, g: Float64Array): number => {
     const terms = [0, 1].map((k) => {
-      let t = logWeights[k]!;
+      let t = logWeights[k];
       for (let i = 0; i < 2; i++) {
-        const z = (x[i]! - means[k]![i]!) / sds[k]![i]!;
-        t += -0.5 * z * z - Math.log(sds[k]![i]!);
+        const z = (x[i] - means[k][i]) / sds[k][i];
+        t += -0.5 * z * z - Math.log(sds[k][i]);
       }
       return t;
     });
-    const m = Math.max(terms[0]!, terms[1]!);
-    const total = m + Math.log(Math.exp(terms[0]! - m) + Math.exp(terms[1]! - m));
+    const m = Math.max(terms[0], terms[1]);
+    const total = m + Math.log(Math.exp(terms[0] - m) + Math.exp(terms[1] - m));
     g.fill(0);
     for (let k = 0; k < 2; k++) {
-      const responsibility = Math.exp(terms[k]! - total);
-      for (let i = 0; i < 2; i++) g[i] = g[i]! - (responsibility * (x[i]! - means[k]![i]!)) / sds[k]![i]! ** 2;
+      const responsibility = Math.exp(terms[k] - total);
+      for (let i = 0; i < 2; i++) g[i] = g[i] - (responsibility * (x[i] - means[k][i])) / sds[k][i] ** 2;
     }
     return total - Math.log(2 * Math.PI);
   };
   const scratch = new Float64Array(2);
   const cdf = (i: number, q: number): number =>
-    weights[0]! * normalCdf(q, means[0]![i]!, sds[0]![i]!) + weights[1]! * normalCdf(q, means[1]![i]!, sds[1]![i]!);
+    weights[0] * normalCdf(q, means[0][i], sds[0][i]) + weights[1] * normalCdf(q, means[1][i], sds[1][i]);
   return {
     name: "two-mode mixture",
     density: { dimension: 2, logPosterior: (x) => logPosteriorAndGradient(x, scratch), logPosteriorAndGradient },
     quantile: (i, p) => invertCdf((q) => cdf(i, q), p, -20, 20),
     marginalDensity: (i, x) =>
-      weights[0]! * normalPdf(x, means[0]![i]!, sds[0]![i]!) + weights[1]! * normalPdf(x, means[1]![i]!, sds[1]![i]!),
+      weights[0] * normalPdf(x, means[0][i], sds[0][i]) + weights[1] * normalPdf(x, means[1][i], sds[1][i]),
   };
 }
