@@ -2,6 +2,7 @@ import { drawBandMeans, type BandMeanMarginal, type BandMeanPrior } from "../gp/
 import type { MultiBandProcess } from "../gp/multi-band-process.js";
 import { createParameterSpace, type ParameterSpace, type PhysicalLikelihood, type PosteriorDraws } from "../inference/index.js";
 import { logLikelihoodOrImpossible } from "./impossible-parameters.js";
+import { forEachRowPosterior } from "./mean-marginal.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { Rng } from "../random/rng.js";
 import { jointProcessAt, type JointModel } from "./joint-model.js";
@@ -57,27 +58,14 @@ export function collapseJointMeans(model: JointModel, lightCurves: readonly Ligh
  */
 export function restoreBandMeans(model: JointModel, collapsed: CollapsedJointModel, draws: PosteriorDraws, rng: Rng): PosteriorDraws {
   const count = draws.chain.length;
-  const names = collapsed.space.names;
   const bands = model.bands.length;
   const means = model.bands.map(() => new Float64Array(count));
-  const row = new Float64Array(names.length);
-  const previous = new Float64Array(names.length).fill(NaN);
   const xi = new Float64Array(bands);
-  let posterior: BandMeanMarginal | undefined;
-  for (let k = 0; k < count; k++) {
-    let same = posterior !== undefined;
-    for (let i = 0; i < names.length; i++) {
-      row[i] = draws.columns[names[i]][k];
-      if (row[i] !== previous[i]) same = false;
-    }
-    if (!same) {
-      posterior = collapsed.meanPosterior(row);
-      previous.set(row);
-    }
+  forEachRowPosterior(draws, collapsed.space.names, collapsed.meanPosterior, (posterior, k) => {
     for (let b = 0; b < bands; b++) xi[b] = rng.normal();
-    const drawn = drawBandMeans(posterior!, xi);
+    const drawn = drawBandMeans(posterior, xi);
     for (let b = 0; b < bands; b++) means[b][k] = drawn[b];
-  }
+  });
   const columns: Record<string, Float64Array> = {};
   for (const name of model.space.names) {
     const band = model.bands.findIndex((b) => `mean.${b}` === name);

@@ -74,25 +74,40 @@ export function collapseMean(model: LightCurveModel, lightCurve: LightCurve): Co
  * order.
  */
 export function restoreMean(model: LightCurveModel, collapsed: CollapsedMeanModel, draws: PosteriorDraws, rng: Rng): PosteriorDraws {
-  const count = draws.chain.length;
-  const names = collapsed.space.names;
-  const mean = new Float64Array(count);
+  const mean = new Float64Array(draws.chain.length);
+  forEachRowPosterior(draws, collapsed.space.names, collapsed.meanPosterior, (posterior, k) => {
+    mean[k] = posterior.mean + posterior.sd * rng.normal();
+  });
+  const columns: Record<string, Float64Array> = {};
+  for (const name of model.space.names) columns[name] = name === "mean" ? mean : draws.columns[name];
+  return { ...draws, names: model.space.names, columns };
+}
+
+/**
+ * Calls `use(posterior, k)` for every draw k, with `posterior = posteriorAt(row k of the columns
+ * `names`)` computed once per run of identical rows: ensemble walkers that reject a move, and
+ * importance draws resampled by weight, repeat their previous row, and a conditional posterior costs a
+ * likelihood pass.
+ */
+export function forEachRowPosterior<P>(
+  draws: PosteriorDraws,
+  names: readonly string[],
+  posteriorAt: (row: Float64Array) => P,
+  use: (posterior: P, k: number) => void,
+): void {
   const row = new Float64Array(names.length);
-  const previous = new Float64Array(names.length).fill(NaN);
-  let posterior = { mean: NaN, sd: NaN };
-  for (let k = 0; k < count; k++) {
-    let same = true;
+  const previous = new Float64Array(names.length);
+  let posterior: P | undefined;
+  for (let k = 0; k < draws.chain.length; k++) {
+    let same = posterior !== undefined;
     for (let i = 0; i < names.length; i++) {
       row[i] = draws.columns[names[i]][k];
       if (row[i] !== previous[i]) same = false;
     }
-    if (!same) {
-      posterior = collapsed.meanPosterior(row);
+    if (posterior === undefined || !same) {
+      posterior = posteriorAt(row);
       previous.set(row);
     }
-    mean[k] = posterior.mean + posterior.sd * rng.normal();
+    use(posterior, k);
   }
-  const columns: Record<string, Float64Array> = {};
-  for (const name of model.space.names) columns[name] = name === "mean" ? mean : draws.columns[name];
-  return { ...draws, names: model.space.names, columns };
 }
