@@ -3,7 +3,8 @@ import { DEFAULT_SAMPLER, type SamplerKind } from "../inference/index.js";
 import type { FitOptions } from "../models/fit-options.js";
 import { MODEL_NAMES, type ModelName } from "../models/light-curve-model.js";
 import { carmaOrderOf, orderText, parseCarmaOrder, type CarmaOrder } from "../models/carma-model.js";
-import { integerOption, numberOption, seedOption, textOption, type VerbArguments } from "./verb-arguments.js";
+import { BAND_OPTIONS } from "./band-choice.js";
+import { COLUMN_OPTIONS, integerOption, numberOption, OUTPUT_OPTIONS, seedOption, textOption, type VerbArguments } from "./verb-arguments.js";
 
 /**
  * The options that choose a fit, shared by every verb that fits (fit, predict, compare, batch and batch
@@ -24,6 +25,12 @@ export const FIT_OPTIONS = {
   "min-period": { type: "string" },
   "max-period": { type: "string" },
 } as const;
+
+/**
+ * Every option of a verb that fits the light curves of one file and writes one output (`fit`, `predict`):
+ * the fit options, the column options, the band rule, `--out` and `--quiet`.
+ */
+export const FILE_FIT_OPTIONS = { ...COLUMN_OPTIONS, ...FIT_OPTIONS, ...BAND_OPTIONS, ...OUTPUT_OPTIONS } as const;
 
 /** The help lines of {@link FIT_OPTIONS}. */
 export const FIT_HELP = `  --model NAME            ${MODEL_NAMES.join(", ")}: drw (quasar timescale), oscillator,
@@ -138,8 +145,11 @@ function carmaOrderOption(values: VerbArguments["values"], model: string | undef
   }
 }
 
-/** `--min-period` and `--max-period` as positive numbers, the first below the second (either may be absent). */
-function periodLimits(values: VerbArguments["values"]): { minimumPeriod?: number; maximumPeriod?: number } {
+/**
+ * `--min-period` and `--max-period` as positive numbers, the first below the second (either may be absent):
+ * the period range of every verb that searches periods (the fit options, `compare`, `periodogram`).
+ */
+export function periodLimits(values: VerbArguments["values"]): { minimumPeriod?: number; maximumPeriod?: number } {
   const minimumPeriod = numberOption(values, "min-period");
   const maximumPeriod = numberOption(values, "max-period");
   for (const [name, value] of [["min-period", minimumPeriod], ["max-period", maximumPeriod]] as const)

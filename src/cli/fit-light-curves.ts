@@ -13,8 +13,8 @@ export function requireErrorsForRobust(lightCurves: readonly LightCurve[], optio
     throw new InputError("--robust needs an error column (the Student-t noise scales each point's error)", { file });
 }
 
-/** Fits one light curve with a progress bar labelled `label` and, unless quiet, the summary on stderr. */
-export function fitWithProgress(lightCurve: LightCurve, options: FitOptions, io: CliIo, quiet: boolean, label = "fitting"): DetailedFit {
+/** Fits one light curve with a progress bar labelled `label` ("fitting", or "fitting band B" for band B) and, unless quiet, the summary on stderr. */
+export function fitWithProgress(lightCurve: LightCurve, options: FitOptions, io: CliIo, quiet: boolean, label = lightCurve.band ? `fitting band ${lightCurve.band}` : "fitting"): DetailedFit {
   const bar = samplerProgressBar(io, quiet, label);
   let fit;
   try {
@@ -39,7 +39,7 @@ export async function fitAll(
 ): Promise<FitResult[]> {
   const results: FitResult[] = [];
   for (const lightCurve of lightCurves) {
-    const fit = fitWithProgress(lightCurve, options, io, quiet, lightCurve.band ? `fitting band ${lightCurve.band}` : "fitting");
+    const fit = fitWithProgress(lightCurve, options, io, quiet);
     if (onFitted) await onFitted(lightCurve, fit);
     results.push(fit.result);
   }

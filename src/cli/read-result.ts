@@ -47,3 +47,17 @@ function isPerBand(value: unknown): value is { perBand: Record<string, unknown> 
   const perBand = (value as { perBand?: unknown }).perBand;
   return perBand !== null && typeof perBand === "object" && !Array.isArray(perBand);
 }
+
+/**
+ * What `rebuild` makes from a stored result (its model, its conditioning light curve, its draws), with a
+ * RangeError (a parameter of the file outside its range) reported as an InputError naming the result
+ * file: shared by `predict --from` and `report`.
+ */
+export function fromStoredResult<T>(resultPath: string, rebuild: () => T): T {
+  try {
+    return rebuild();
+  } catch (error) {
+    if (error instanceof RangeError) throw new InputError(error.message, { file: resultPath });
+    throw error;
+  }
+}

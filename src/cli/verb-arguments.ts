@@ -1,5 +1,6 @@
 import { parseArgs, type ParseArgsConfig } from "node:util";
 import { UsageError } from "../errors/usage-error.js";
+import type { CliIo } from "./cli-io.js";
 import { nearestOption } from "./nearest-option.js";
 
 type Options = NonNullable<ParseArgsConfig["options"]>;
@@ -51,6 +52,56 @@ export function parseVerbArguments(args: string[], options: Options, help: strin
     return undefined;
   }
   return { values: parsed.values as Record<string, string | boolean | undefined>, positionals: parsed.positionals };
+}
+
+/**
+ * Options that take a value, one per name (`--name VALUE`, read as text: the verb reads and checks each
+ * with {@link textOption}, {@link numberOption} or {@link integerOption}).
+ */
+export function valueOptions<Name extends string>(...names: Name[]): Record<Name, { readonly type: "string" }> {
+  return Object.fromEntries(names.map((name) => [name, { type: "string" }])) as Record<Name, { readonly type: "string" }>;
+}
+
+/** The output options of a verb that writes one file and may say nothing: `--out FILE` and `--quiet`. */
+export const OUTPUT_OPTIONS = {
+  out: { type: "string" },
+  quiet: { type: "boolean" },
+} as const;
+
+/** The body of a verb: its parsed arguments and the outside world in, the exit status out. */
+export type VerbBody<Parsed> = (parsed: Parsed, io: CliIo) => Promise<number>;
+
+/**
+ * The opening every verb shares, as a verb's `run`: the arguments parsed strictly against `options`
+ * ({@link parseVerbArguments}); `--help` prints `help` and exits 0, anything else goes to `body`.
+ */
+export function withParsedArguments(options: Options, help: string, body: VerbBody<VerbArguments>): (args: string[], io: CliIo) => Promise<number> {
+  return async (args, io) => {
+    const parsed = parseVerbArguments(args, options, help, io.stdout);
+    return parsed === undefined ? 0 : body(parsed, io);
+  };
+}
+
+/** The parsed arguments of a verb that reads one input: the options, the one FILE argument and `--quiet`. */
+export interface SingleInputArguments extends VerbArguments {
+  readonly file: string;
+  readonly quiet: boolean;
+}
+
+/**
+ * The opening of a verb that reads one input (`horologium <verb> FILE [options]`): as
+ * {@link withParsedArguments}, then exactly one positional argument (a usage error naming `what`
+ * otherwise) and `--quiet`, handed to `body`.
+ */
+export function withSingleInput(
+  options: Options,
+  help: string,
+  body: VerbBody<SingleInputArguments>,
+  what = "FILE",
+): (args: string[], io: CliIo) => Promise<number> {
+  return withParsedArguments(options, help, (parsed, io) =>
+    body({ ...parsed, file: singleInput(parsed.positionals, what), quiet: parsed.values.quiet === true }, io),
+  );
 }
 
 /** A string option, or undefined. */

@@ -3,7 +3,7 @@ import type { ModelName } from "../../models/light-curve-model.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { FIT_OPTIONS, fitArguments, modelName } from "../fit-arguments.js";
 import { readInput } from "../read-input.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, OUTPUT_OPTIONS, textOption, withSingleInput } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium compare FILE [--models drw,oscillator,quasi-periodic] [options]
@@ -37,24 +37,18 @@ const DEFAULT_COMPARED: readonly ModelName[] = ["drw", "oscillator", "quasi-peri
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
+  ...OUTPUT_OPTIONS,
   models: { type: "string" },
   background: FIT_OPTIONS.background,
   seed: FIT_OPTIONS.seed,
   "min-period": FIT_OPTIONS["min-period"],
   "max-period": FIT_OPTIONS["max-period"],
-  out: { type: "string" },
-  quiet: { type: "boolean" },
 } as const;
 
 /** `horologium compare`. */
 export const verb: CliVerb = {
   summary: "rank models by Bayesian evidence: is there a period at all?",
-  async run(args: string[], io: CliIo): Promise<number> {
-    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
-    if (!parsed) return 0;
-    const { values, positionals } = parsed;
-    const file = singleInput(positionals);
-    const quiet = values.quiet === true;
+  run: withSingleInput(OPTIONS, HELP, async ({ values, file, quiet }, io: CliIo) => {
     const models = (textOption(values, "models") ?? DEFAULT_COMPARED.join(",")).split(",").map((m) => modelName(m.trim(), "--models"));
     const { seed, background, minimumPeriod, maximumPeriod } = fitArguments(values, false);
     const periodLimits = { ...(minimumPeriod !== undefined ? { minimumPeriod } : {}), ...(maximumPeriod !== undefined ? { maximumPeriod } : {}) };
@@ -79,5 +73,5 @@ export const verb: CliVerb = {
     const json = comparisons.length === 1 ? comparisons[0] : { perBand: Object.fromEntries(comparisons.map((c) => [c.band ?? "", c])) };
     if (out !== undefined) writeOutput(JSON.stringify(json, null, 2) + "\n", out, io);
     return 0;
-  },
+  }),
 };

@@ -8,7 +8,7 @@ import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { writeReport } from "../../report/write-report.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { UsageError } from "../../errors/usage-error.js";
-import { parseVerbArguments, seedOption, textOption } from "../verb-arguments.js";
+import { seedOption, textOption, withParsedArguments } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 import { fitAll } from "../fit-light-curves.js";
 import { predictionCsv } from "../../models/prediction-csv.js";
@@ -47,10 +47,7 @@ export function demoDataDirectory(): string {
 /** `horologium demo`. */
 export const verb: CliVerb = {
   summary: "fit the built-in demo data: an invented quasar and an invented spotted star",
-  async run(args: string[], io: CliIo): Promise<number> {
-    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
-    if (!parsed) return 0;
-    const { values } = parsed;
+  run: withParsedArguments(OPTIONS, HELP, async ({ values }, io: CliIo) => {
     const quiet = values.quiet === true;
     const out = resolve(io.cwd, textOption(values, "out") ?? "horologium-demo");
     const seed = seedOption(values);
@@ -98,5 +95,5 @@ export const verb: CliVerb = {
     });
     say(`\nDone. The JSON results follow the format in docs/architecture.md ("Result JSON"); try "horologium report ${join(out, "quasar-result.json")}" or "horologium fit --help".\n`);
     return 0;
-  },
+  }),
 };

@@ -2,13 +2,13 @@ import { resolve } from "node:path";
 import { jointReportInput } from "../../report/joint-report-input.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { writeReport } from "../../report/write-report.js";
-import { BAND_HELP, BAND_OPTIONS, bandChoice } from "../band-choice.js";
+import { BAND_HELP, bandChoice } from "../band-choice.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
-import { FIT_HELP, FIT_OPTIONS, fitArguments } from "../fit-arguments.js";
+import { FILE_FIT_OPTIONS, FIT_HELP, fitArguments } from "../fit-arguments.js";
 import { fitJointWithProgress, perBandResults } from "../fit-bands.js";
 import { fitAll, requireErrorsForRobust } from "../fit-light-curves.js";
 import { readInput } from "../read-input.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
+import { COLUMN_HELP, textOption, withSingleInput } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium fit FILE --model drw|oscillator|quasi-periodic|carma [options]
@@ -31,24 +31,15 @@ Example (an invented quasar of the Lanternfield Deep Survey):
 `;
 
 const OPTIONS = {
-  ...COLUMN_OPTIONS,
-  ...FIT_OPTIONS,
-  ...BAND_OPTIONS,
-  out: { type: "string" },
+  ...FILE_FIT_OPTIONS,
   report: { type: "string" },
-  quiet: { type: "boolean" },
 } as const;
 
 /** `horologium fit`. */
 export const verb: CliVerb = {
   summary: "fit a model to a light curve: posterior summaries, diagnostics, warnings (JSON)",
-  async run(args: string[], io: CliIo): Promise<number> {
-    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
-    if (!parsed) return 0;
-    const { values, positionals } = parsed;
-    const file = singleInput(positionals);
+  run: withSingleInput(OPTIONS, HELP, async ({ values, file, quiet }, io: CliIo) => {
     const options = fitArguments(values, true);
-    const quiet = values.quiet === true;
     const lightCurves = await readInput(file, values, io, quiet);
     requireErrorsForRobust(lightCurves, options, file);
     const reportDir = textOption(values, "report");
@@ -72,5 +63,5 @@ export const verb: CliVerb = {
     }
     writeOutput(json, textOption(values, "out"), io);
     return 0;
-  },
+  }),
 };

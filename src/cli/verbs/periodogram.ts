@@ -1,8 +1,9 @@
 import { computePeriodogram } from "../../periodogram/periodogram.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { UsageError } from "../../errors/usage-error.js";
+import { FIT_OPTIONS, periodLimits } from "../fit-arguments.js";
 import { readInput } from "../read-input.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, numberOption, parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
+import { COLUMN_HELP, COLUMN_OPTIONS, numberOption, OUTPUT_OPTIONS, textOption, withSingleInput } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium periodogram FILE [options]
@@ -28,32 +29,23 @@ Example:
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,
-  "min-period": { type: "string" },
-  "max-period": { type: "string" },
+  ...OUTPUT_OPTIONS,
+  "min-period": FIT_OPTIONS["min-period"],
+  "max-period": FIT_OPTIONS["max-period"],
   oversampling: { type: "string" },
   peaks: { type: "string" },
-  out: { type: "string" },
-  quiet: { type: "boolean" },
 } as const;
 
 /** `horologium periodogram`. */
 export const verb: CliVerb = {
   summary: "generalised Lomb-Scargle periodogram with false-alarm probabilities",
-  async run(args: string[], io: CliIo): Promise<number> {
-    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
-    if (!parsed) return 0;
-    const { values, positionals } = parsed;
-    const file = singleInput(positionals);
-    const quiet = values.quiet === true;
-    const minPeriod = numberOption(values, "min-period");
-    const maxPeriod = numberOption(values, "max-period");
+  run: withSingleInput(OPTIONS, HELP, async ({ values, file, quiet }, io: CliIo) => {
+    // The period range by the rules of every verb that searches periods (cli/fit-arguments.ts).
+    const { minimumPeriod: minPeriod, maximumPeriod: maxPeriod } = periodLimits(values);
     const oversampling = numberOption(values, "oversampling");
     const peaks = numberOption(values, "peaks", 5)!;
-    for (const [name, value] of [["min-period", minPeriod], ["max-period", maxPeriod], ["oversampling", oversampling]] as const)
-      if (value !== undefined && !(value > 0)) throw new UsageError(`--${name} must be > 0, got ${value}`);
+    if (oversampling !== undefined && !(oversampling > 0)) throw new UsageError(`--oversampling must be > 0, got ${oversampling}`);
     if (!Number.isInteger(peaks) || peaks < 1) throw new UsageError(`--peaks must be a positive integer, got ${peaks}`);
-    if (minPeriod !== undefined && maxPeriod !== undefined && !(minPeriod < maxPeriod))
-      throw new UsageError(`--min-period (${minPeriod}) must be below --max-period (${maxPeriod})`);
     const lightCurves = await readInput(file, values, io, quiet);
     const csv: string[] = [];
     for (const lightCurve of lightCurves) {
@@ -82,5 +74,5 @@ export const verb: CliVerb = {
     const out = textOption(values, "out");
     if (out !== undefined) writeOutput(csv.join("\n") + "\n", out, io);
     return 0;
-  },
+  }),
 };

@@ -5,21 +5,21 @@ import { bandPredictionCsv } from "../../models/band-prediction-csv.js";
 import type { FitResult } from "../../models/fit-result.js";
 import { jointModelFromResult } from "../../models/joint-model-from-result.js";
 import { jointPredictive } from "../../models/joint-predictive.js";
-import { MODEL_NAMES } from "../../models/light-curve-model.js";
+import { MODEL_NAMES, type LightCurveModel } from "../../models/light-curve-model.js";
 import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
 import { posteriorPredictive, type PredictiveCurve } from "../../models/posterior-predictive.js";
 import { evenlySpacedItems } from "../../numerics/even-thinning.js";
 import { storedPosteriorSample } from "../../models/posterior-sample.js";
 import { predictionCsv } from "../../models/prediction-csv.js";
-import { BAND_HELP, BAND_OPTIONS, bandChoice } from "../band-choice.js";
+import { BAND_HELP, bandChoice } from "../band-choice.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
-import { FIT_OPTIONS, fitArguments } from "../fit-arguments.js";
+import { FILE_FIT_OPTIONS, fitArguments } from "../fit-arguments.js";
 import { fitJointWithProgress } from "../fit-bands.js";
 import { fitWithProgress, requireErrorsForRobust } from "../fit-light-curves.js";
 import { readInput } from "../read-input.js";
-import { readFitResult } from "../read-result.js";
+import { fromStoredResult, readFitResult } from "../read-result.js";
 import { parseGrid, readTimesFile } from "../requested-times.js";
-import { COLUMN_HELP, COLUMN_OPTIONS, integerOption, parseVerbArguments, singleInput, textOption, type VerbArguments } from "../verb-arguments.js";
+import { COLUMN_HELP, integerOption, textOption, withSingleInput, type VerbArguments } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium predict FILE --model MODEL (--at TIMES.csv | --grid START:STOP:STEP) [options]
@@ -50,26 +50,17 @@ Example:
 `;
 
 const OPTIONS = {
-  ...COLUMN_OPTIONS,
-  ...FIT_OPTIONS,
-  ...BAND_OPTIONS,
+  ...FILE_FIT_OPTIONS,
   from: { type: "string" },
   at: { type: "string" },
   grid: { type: "string" },
   draws: { type: "string" },
-  out: { type: "string" },
-  quiet: { type: "boolean" },
 } as const;
 
 /** `horologium predict`. */
 export const verb: CliVerb = {
   summary: "posterior-predictive light curve at any times (CSV: time,mean,sd,lower95,upper95)",
-  async run(args: string[], io: CliIo): Promise<number> {
-    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
-    if (!parsed) return 0;
-    const { values, positionals } = parsed;
-    const file = singleInput(positionals);
-    const quiet = values.quiet === true;
+  run: withSingleInput(OPTIONS, HELP, async ({ values, file, quiet }, io: CliIo) => {
     const at = textOption(values, "at");
     const grid = textOption(values, "grid");
     if ((at === undefined) === (grid === undefined)) throw new UsageError("give exactly one of --at FILE or --grid START:STOP:STEP");
@@ -93,7 +84,7 @@ export const verb: CliVerb = {
     const curve = singleBandCurve(lightCurves[0], stored, context);
     writeOutput(predictionCsv(curve), textOption(values, "out"), io);
     return 0;
-  },
+  }),
 };
 
 /** What every band's prediction shares: the options, the requested times and where messages go. */
@@ -113,33 +104,35 @@ function singleBandCurve(
   stored: FitResult | undefined,
   context: PredictContext,
 ): PredictiveCurve {
-  const { from, values, io, quiet, times, drawCount, file } = context;
-  let lightCurve = input;
-  let model;
-  let rows: readonly (readonly number[])[];
-  if (stored !== undefined) {
-    const result = stored;
-    // The fit options are checked by the same rules though only --model is used (against the result's).
-    const requested = fitArguments(values, false).model;
-    if (requested !== undefined && requested !== result.model)
-      throw new UsageError(`--model ${requested} does not match the model of ${from} (${result.model})`);
-    try {
-      model = modelFromResult(result, lightCurve);
-      lightCurve = conditioningLightCurve(result, lightCurve);
-      rows = storedPosteriorSample(result, model.space.names).rows;
-    } catch (error) {
-      if (error instanceof RangeError) throw new InputError(error.message, { file: from! });
-      throw error;
-    }
-  } else {
-    const options = fitArguments(values, true);
-    requireErrorsForRobust([lightCurve], options, file);
-    const fit = fitWithProgress(lightCurve, options, io, quiet, lightCurve.band ? `fitting band ${lightCurve.band}` : "fitting");
-    model = fit.model;
-    lightCurve = fit.conditioning;
-    rows = fit.result.posteriorSample.rows;
-  }
-  return posteriorPredictive(model, lightCurve, evenlySpacedItems(rows, drawCount), times);
+  const { model, lightCurve, rows } = stored !== undefined ? storedFit(input, stored, context) : freshFit(input, context);
+  return posteriorPredictive(model, lightCurve, evenlySpacedItems(rows, context.drawCount), context.times);
+}
+
+/** The model, conditioning light curve and draws of one band's prediction. */
+interface PredictionSource {
+  readonly model: LightCurveModel;
+  readonly lightCurve: LightCurve;
+  readonly rows: readonly (readonly number[])[];
+}
+
+/** One band's prediction source from the result file of `--from`. */
+function storedFit(input: LightCurve, result: FitResult, { from, values }: PredictContext): PredictionSource {
+  // The fit options are checked by the same rules though only --model is used (against the result's).
+  const requested = fitArguments(values, false).model;
+  if (requested !== undefined && requested !== result.model)
+    throw new UsageError(`--model ${requested} does not match the model of ${from} (${result.model})`);
+  return fromStoredResult(from!, () => {
+    const model = modelFromResult(result, input);
+    return { model, lightCurve: conditioningLightCurve(result, input), rows: storedPosteriorSample(result, model.space.names).rows };
+  });
+}
+
+/** One band's prediction source from a fit made now with the fit options. */
+function freshFit(input: LightCurve, { values, io, quiet, file }: PredictContext): PredictionSource {
+  const options = fitArguments(values, true);
+  requireErrorsForRobust([input], options, file);
+  const fit = fitWithProgress(input, options, io, quiet);
+  return { model: fit.model, lightCurve: fit.conditioning, rows: fit.result.posteriorSample.rows };
 }
 
 /**
@@ -165,14 +158,9 @@ function multiBandCurves(
   const present = lightCurves.map((lc) => lc.band ?? "");
   if (names.length !== present.length || names.some((name, b) => name !== present[b]))
     throw new InputError(`${from} is a joint fit of bands ${names.join(", ")}; the file has ${present.join(", ")}`, { file });
-  let model;
-  let rows: readonly (readonly number[])[];
-  try {
-    model = jointModelFromResult(stored, lightCurves);
-    rows = evenlySpacedItems(storedPosteriorSample(stored, model.space.names).rows, drawCount);
-  } catch (error) {
-    if (error instanceof RangeError) throw new InputError(error.message, { file: from! });
-    throw error;
-  }
+  const { model, rows } = fromStoredResult(from!, () => {
+    const joint = jointModelFromResult(stored, lightCurves);
+    return { model: joint, rows: evenlySpacedItems(storedPosteriorSample(stored, joint.space.names).rows, drawCount) };
+  });
   return model.bands.map((band, b) => ({ band, curve: jointPredictive(model, lightCurves, rows, b, times) }));
 }

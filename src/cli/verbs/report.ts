@@ -9,8 +9,8 @@ import { jointModelFromResult } from "../../models/joint-model-from-result.js";
 import { writeReport } from "../../report/write-report.js";
 import { resolve } from "node:path";
 import type { CliIo, CliVerb } from "../cli-io.js";
-import { readFitResult } from "../read-result.js";
-import { parseVerbArguments, singleInput, textOption } from "../verb-arguments.js";
+import { fromStoredResult, readFitResult } from "../read-result.js";
+import { OUTPUT_OPTIONS, textOption, withSingleInput, type SingleInputArguments } from "../verb-arguments.js";
 
 const HELP = `Usage: horologium report RESULT.json [--data FILE] [--out DIR] [--band NAME]
 
@@ -35,10 +35,9 @@ Example:
 `;
 
 const OPTIONS = {
+  ...OUTPUT_OPTIONS,
   data: { type: "string" },
-  out: { type: "string" },
   band: { type: "string" },
-  quiet: { type: "boolean" },
 } as const;
 
 /** The report input of a joint multi-band result: every band read again, the joint model rebuilt. */
@@ -57,49 +56,39 @@ async function jointInput(result: FitResult, dataPath: string, resultPath: strin
       throw new InputError(`band ${name}: ${lightCurve ? `${lightCurve.time.length} points` : "absent"}, the result was fitted to ${bands.points[name]}: not the same data`, { file: dataPath });
     return lightCurve;
   });
-  try {
-    return jointReportInput({ result, lightCurves, model: jointModelFromResult(result, lightCurves) });
-  } catch (error) {
-    if (error instanceof RangeError) throw new InputError(error.message, { file: resultPath });
-    throw error;
-  }
+  return fromStoredResult(resultPath, () => jointReportInput({ result, lightCurves, model: jointModelFromResult(result, lightCurves) }));
 }
 
 /** `horologium report`. */
 export const verb: CliVerb = {
   summary: "HTML report with figures (SVG and PNG) from a fit result",
-  async run(args: string[], io: CliIo): Promise<number> {
-    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
-    if (!parsed) return 0;
-    const { values, positionals } = parsed;
-    const resultPath = singleInput(positionals, "RESULT.json");
-    const result = readFitResult(resultPath, io.cwd, textOption(values, "band"));
-    const data = result.data;
-    const dataPath = textOption(values, "data") ?? data.source;
-    if (result.bands) {
-      const written = await writeReport(await jointInput(result, dataPath, resultPath, io), resolve(io.cwd, textOption(values, "out") ?? "report"));
-      if (values.quiet !== true) io.stdout(`${written.html}\n`);
-      return 0;
-    }
-    const set = await readLightCurves(resolve(io.cwd, dataPath), {
-      timeColumn: data.timeColumn,
-      valueColumn: data.valueColumn,
-      errorColumn: data.errorColumn,
-      ...(data.band !== undefined ? { band: data.band } : {}),
-      unit: data.unit,
-    });
-    const lightCurve = set.lightCurves[0];
-    if (lightCurve.time.length !== result.data.n)
-      throw new InputError(`the light curve has ${lightCurve.time.length} points, the result was fitted to ${result.data.n}: not the same data`, { file: dataPath });
-    let input;
-    try {
-      input = reportInputFromFit(conditioningLightCurve(result, lightCurve), result, modelFromResult(result, lightCurve));
-    } catch (error) {
-      if (error instanceof RangeError) throw new InputError(error.message, { file: resultPath });
-      throw error;
-    }
-    const written = await writeReport(input, resolve(io.cwd, textOption(values, "out") ?? "report"));
-    if (values.quiet !== true) io.stdout(`${written.html}\n`);
-    return 0;
-  },
+  run: withSingleInput(OPTIONS, HELP, reportFromResult, "RESULT.json"),
 };
+
+/** The report of the result file RESULT.json, written to `--out` (default `report`). */
+async function reportFromResult({ values, file: resultPath, quiet }: SingleInputArguments, io: CliIo): Promise<number> {
+  const result = readFitResult(resultPath, io.cwd, textOption(values, "band"));
+  const data = result.data;
+  const dataPath = textOption(values, "data") ?? data.source;
+  if (result.bands) {
+    const written = await writeReport(await jointInput(result, dataPath, resultPath, io), resolve(io.cwd, textOption(values, "out") ?? "report"));
+    if (!quiet) io.stdout(`${written.html}\n`);
+    return 0;
+  }
+  const set = await readLightCurves(resolve(io.cwd, dataPath), {
+    timeColumn: data.timeColumn,
+    valueColumn: data.valueColumn,
+    errorColumn: data.errorColumn,
+    ...(data.band !== undefined ? { band: data.band } : {}),
+    unit: data.unit,
+  });
+  const lightCurve = set.lightCurves[0];
+  if (lightCurve.time.length !== result.data.n)
+    throw new InputError(`the light curve has ${lightCurve.time.length} points, the result was fitted to ${result.data.n}: not the same data`, { file: dataPath });
+  const input = fromStoredResult(resultPath, () =>
+    reportInputFromFit(conditioningLightCurve(result, lightCurve), result, modelFromResult(result, lightCurve)),
+  );
+  const written = await writeReport(input, resolve(io.cwd, textOption(values, "out") ?? "report"));
+  if (!quiet) io.stdout(`${written.html}\n`);
+  return 0;
+}

@@ -6,7 +6,7 @@ import { createRng } from "../../random/rng.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { UsageError } from "../../errors/usage-error.js";
 import { expressionFamiliesHelp, parseKernelExpression } from "../kernel-expression.js";
-import { numberOption, parseVerbArguments, seedOption, textOption } from "../verb-arguments.js";
+import { numberOption, seedOption, textOption, valueOptions, withParsedArguments } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
 const HELP = `Usage: horologium simulate --kernel EXPRESSION [options]
@@ -37,26 +37,12 @@ Example (an invented Lanternfield quasar):
   horologium simulate --kernel "drw(sigma=0.2,tau=250)" --mean 20.3 --depth 23.5 --seasons 8 --seed 3 --out quasar.csv
 `;
 
-const OPTIONS = {
-  kernel: { type: "string" },
-  mean: { type: "string" },
-  cadence: { type: "string" },
-  seasons: { type: "string" },
-  revisit: { type: "string" },
-  days: { type: "string" },
-  depth: { type: "string" },
-  start: { type: "string" },
-  seed: { type: "string" },
-  out: { type: "string" },
-} as const;
+const OPTIONS = valueOptions("kernel", "mean", "cadence", "seasons", "revisit", "days", "depth", "start", "seed", "out");
 
 /** `horologium simulate`. */
 export const verb: CliVerb = {
   summary: "simulate a light curve from any kernel on a survey-like cadence (CSV)",
-  async run(args: string[], io: CliIo): Promise<number> {
-    const parsed = parseVerbArguments(args, OPTIONS, HELP, io.stdout);
-    if (!parsed) return 0;
-    const { values, positionals } = parsed;
+  run: withParsedArguments(OPTIONS, HELP, async ({ values, positionals }, io: CliIo) => {
     if (positionals.length > 0) throw new UsageError(`simulate takes no file argument, got "${positionals[0]}"`);
     const expression = textOption(values, "kernel");
     if (!expression) throw new UsageError("--kernel is required (see --help)");
@@ -91,5 +77,5 @@ export const verb: CliVerb = {
     const lightCurve = observeMagnitudes(time, truth, { depth5Sigma }, rng, `simulated: ${expression}, seed ${seed}`);
     writeOutput(formatLightCurveCsv(lightCurve, { comments: [`horologium simulate --kernel "${expression}" --seed ${seed}`, "times in days; magnitudes with Ivezic et al. 2019 errors"] }), textOption(values, "out"), io);
     return 0;
-  },
+  }),
 };

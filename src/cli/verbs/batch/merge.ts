@@ -4,7 +4,7 @@ import { openCatalogue } from "../../../batch/catalogue-input.js";
 import { mergeResults, type MergeReport } from "../../../batch/merge-results.js";
 import { UsageError } from "../../../errors/usage-error.js";
 import type { CliIo } from "../../cli-io.js";
-import { parseVerbArguments, textOption } from "../../verb-arguments.js";
+import { OUTPUT_OPTIONS, textOption, valueOptions, withParsedArguments } from "../../verb-arguments.js";
 import { resultsFormatOf } from "./catalogue-fit-arguments.js";
 
 const MERGE_HELP = `Usage: horologium batch merge SHARD_TABLE... --out RESULTS [--catalogue INPUT]
@@ -30,18 +30,12 @@ Example:
 `;
 
 const MERGE_OPTIONS = {
-  out: { type: "string" },
-  catalogue: { type: "string" },
-  "id-col": { type: "string" },
-  "missing-list": { type: "string" },
-  quiet: { type: "boolean" },
-} as const;
+  ...OUTPUT_OPTIONS,
+  ...valueOptions("catalogue", "id-col", "missing-list"),
+};
 
 /** `horologium batch merge`: joins the shard tables of a run and reports what is missing. */
-export async function merge(args: string[], io: CliIo): Promise<number> {
-  const parsed = parseVerbArguments(args, MERGE_OPTIONS, MERGE_HELP, io.stdout);
-  if (!parsed) return 0;
-  const { values, positionals } = parsed;
+export const merge = withParsedArguments(MERGE_OPTIONS, MERGE_HELP, async ({ values, positionals }, io: CliIo): Promise<number> => {
   if (positionals.length === 0) throw new UsageError("give the shard tables to merge");
   const outOption = textOption(values, "out");
   if (outOption === undefined) throw new UsageError("--out is required (a .csv or .parquet table)");
@@ -69,7 +63,7 @@ export async function merge(args: string[], io: CliIo): Promise<number> {
   const incomplete = report.missingShards.length > 0 || (report.missing ?? 0) > 0;
   if (!values.quiet || incomplete) io.stdout(describeMerge(report, outOption));
   return incomplete ? 3 : 0;
-}
+});
 
 function describeMerge(report: MergeReport, outOption: string): string {
   const lines = [`merged ${report.inputs} table(s) into ${outOption}: ${report.rows} objects, ${report.ok} ok, ${report.failed} failed`];

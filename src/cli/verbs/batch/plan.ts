@@ -5,7 +5,7 @@ import { compiledCliPath } from "../../../batch/compiled-location.js";
 import { slurmJobScript } from "../../../batch/slurm-job-script.js";
 import { UsageError } from "../../../errors/usage-error.js";
 import type { CliIo } from "../../cli-io.js";
-import { integerOption, parseVerbArguments, textOption } from "../../verb-arguments.js";
+import { integerOption, textOption, valueOptions, withParsedArguments } from "../../verb-arguments.js";
 import { CATALOGUE_FIT_OPTIONS, catalogueFitChoice } from "./catalogue-fit-arguments.js";
 
 const PLAN_HELP = `Usage: horologium batch plan INPUT --model MODEL --shards N --out-dir DIR [options]
@@ -37,25 +37,12 @@ Example:
 
 const PLAN_OPTIONS = {
   ...CATALOGUE_FIT_OPTIONS,
-  shards: { type: "string" },
-  "out-dir": { type: "string" },
-  script: { type: "string" },
-  format: { type: "string" },
-  "cpus-per-task": { type: "string" },
-  partition: { type: "string" },
-  "time-limit": { type: "string" },
-  mem: { type: "string" },
-  account: { type: "string" },
-  "max-running": { type: "string" },
-  "job-name": { type: "string" },
-  launcher: { type: "string" },
-} as const;
+  ...valueOptions("shards", "out-dir", "script", "format", "cpus-per-task", "partition", "time-limit", "mem", "account"),
+  ...valueOptions("max-running", "job-name", "launcher"),
+};
 
 /** `horologium batch plan`: writes a Slurm job-array script that fits the catalogue in shards. */
-export async function plan(args: string[], io: CliIo): Promise<number> {
-  const parsed = parseVerbArguments(args, PLAN_OPTIONS, PLAN_HELP, io.stdout);
-  if (!parsed) return 0;
-  const { values, positionals } = parsed;
+export const plan = withParsedArguments(PLAN_OPTIONS, PLAN_HELP, async ({ values, positionals }, io: CliIo): Promise<number> => {
   if (positionals.length !== 1) throw new UsageError("give the catalogue: a folder of light curves or a table");
   const choice = catalogueFitChoice(values, io);
   const shards = integerOption(values, "shards", 1);
@@ -92,5 +79,5 @@ export async function plan(args: string[], io: CliIo): Promise<number> {
   writeFileSync(scriptPath, script, { mode: 0o755 });
   io.stdout(`wrote ${scriptPath}: a job array of ${shards} tasks; submit it with\n  sbatch ${scriptPath}\n`);
   return 0;
-}
+});
 

@@ -8,7 +8,7 @@ import { formatDuration, formatRate, throughput } from "../../../batch/throughpu
 import { UsageError } from "../../../errors/usage-error.js";
 import type { CliIo } from "../../cli-io.js";
 import { FIT_HELP } from "../../fit-arguments.js";
-import { COLUMN_HELP, integerOption, parseVerbArguments, textOption } from "../../verb-arguments.js";
+import { COLUMN_HELP, integerOption, textOption, withParsedArguments } from "../../verb-arguments.js";
 import { CATALOGUE_FIT_OPTIONS, CATALOGUE_HELP, catalogueFitChoice, perObjectFitOptions, resultsFormatOf } from "./catalogue-fit-arguments.js";
 
 const RUN_HELP = `Usage: horologium batch INPUT --model MODEL --out RESULTS [options]
@@ -76,10 +76,7 @@ function defaultWorkers(io: CliIo): number {
 }
 
 /** `horologium batch INPUT ...`: fits every object of a catalogue on worker threads. */
-export async function fitCatalogue(args: string[], io: CliIo): Promise<number> {
-  const parsed = parseVerbArguments(args, RUN_OPTIONS, RUN_HELP, io.stdout);
-  if (!parsed) return 0;
-  const { values, positionals } = parsed;
+export const fitCatalogue = withParsedArguments(RUN_OPTIONS, RUN_HELP, async ({ values, positionals }, io: CliIo): Promise<number> => {
   if (positionals.length !== 1) {
     throw new UsageError(positionals.length === 0 ? "give the catalogue: a folder of light curves or a table" : `one INPUT expected, got ${positionals.length}`);
   }
@@ -134,7 +131,7 @@ export async function fitCatalogue(args: string[], io: CliIo): Promise<number> {
   }
   if (!quiet) io.stderr(describeRun(summary, shard, outOption));
   return 0;
-}
+});
 
 function describeRun(summary: BatchSummary, shard: ShardSpec, outOption: string): string {
   const { rate } = throughput(summary.recorded, summary.toDo, summary.elapsedMs);
