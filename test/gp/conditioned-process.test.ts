@@ -5,6 +5,7 @@ import { MAX_COVARIANCE_SIZE, type ConditionedProcess } from "../../src/gp/gp-op
 import { kernels, type Kernel } from "../../src/kernels/index.js";
 import { semiseparablePredict } from "../../src/linalg/semiseparable-smoother.js";
 import { createRng } from "../../src/random/rng.js";
+import { expectSameConditioning } from "../helpers/conditioned-agreement.js";
 import { maxRelativeDifference, randomErrors, seasonalTimes } from "../helpers/seasonal-times.js";
 
 // Reference: DenseGaussianProcess, the dense Cholesky of ml-matrix (a general-purpose linear-algebra
@@ -37,14 +38,7 @@ describe("given(values): the conditioned process against the dense engine", () =
     it(`${name}: at (first and later queries) and covarianceAt agree to 1e-9`, () => {
       const { time, sparse, dense, values } = observed(kernel, `given:${name}`);
       const times = requested(time);
-      const givenSparse = sparse.given(values);
-      const givenDense = dense.given(values);
-      const a = givenSparse.at(times);
-      const b = givenDense.at(times);
-      expect(maxRelativeDifference(a.mean, b.mean)).toBeLessThan(1e-9);
-      expect(maxRelativeDifference(a.variance, b.variance, kernel.variance * 1e-3)).toBeLessThan(1e-9);
-      const covariance = givenSparse.covarianceAt(times);
-      expect(maxRelativeDifference(covariance, givenDense.covarianceAt(times), kernel.variance * 1e-3)).toBeLessThan(1e-9);
+      const { givenEngine: givenSparse, prediction: a, expected: b, covariance } = expectSameConditioning(sparse, dense, values, times, kernel.variance);
       const m = times.length;
       for (let i = 0; i < m; i++) {
         expect(Math.abs(covariance[i * m + i] - a.variance[i])).toBeLessThan(1e-9 * kernel.variance);

@@ -3,6 +3,7 @@ import { GaussianProcess } from "../../src/gp/gaussian-process.js";
 import { kernels, type Kernel } from "../../src/kernels/index.js";
 import { FactorizationError } from "../../src/linalg/factorization-error.js";
 import { createRng } from "../../src/random/rng.js";
+import { centralDifference } from "../helpers/central-difference.js";
 import { randomErrors, seasonalTimes } from "../helpers/seasonal-times.js";
 
 const families: Array<[string, Kernel]> = [
@@ -26,12 +27,7 @@ describe("log-likelihood gradient against central finite differences", () => {
       const g = build(kernel, 1.5, 0.03).logLikelihoodGradient(y);
       const theta = kernel.parameterValues;
       for (let c = 0; c < theta.length; c++) {
-        const h = 1e-5 * theta[c];
-        const up = Float64Array.from(theta);
-        const down = Float64Array.from(theta);
-        up[c] += h;
-        down[c] -= h;
-        const fd = (build(kernel.withParameters(up), 1.5, 0.03).logLikelihood(y) - build(kernel.withParameters(down), 1.5, 0.03).logLikelihood(y)) / (2 * h);
+        const fd = centralDifference((shifted) => build(kernel.withParameters(shifted), 1.5, 0.03).logLikelihood(y), theta, c, 1e-5);
         expect(Math.abs(g.kernel[c] - fd)).toBeLessThan(1e-5 * Math.max(1, Math.abs(fd)));
       }
       const fdMean = (build(kernel, 1.5 + 1e-6, 0.03).logLikelihood(y) - build(kernel, 1.5 - 1e-6, 0.03).logLikelihood(y)) / 2e-6;

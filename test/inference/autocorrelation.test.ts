@@ -1,10 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { createRng } from "../../src/random/rng.js";
-import {
-  autocovariance,
-  chainsAutocorrelationTime,
-  integratedAutocorrelationTime,
-} from "../../src/inference/autocorrelation.js";
+import { autocovariance, chainsAutocorrelationTime, integratedAutocorrelationTime } from "../../src/inference/autocorrelation.js";
 
 /** x_t = phi x_{t-1} + sqrt(1 - phi^2) e_t, started from its stationary distribution N(0, 1). */
 function ar1(phi: number, n: number, seed: number): Float64Array {

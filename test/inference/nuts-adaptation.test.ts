@@ -1,12 +1,6 @@
 import { describe, expect, it } from "vitest";
 import { DualAveraging } from "../../src/inference/dual-averaging.js";
-import {
-  MASS_PRIOR_DRAWS,
-  MIN_WARMUP_WINDOW,
-  planWarmup,
-  WindowSpread,
-  WARMUP_WINDOW_GROWTH,
-} from "../../src/inference/warmup-schedule.js";
+import { MASS_PRIOR_DRAWS, MIN_WARMUP_WINDOW, planWarmup, WindowSpread, WARMUP_WINDOW_GROWTH } from "../../src/inference/warmup-schedule.js";
 import { createRng } from "../../src/random/rng.js";
 
 describe("warm-up plan (the schedule documented at planWarmup)", () => {

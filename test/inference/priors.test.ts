@@ -7,15 +7,7 @@ import logNormalQuantile from "@stdlib/stats/base/dists/lognormal/quantile";
 import uniformLogPdf from "@stdlib/stats/base/dists/uniform/logpdf";
 import uniformQuantile from "@stdlib/stats/base/dists/uniform/quantile";
 import truncatedNormalPdf from "@stdlib/stats/base/dists/truncated-normal/pdf";
-import {
-  halfNormalPrior,
-  logNormalPrior,
-  logUniformPrior,
-  normalPrior,
-  truncatedPrior,
-  uniformPrior,
-  type Prior,
-} from "../../src/inference/priors.js";
+import { halfNormalPrior, logNormalPrior, logUniformPrior, normalPrior, truncatedPrior, uniformPrior, type Prior } from "../../src/inference/priors.js";
 
 const probabilities = [0.001, 0.025, 0.16, 0.5, 0.84, 0.975, 0.999];
 

@@ -1,13 +1,6 @@
 import { describe, expect, it } from "vitest";
 import normalCdf from "@stdlib/stats/base/dists/normal/cdf";
-import {
-  identityTransform,
-  intervalTransform,
-  lowerBoundTransform,
-  transformForSupport,
-  upperBoundTransform,
-  type Transform,
-} from "../../src/inference/transforms.js";
+import { identityTransform, intervalTransform, lowerBoundTransform, transformForSupport, upperBoundTransform, type Transform } from "../../src/inference/transforms.js";
 import { normalPrior, truncatedPrior } from "../../src/inference/priors.js";
 import { simpsonRule } from "./helpers/simpson-rule.js";
 

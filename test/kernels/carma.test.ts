@@ -3,6 +3,7 @@ import { DenseGaussianProcess } from "../../src/gp/dense-gaussian-process.js";
 import { GaussianProcess } from "../../src/gp/gaussian-process.js";
 import { kernels } from "../../src/kernels/index.js";
 import { createRng } from "../../src/random/rng.js";
+import { centralDifference } from "../helpers/central-difference.js";
 import { randomErrors, seasonalTimes } from "../helpers/seasonal-times.js";
 
 type C = [number, number];
@@ -88,15 +89,7 @@ describe("CARMA kernel", () => {
     const g = gp.logLikelihoodGradient(y);
     const theta = kernel.parameterValues;
     for (let c = 0; c < theta.length; c++) {
-      const h = 1e-5 * Math.abs(theta[c]);
-      const up = Float64Array.from(theta);
-      const down = Float64Array.from(theta);
-      up[c] += h;
-      down[c] -= h;
-      const fd =
-        (new GaussianProcess(kernel.withParameters(up), t, { errors }).logLikelihood(y) -
-          new GaussianProcess(kernel.withParameters(down), t, { errors }).logLikelihood(y)) /
-        (2 * h);
+      const fd = centralDifference((shifted) => new GaussianProcess(kernel.withParameters(shifted), t, { errors }).logLikelihood(y), theta, c, 1e-5);
       expect(Math.abs(g.kernel[c] - fd)).toBeLessThan(1e-5 * Math.max(1, Math.abs(fd)));
     }
   });

@@ -1,6 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { autocovarianceFromForm, kernels } from "../../src/kernels/index.js";
 import { formCovarianceDerivatives, formPowerSpectrum } from "../../src/linalg/semiseparable-form.js";
+import { centralDifference } from "../helpers/central-difference.js";
 import { simpson } from "../helpers/quadrature.js";
 
 // Parameter sets from a coherence time of a hundredth of a period to ten thousand periods, with all the
@@ -99,12 +100,7 @@ describe("quasi-periodic kernel", () => {
       for (const lag of [0.3, 1.7, 6].map((x) => x * p.period)) {
         const exact = formCovarianceDerivatives(k.semiseparableForm(), lag);
         for (let c = 0; c < theta.length; c++) {
-          const h = 1e-6 * theta[c];
-          const up = Float64Array.from(theta);
-          const down = Float64Array.from(theta);
-          up[c] += h;
-          down[c] -= h;
-          const fd = (k.withParameters(up).covarianceAt(lag) - k.withParameters(down).covarianceAt(lag)) / (2 * h);
+          const fd = centralDifference((shifted) => k.withParameters(shifted).covarianceAt(lag), theta, c, 1e-6);
           expect(Math.abs(exact[c] - fd)).toBeLessThan(1e-6 * (Math.abs(fd) + k.variance / theta[c]));
         }
       }

@@ -5,7 +5,8 @@ import { gzipSync } from "node:zlib";
 import { parquetWriteBuffer } from "hyparquet-writer";
 import { describe, expect, it } from "vitest";
 import { streamCatalogue, type CatalogueEntry, type CatalogueStreamOptions } from "../../src/lightcurve/catalogue-stream.js";
-import { InputError } from "../../src/errors/input-error.js";
+import type { InputError } from "../../src/errors/input-error.js";
+import { oneLineInputErrorAsync } from "../helpers/one-line-input-error.js";
 import { listLightCurveFiles } from "../../src/lightcurve/list-light-curve-files.js";
 
 const fixture = join(import.meta.dirname, "..", "fixtures", "lightcurves", "lantern-catalogue.csv");
@@ -19,14 +20,10 @@ async function collect(path: string, options: CatalogueStreamOptions): Promise<C
 
 async function streamError(path: string, options: CatalogueStreamOptions): Promise<{ error: InputError; before: string[] }> {
   const before: string[] = [];
-  try {
+  const error = await oneLineInputErrorAsync(async () => {
     for await (const entry of streamCatalogue(path, options)) before.push(entry.id);
-  } catch (error) {
-    expect(error).toBeInstanceOf(InputError);
-    expect((error as Error).message).not.toContain("\n");
-    return { error: error as InputError, before };
-  }
-  throw new Error("expected an InputError");
+  });
+  return { error, before };
 }
 
 function body(id: string, n: number, start = 0): string {

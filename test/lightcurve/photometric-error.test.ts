@@ -1,9 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  photometricError,
-  photometricErrors,
-  randomMagnitudeError,
-} from "../../src/lightcurve/photometric-error.js";
+import { photometricError, photometricErrors, randomMagnitudeError } from "../../src/lightcurve/photometric-error.js";
 
 describe("Ivezic et al. 2019 photometric error (ApJ 873, 111, eq. 5)", () => {
   it("is 0.2 mag at the 5-sigma depth", () => {

@@ -5,6 +5,7 @@ import { gzipSync } from "node:zlib";
 import { describe, expect, it } from "vitest";
 import { parseDelimitedLightCurves } from "../../src/lightcurve/delimited-light-curve.js";
 import { InputError } from "../../src/errors/input-error.js";
+import { oneLineInputError, oneLineInputErrorAsync } from "../helpers/one-line-input-error.js";
 import { readLightCurves } from "../../src/lightcurve/read-light-curves.js";
 
 const fixtures = join(import.meta.dirname, "..", "fixtures", "lightcurves");
@@ -22,29 +23,6 @@ function rows(n: number, start = 0): string {
   let out = "";
   for (let i = 0; i < n; i++) out += `${start + i * 1.5},${(18 + 0.01 * i).toFixed(3)},0.02\n`;
   return out;
-}
-
-/** Runs `fn`, expects an InputError and returns it. */
-function inputError(fn: () => unknown): InputError {
-  try {
-    fn();
-  } catch (error) {
-    expect(error).toBeInstanceOf(InputError);
-    expect((error as Error).message).not.toContain("\n");
-    return error as InputError;
-  }
-  throw new Error("expected an InputError");
-}
-
-async function asyncInputError(promise: Promise<unknown>): Promise<InputError> {
-  try {
-    await promise;
-  } catch (error) {
-    expect(error).toBeInstanceOf(InputError);
-    expect((error as Error).message).not.toContain("\n");
-    return error as InputError;
-  }
-  throw new Error("expected an InputError");
 }
 
 describe("delimited text: layouts", () => {
@@ -155,7 +133,7 @@ describe("delimited text: explicit columns and units", () => {
     // m = -2.5 log10 f + zp; sigma_m = 2.5 / ln 10 * sigma_f / f (Pogson; first-order propagation).
     expect(lc.value[1]).toBeCloseTo(17.5, 12);
     expect(lc.error![0]).toBeCloseTo(0.0108574, 6);
-    const bad = inputError(() => parseDelimitedLightCurves(text.replace("4,10,", "4,-10,"), "f.csv", { convertTo: "mag" }));
+    const bad = oneLineInputError(() => parseDelimitedLightCurves(text.replace("4,10,", "4,-10,"), "f.csv", { convertTo: "mag" }));
     expect(bad.message).toBe('f.csv:5: column "flux": flux -10 is not positive, so it has no magnitude');
   });
 });
@@ -188,7 +166,7 @@ describe("delimited text: missing values, order, bands", () => {
     expect(r.lightCurves).toHaveLength(1);
     expect(r.lightCurves[0].band).toBe("r");
     expect(r.lightCurves[0].time.length).toBe(6);
-    const missing = await asyncInputError(readLightCurves(path, { band: "z" }));
+    const missing = await oneLineInputErrorAsync(() => readLightCurves(path, { band: "z" }));
     expect(missing.message).toBe(`${path}: column "band": no rows for band "z" (bands present: g, r)`);
   });
 
@@ -206,7 +184,7 @@ describe("delimited text: every error path names file, line and column", () => {
   const header = "mjd,mag,err\n";
 
   it("rejects a garbage cell", () => {
-    const e = inputError(() => parseDelimitedLightCurves(header + rows(3) + "7,abc,0.1\n" + rows(3, 10), "g.csv"));
+    const e = oneLineInputError(() => parseDelimitedLightCurves(header + rows(3) + "7,abc,0.1\n" + rows(3, 10), "g.csv"));
     expect(e.message).toBe('g.csv:5: column "mag": "abc" is not a number');
     expect([e.file, e.line, e.column]).toEqual(["g.csv", 5, "mag"]);
     // Number() would read these; a table of observations should not.
@@ -216,51 +194,51 @@ describe("delimited text: every error path names file, line and column", () => {
   });
 
   it("rejects infinities, written or by overflow", () => {
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(5) + "9,inf,0.1\n", "i.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(5) + "9,inf,0.1\n", "i.csv")).message).toBe(
       'i.csv:7: column "mag": "inf" is infinite',
     );
-    expect(inputError(() => parseDelimitedLightCurves(header + "-Infinity,1,0.1\n" + rows(5), "i.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + "-Infinity,1,0.1\n" + rows(5), "i.csv")).message).toBe(
       'i.csv:2: column "mjd": "-Infinity" is infinite',
     );
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(5) + "9,1,1e999\n", "i.csv")).column).toBe("err");
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(5) + "9,1,1e999\n", "i.csv")).column).toBe("err");
   });
 
   it("rejects zero and negative errors", () => {
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(5) + "9,18,0\n", "e.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(5) + "9,18,0\n", "e.csv")).message).toBe(
       'e.csv:7: column "err": error 0 is not positive',
     );
-    expect(inputError(() => parseDelimitedLightCurves(header + "9,18,-0.1\n" + rows(5), "e.csv")).line).toBe(2);
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + "9,18,-0.1\n" + rows(5), "e.csv")).line).toBe(2);
   });
 
   it("rejects too few points, counting the dropped ones", () => {
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(4), "f.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(4), "f.csv")).message).toBe(
       "f.csv: only 4 usable point(s); at least 5 are needed",
     );
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(4) + "9,,0.1\n", "f.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(4) + "9,,0.1\n", "f.csv")).message).toBe(
       "f.csv: only 4 usable point(s) after dropping 1 with missing values; at least 5 are needed",
     );
     expect(parseDelimitedLightCurves(header + rows(4), "f.csv", { minimumPoints: 4 }).lightCurves[0].time.length).toBe(4);
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(5), "f.csv", { minimumPoints: 1 })).message).toMatch(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(5), "f.csv", { minimumPoints: 1 })).message).toMatch(
       /minimum number of points/,
     );
     const bands = "mjd,band,mag,err\n1,g,1,0.1\n2,g,1,0.1\n3,g,1,0.1\n1,r,1,0.1\n2,r,1,0.1\n";
-    expect(inputError(() => parseDelimitedLightCurves(bands, "b.csv", { minimumPoints: 3 })).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(bands, "b.csv", { minimumPoints: 3 })).message).toBe(
       'b.csv: band "r": only 2 usable point(s); at least 3 are needed',
     );
   });
 
   it("rejects a light curve with no spread in time", () => {
     const text = header + "7,1,0.1\n7,2,0.1\n7,3,0.1\n7,4,0.1\n7,5,0.1\n";
-    expect(inputError(() => parseDelimitedLightCurves(text, "s.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(text, "s.csv")).message).toBe(
       's.csv: column "mjd": all 5 times are equal (7); a light curve needs a time span',
     );
   });
 
   it("rejects ragged rows", () => {
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(3) + "9,18\n" + rows(3, 20), "r.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(3) + "9,18\n" + rows(3, 20), "r.csv")).message).toBe(
       'r.csv:5: column "err": only 2 field(s), expected 3',
     );
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(3) + "9,18,0.1,4\n" + rows(3, 20), "r.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(3) + "9,18,0.1,4\n" + rows(3, 20), "r.csv")).message).toBe(
       "r.csv:5: 4 fields, expected 3",
     );
     // A trailing delimiter is tolerated.
@@ -268,41 +246,41 @@ describe("delimited text: every error path names file, line and column", () => {
   });
 
   it("rejects unknown explicit columns, listing the columns", () => {
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(5), "c.csv", { valueColumn: "flux" })).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(5), "c.csv", { valueColumn: "flux" })).message).toBe(
       'c.csv: no value column "flux" (columns: "mjd", "mag", "err")',
     );
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(5), "c.csv", { bandColumn: "9" })).message).toMatch(/no band column "9"/);
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(5), "c.csv", { bandColumn: "9" })).message).toMatch(/no band column "9"/);
   });
 
   it("rejects a table without a recognisable time or value column", () => {
-    expect(inputError(() => parseDelimitedLightCurves("epoch,mag\n" + rows(5), "n.csv")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves("epoch,mag\n" + rows(5), "n.csv")).message).toBe(
       'n.csv: no time column recognised (looked for time/mjd/jd/bjd/t; columns: "epoch", "mag"); name one with --time-col',
     );
-    expect(inputError(() => parseDelimitedLightCurves("mjd,counts\n" + rows(5), "n.csv")).message).toMatch(/no value column recognised.*--value-col/);
-    expect(inputError(() => parseDelimitedLightCurves("mjd,mag\n" + rows(5), "n.csv", { valueColumn: "mjd" })).message).toMatch(/same column/);
+    expect(oneLineInputError(() => parseDelimitedLightCurves("mjd,counts\n" + rows(5), "n.csv")).message).toMatch(/no value column recognised.*--value-col/);
+    expect(oneLineInputError(() => parseDelimitedLightCurves("mjd,mag\n" + rows(5), "n.csv", { valueColumn: "mjd" })).message).toMatch(/same column/);
   });
 
   it("rejects a single-column file, an empty file, a header without data", () => {
-    expect(inputError(() => parseDelimitedLightCurves("1\n2\n3\n", "one.txt")).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves("1\n2\n3\n", "one.txt")).message).toBe(
       "one.txt:1: found fewer than two columns (expected at least time and value, separated by commas, tabs, semicolons, bars or spaces)",
     );
-    expect(inputError(() => parseDelimitedLightCurves("# only a comment\n\n", "empty.csv")).message).toBe("empty.csv: the file has no data lines");
-    expect(inputError(() => parseDelimitedLightCurves("", "empty.csv")).message).toBe("empty.csv: the file has no data lines");
-    expect(inputError(() => parseDelimitedLightCurves(header, "h.csv")).message).toBe("h.csv: no data rows (at least 5 points are needed)");
+    expect(oneLineInputError(() => parseDelimitedLightCurves("# only a comment\n\n", "empty.csv")).message).toBe("empty.csv: the file has no data lines");
+    expect(oneLineInputError(() => parseDelimitedLightCurves("", "empty.csv")).message).toBe("empty.csv: the file has no data lines");
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header, "h.csv")).message).toBe("h.csv: no data rows (at least 5 points are needed)");
   });
 
   it("rejects a band request on a table with no band column", () => {
-    expect(inputError(() => parseDelimitedLightCurves(header + rows(5), "b.csv", { band: "g" })).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves(header + rows(5), "b.csv", { band: "g" })).message).toBe(
       'b.csv: a band ("g") was asked for but the table has no band column',
     );
   });
 
   it("reports missing and unreadable files", async () => {
     const missing = join(scratch, "nope.csv");
-    expect((await asyncInputError(readLightCurves(missing))).message).toBe(`${missing}: cannot read the file (no such file)`);
-    expect((await asyncInputError(readLightCurves(scratch))).message).toMatch(/it is a folder/);
+    expect((await oneLineInputErrorAsync(() => readLightCurves(missing))).message).toBe(`${missing}: cannot read the file (no such file)`);
+    expect((await oneLineInputErrorAsync(() => readLightCurves(scratch))).message).toMatch(/it is a folder/);
     const badGzip = scratchFile("bad.csv.gz", "not gzip at all");
-    expect((await asyncInputError(readLightCurves(badGzip))).message).toBe(`${badGzip}: the file is not valid gzip data`);
+    expect((await oneLineInputErrorAsync(() => readLightCurves(badGzip))).message).toBe(`${badGzip}: the file is not valid gzip data`);
   });
 });
 
@@ -322,14 +300,14 @@ describe("readLightCurves: compression and sniffing", () => {
 
 describe("delimited text: remaining error paths", () => {
   it("rejects a forced delimiter that does not split the table", () => {
-    expect(inputError(() => parseDelimitedLightCurves("mjd,mag,err\n" + rows(5), "d.txt", { delimiter: "\t" })).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves("mjd,mag,err\n" + rows(5), "d.txt", { delimiter: "\t" })).message).toBe(
       "d.txt:1: found fewer than two columns (expected at least time and value, separated by commas, tabs, semicolons, bars or spaces)",
     );
     expect(parseDelimitedLightCurves("mjd|mag|err\n" + rows(5).replace(/,/g, "|"), "d.txt", { delimiter: "|" }).lightCurves).toHaveLength(1);
   });
 
   it("rejects an error column that is also the time or value column", () => {
-    expect(inputError(() => parseDelimitedLightCurves("mjd,mag,err\n" + rows(5), "c.csv", { errorColumn: "mag" })).message).toBe(
+    expect(oneLineInputError(() => parseDelimitedLightCurves("mjd,mag,err\n" + rows(5), "c.csv", { errorColumn: "mag" })).message).toBe(
       'c.csv: column "mag": the error column is also chosen as time or value column',
     );
   });

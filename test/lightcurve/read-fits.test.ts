@@ -5,8 +5,9 @@ import { gzipSync } from "node:zlib";
 import { describe, expect, it } from "vitest";
 import { parseFitsBinaryTables } from "../../src/lightcurve/fits-binary-table.js";
 import { parseFitsLightCurves } from "../../src/lightcurve/fits-light-curve.js";
-import { InputError } from "../../src/errors/input-error.js";
+import type { InputError } from "../../src/errors/input-error.js";
 import { readLightCurves } from "../../src/lightcurve/read-light-curves.js";
+import { oneLineInputError } from "../helpers/one-line-input-error.js";
 import { bintableHdu, card, concat, headerBytes, primaryHdu, type ColumnSpec } from "./fits-builder.js";
 
 const mjd = [59000.5, 59001.5, 59003.25, 59007.75, 59010.125, 59012.5];
@@ -26,14 +27,7 @@ function fits(columns: ColumnSpec[], options?: Parameters<typeof bintableHdu>[1]
 }
 
 function fitsError(bytes: Uint8Array, options = {}): InputError {
-  try {
-    parseFitsLightCurves(bytes, "t.fits", options);
-  } catch (error) {
-    expect(error).toBeInstanceOf(InputError);
-    expect((error as Error).message).not.toContain("\n");
-    return error as InputError;
-  }
-  throw new Error("expected an InputError");
+  return oneLineInputError(() => parseFitsLightCurves(bytes, "t.fits", options));
 }
 
 describe("FITS test files follow the standard's layout", () => {

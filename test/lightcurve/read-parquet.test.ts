@@ -3,7 +3,8 @@ import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { parquetWriteBuffer } from "hyparquet-writer";
 import { describe, expect, it } from "vitest";
-import { InputError } from "../../src/errors/input-error.js";
+import type { InputError } from "../../src/errors/input-error.js";
+import { oneLineInputErrorAsync } from "../helpers/one-line-input-error.js";
 import { parseParquetLightCurves } from "../../src/lightcurve/parquet-light-curve.js";
 import { readLightCurves } from "../../src/lightcurve/read-light-curves.js";
 
@@ -23,15 +24,8 @@ function basic(): Column[] {
   ];
 }
 
-async function parquetError(bytes: Uint8Array, options = {}): Promise<InputError> {
-  try {
-    await parseParquetLightCurves(bytes, "t.parquet", options);
-  } catch (error) {
-    expect(error).toBeInstanceOf(InputError);
-    expect((error as Error).message).not.toContain("\n");
-    return error as InputError;
-  }
-  throw new Error("expected an InputError");
+function parquetError(bytes: Uint8Array, options = {}): Promise<InputError> {
+  return oneLineInputErrorAsync(() => parseParquetLightCurves(bytes, "t.parquet", options));
 }
 
 describe("Parquet light curves", () => {

@@ -1,12 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  convertLightCurve,
-  fluxErrorToMagnitudeError,
-  fluxToMagnitude,
-  magnitudeErrorToFluxError,
-  magnitudeToFlux,
-  POGSON_ERROR_FACTOR,
-} from "../../src/lightcurve/units.js";
+import { convertLightCurve, fluxErrorToMagnitudeError, fluxToMagnitude, magnitudeErrorToFluxError, magnitudeToFlux, POGSON_ERROR_FACTOR } from "../../src/lightcurve/units.js";
 import type { LightCurve } from "../../src/lightcurve/light-curve.js";
 
 describe("magnitude and flux units", () => {

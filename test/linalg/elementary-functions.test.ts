@@ -1,13 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  cosineAndSine,
-  cosineAndSineSource,
-  decayFactor,
-  decayFactorSource,
-  exponential,
-  EXPONENTIAL_TABLE_NAMES,
-  EXPONENTIAL_TABLES,
-} from "../../src/linalg/elementary-functions.js";
+import { cosineAndSine, cosineAndSineSource, decayFactor, decayFactorSource, exponential, EXPONENTIAL_TABLE_NAMES, EXPONENTIAL_TABLES } from "../../src/linalg/elementary-functions.js";
 import { coshSeries, hyperbolicSeriesSource, sinhSeries } from "../../src/linalg/oscillator-transition.js";
 import { createRng } from "../../src/random/rng.js";
 

@@ -1,13 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  absorbPivot,
-  absorbPivotSource,
-  logDeterminantOf,
-  PIVOT_SCALE_DOWN,
-  PIVOT_SCALE_UP,
-  PRODUCT_SCALE_DOWN,
-  PRODUCT_SCALE_UP,
-} from "../../src/linalg/pivot-product.js";
+import { absorbPivot, absorbPivotSource, logDeterminantOf, PIVOT_SCALE_DOWN, PIVOT_SCALE_UP, PRODUCT_SCALE_DOWN, PRODUCT_SCALE_UP } from "../../src/linalg/pivot-product.js";
 import { createRng } from "../../src/random/rng.js";
 
 // Reference: the plain sum of Math.log over the pivots (what the running product replaces).

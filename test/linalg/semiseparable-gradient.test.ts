@@ -9,26 +9,12 @@ import type { SemiseparableForm } from "../../src/linalg/semiseparable-form.js";
 import { semiseparableLogLikelihood } from "../../src/linalg/semiseparable-likelihood.js";
 import { unrolledRecursion } from "../../src/linalg/unrolled-recursion.js";
 import { createRng } from "../../src/random/rng.js";
+import { BLOCK_LAYOUT_CASES } from "../helpers/kernel-cases.js";
 import { randomErrors, seasonalTimes } from "../helpers/seasonal-times.js";
 
 // Every kernel family, one layout of blocks each (the products run the general loops only).
 const families: Array<[string, Kernel]> = [
-  ["damped random walk [1]", kernels.dampedRandomWalk({ sigma: 0.3, tau: 120 })],
-  ["oscillator Q > 1/2 [2]", kernels.oscillator({ sigma: 0.2, period: 37, quality: 6 })],
-  ["oscillator Q < 1/2 [2]", kernels.oscillator({ sigma: 0.2, period: 90, quality: 0.3 })],
-  ["oscillator Q = 1/2 [2]", kernels.oscillator({ sigma: 0.2, period: 60, quality: 0.5 })],
-  ["matern32 [2]", kernels.matern32({ sigma: 0.15, scale: 15 })],
-  ["quasi-periodic [2, 2]", kernels.quasiPeriodic({ sigma: 0.1, period: 7.3, decayTime: 12, harmonicWeight: 0.35 })],
-  [
-    "quasi-periodic + damped random walk [2, 2, 1]",
-    kernels.quasiPeriodic({ sigma: 0.1, period: 23.4, decayTime: 30, harmonicWeight: 0.2 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 400 })),
-  ],
-  ["CARMA(3, 1) [2, 1]", kernels.carma({ sigma: 0.2, oscillations: [{ period: 30, quality: 2 }], timescales: [80], movingAverage: [5] })],
-  [
-    "damped random walks [1, 1, 1]",
-    kernels.dampedRandomWalk({ sigma: 0.1, tau: 5 }).plus(kernels.dampedRandomWalk({ sigma: 0.2, tau: 50 })).plus(kernels.dampedRandomWalk({ sigma: 0.3, tau: 500 })),
-  ],
-  ["oscillator x damped random walk [2, called]", kernels.oscillator({ sigma: 0.5, period: 40, quality: 3 }).times(kernels.dampedRandomWalk({ sigma: 0.4, tau: 200 }))],
+  ...BLOCK_LAYOUT_CASES,
   ["oscillator x oscillator [4, general loops only]", kernels.oscillator({ sigma: 0.5, period: 40, quality: 3 }).times(kernels.oscillator({ sigma: 1, period: 9, quality: 2 }))],
 ];
 

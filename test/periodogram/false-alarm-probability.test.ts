@@ -1,13 +1,7 @@
 import kstest from "@stdlib/stats/kstest";
 import { describe, expect, it } from "vitest";
 import { bootstrapFalseAlarm } from "../../src/periodogram/bootstrap-false-alarm.js";
-import {
-  baluevFalseAlarm,
-  baluevFalseAlarmBound,
-  baluevPowerLevel,
-  singleFrequencyFalseAlarm,
-  timeVariance,
-} from "../../src/periodogram/false-alarm-probability.js";
+import { baluevFalseAlarm, baluevFalseAlarmBound, baluevPowerLevel, singleFrequencyFalseAlarm, timeVariance } from "../../src/periodogram/false-alarm-probability.js";
 import { automaticFrequencyGrid } from "../../src/periodogram/frequency-grid.js";
 import { glsPower, glsPowerAt } from "../../src/periodogram/generalised-lomb-scargle.js";
 import { childSeed, createRng, type Rng } from "../../src/random/rng.js";

@@ -1,10 +1,5 @@
 import { describe, expect, it } from "vitest";
-import {
-  formatAtDigit,
-  formatMeasurement,
-  formatSignificant,
-  lastDigitPower,
-} from "../../src/report/format-measurement.js";
+import { formatAtDigit, formatMeasurement, formatSignificant, lastDigitPower } from "../../src/report/format-measurement.js";
 
 describe("lastDigitPower (Particle Data Group rounding rule)", () => {
   // Particle Data Group, Review of Particle Physics, Introduction, "Rounding": leading three digits of the
