@@ -48,6 +48,7 @@ export function inventedFitResult(patch: Partial<FitResult> = {}): FitResult {
       acceptance: 0.41,
       likelihoodEvaluations: 96000,
       seconds: 4.2,
+      method: "ensemble",
       sampler: "ensemble",
       stopReason: "converged",
     },

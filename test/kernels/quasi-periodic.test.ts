@@ -71,7 +71,7 @@ describe("quasi-periodic kernel", () => {
       for (const lag of [0, 0.01, 0.5, 2, 9.5, 40].map((x) => x * p.period)) {
         expect(Math.abs(autocovarianceFromForm(k, lag) - k.covarianceAt(lag))).toBeLessThan(1e-13 * k.variance);
       }
-      const form = k.semiseparableForm();
+      const form = k.semiseparableForm()!;
       const w = (2 * Math.PI) / p.period;
       for (const omega of [0, 0.1 * w, w, 2 * w, 30 * w]) {
         const closed = k.spectralDensityAt(omega);
@@ -82,7 +82,7 @@ describe("quasi-periodic kernel", () => {
 
   it("its two blocks oscillate at exactly period and period / 2 and decay at 1 / decayTime", () => {
     const k = kernels.quasiPeriodic({ sigma: 1, period: 11.3, decayTime: 9, harmonicWeight: 0.3 });
-    for (const [i, block] of k.semiseparableForm().blocks.entries()) {
+    for (const [i, block] of k.semiseparableForm()!.blocks.entries()) {
       // Eigenvalues of a 2 x 2 drift: tr / 2 +/- i sqrt(4 det - tr^2) / 2 (common practice).
       const [a, b, c, d] = block.generator;
       const tr = a + d;
@@ -98,7 +98,7 @@ describe("quasi-periodic kernel", () => {
       const k = kernels.quasiPeriodic({ ...p, harmonicWeight: Math.min(Math.max(p.harmonicWeight, 0.1), 0.9) });
       const theta = k.parameterValues;
       for (const lag of [0.3, 1.7, 6].map((x) => x * p.period)) {
-        const exact = formCovarianceDerivatives(k.semiseparableForm(), lag);
+        const exact = formCovarianceDerivatives(k.semiseparableForm()!, lag);
         for (let c = 0; c < theta.length; c++) {
           const fd = centralDifference((shifted) => k.withParameters(shifted).covarianceAt(lag), theta, c, 1e-6);
           expect(Math.abs(exact[c] - fd)).toBeLessThan(1e-6 * (Math.abs(fd) + k.variance / theta[c]));

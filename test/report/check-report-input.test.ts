@@ -10,7 +10,7 @@ describe("checkReportInput", () => {
     expect(() => checkReportInput(input)).not.toThrow();
   });
   it("names mismatched prediction and spectrum columns", () => {
-    const shortSd = { ...input, prediction: { ...input.prediction, sd: input.prediction.sd.subarray(1) } };
+    const shortSd = { ...input, prediction: { ...input.prediction, sd: Array.from(input.prediction.sd).slice(1) } };
     expect(() => checkReportInput(shortSd)).toThrow(/prediction\.sd has 399 values, prediction\.time has 400/);
     const badBand = { ...input, psdBand: { ...input.psdBand!, upper: [1, 2] } };
     expect(() => reportFigures(badBand)).toThrow(/psdBand\.upper has 2 values/);
