@@ -927,7 +927,7 @@ static double evaluate(const term_t *terms, int term_count, const data_t *data) 
   }
   double result = recursion(&form, n, time, noise, data->value, data->mean);
   /* The values are checked only when the result is not finite (a value that is not finite makes it so), as
-     the TypeScript evaluateValues does: no separate pass over them. */
+     the TypeScript evaluateWithDeferredValueCheck does: no separate pass over them. */
   if (!isfinite(result))
     for (size_t i = 0; i < n; i++)
       if (!isfinite(data->value[i])) die("value is not finite", NULL);

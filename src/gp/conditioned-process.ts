@@ -5,15 +5,9 @@ import { SemiseparableConditionedStates } from "../linalg/semiseparable-conditio
 import { SemiseparableCrossProduct } from "../linalg/semiseparable-cross-product.js";
 import { semiseparablePredict, type LatentPrediction } from "../linalg/semiseparable-smoother.js";
 import type { Rng } from "../random/rng.js";
-import {
-  checkCovarianceSize,
-  checkTargets,
-  residualOf,
-  sortTargets,
-  type ConditionedInputs,
-  type ConditionedProcess,
-  type MeanAndVariance,
-} from "./gp-options.js";
+import { residualOf, type ConditionedInputs } from "./conditioned-inputs.js";
+import { checkCovarianceSize, type ConditionedProcess, type MeanAndVariance } from "./process-interface.js";
+import { checkTargets, sortTargets } from "./target-times.js";
 import { priorFactorization, semiseparablePriorDraw } from "./semiseparable-prior-draw.js";
 
 /**

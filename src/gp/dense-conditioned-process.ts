@@ -2,14 +2,9 @@ import { Matrix } from "ml-matrix";
 import type { Kernel } from "../kernels/kernel.js";
 import { DenseCholesky } from "../linalg/dense-cholesky.js";
 import type { Rng } from "../random/rng.js";
-import {
-  checkCovarianceSize,
-  checkTargets,
-  residualOf,
-  type ConditionedInputs,
-  type ConditionedProcess,
-  type MeanAndVariance,
-} from "./gp-options.js";
+import { residualOf, type ConditionedInputs } from "./conditioned-inputs.js";
+import { checkCovarianceSize, type ConditionedProcess, type MeanAndVariance } from "./process-interface.js";
+import { checkTargets } from "./target-times.js";
 import { DRAW_JITTER } from "./semiseparable-prior-draw.js";
 
 /** The conditional mean and covariance factor at the times of the last draw. */

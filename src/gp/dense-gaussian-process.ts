@@ -4,13 +4,8 @@ import { DenseCholesky } from "../linalg/dense-cholesky.js";
 import { formCovarianceDerivatives } from "../linalg/semiseparable-form.js";
 import { HALF_LOG_TWO_PI } from "../numerics/gaussian-constants.js";
 import type { Rng } from "../random/rng.js";
-import {
-  conditionInputs,
-  residualOf,
-  type ConditionedInputs,
-  type GaussianProcessOptions,
-  type GradientResult,
-} from "./gp-options.js";
+import { conditionInputs, residualOf, type ConditionedInputs } from "./conditioned-inputs.js";
+import type { GaussianProcessOptions, GradientResult } from "./process-interface.js";
 import { DenseConditionedProcess } from "./dense-conditioned-process.js";
 import { DRAW_JITTER } from "./semiseparable-prior-draw.js";
 

@@ -6,15 +6,8 @@ import { semiseparableLogLikelihoodGradient } from "../linalg/semiseparable-grad
 import { semiseparableLogLikelihood } from "../linalg/semiseparable-likelihood.js";
 import type { Rng } from "../random/rng.js";
 import { SemiseparableConditionedProcess } from "./conditioned-process.js";
-import {
-  conditionInputs,
-  evaluateValues,
-  residualOf,
-  withMeanAndJitter,
-  type ConditionedInputs,
-  type GaussianProcessOptions,
-  type GradientResult,
-} from "./gp-options.js";
+import { conditionInputs, evaluateWithDeferredValueCheck, residualOf, withMeanAndJitter, type ConditionedInputs } from "./conditioned-inputs.js";
+import type { GaussianProcessOptions, GradientResult } from "./process-interface.js";
 import { priorFactorization, semiseparablePriorDraw } from "./semiseparable-prior-draw.js";
 
 /**
@@ -85,7 +78,7 @@ export class GaussianProcess {
   /** log N(values | mean, K + diag(errors^2 + jitter^2)), in one O(N R^2) pass with O(R^2) memory. */
   logLikelihood(values: ArrayLike<number>): number {
     const { time, noiseVariance, mean } = this.inputs;
-    return evaluateValues(values, this.inputs, () => semiseparableLogLikelihood(this.form, time, noiseVariance, values, { mean }));
+    return evaluateWithDeferredValueCheck(values, this.inputs, () => semiseparableLogLikelihood(this.form, time, noiseVariance, values, { mean }));
   }
 
   /**
@@ -95,7 +88,7 @@ export class GaussianProcess {
    */
   meanMarginal(values: ArrayLike<number>, prior: MeanPrior): MeanMarginal {
     const { time, noiseVariance } = this.inputs;
-    return evaluateValues(values, this.inputs, () => semiseparableMeanMarginal(this.form, time, noiseVariance, values, prior));
+    return evaluateWithDeferredValueCheck(values, this.inputs, () => semiseparableMeanMarginal(this.form, time, noiseVariance, values, prior));
   }
 
   /**
@@ -104,7 +97,7 @@ export class GaussianProcess {
    */
   logLikelihoodGradient(values: ArrayLike<number>): GradientResult {
     const { time, noiseVariance, mean, gradientWorkspace: workspace } = this.inputs;
-    const result = evaluateValues(values, this.inputs, () =>
+    const result = evaluateWithDeferredValueCheck(values, this.inputs, () =>
       semiseparableLogLikelihoodGradient(this.form, time, noiseVariance, values, { mean, pointwise: false, workspace }),
     );
     return { value: result.value, kernel: result.kernel, mean: -result.residualSum, jitter: 2 * this.inputs.jitter * result.noiseVarianceSum };

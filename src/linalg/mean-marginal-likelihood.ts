@@ -2,8 +2,7 @@ import { FactorizationError } from "./factorization-error.js";
 import { SemiseparableFactorization } from "./semiseparable-factorization.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import { runUnrolled, unrolledRecursion } from "./unrolled-recursion.js";
-
-const LOG_TWO_PI = Math.log(2 * Math.PI);
+import { LOG_TWO_PI } from "../numerics/gaussian-constants.js";
 
 /** A normal prior on the constant mean of a Gaussian process. */
 export interface MeanPrior {

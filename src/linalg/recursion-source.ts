@@ -19,7 +19,10 @@ export function adjointKindOf(kind: BlockKind): AdjointKind {
   return kind === "exponential" || kind === "oscillator" ? kind : "generic";
 }
 
-/** Slots of the running scalars carried from chunk to chunk (the last three only with a constant column). */
+/**
+ * Slots of the running scalars carried from chunk to chunk, for the written-out code and the general loop
+ * of semiseparable-likelihood.ts alike (the last three only with a constant column).
+ */
 export const SCALAR_SLOTS = {
   previousInverse: 0,
   previousZ: 1,

@@ -7,8 +7,7 @@ import { generalLoop } from "./semiseparable-likelihood.js";
 import { finishBlockAdjoint } from "./transition-adjoints.js";
 import { TransitionLayout } from "./transition-layout.js";
 import { RECURSION_CHUNK, runUnrolled, unrolledRecursion, type RecursionTotals } from "./unrolled-recursion.js";
-
-const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
+import { HALF_LOG_TWO_PI } from "../numerics/gaussian-constants.js";
 
 /** The log-likelihood and its gradient with respect to the kernel parameters, the noise and the data. */
 export interface LikelihoodGradient {

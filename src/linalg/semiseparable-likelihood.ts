@@ -4,9 +4,9 @@ import { absorbPivot } from "./pivot-product.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import { projectState, stepState } from "./state-update.js";
 import { TransitionLayout } from "./transition-layout.js";
-import { initialScalars, RECURSION_CHUNK, recursionTotals, runUnrolled, SLOT, unrolledRecursion, type RecursionTotals } from "./unrolled-recursion.js";
-
-const HALF_LOG_TWO_PI = 0.5 * Math.log(2 * Math.PI);
+import { SCALAR_SLOTS } from "./recursion-source.js";
+import { initialScalars, RECURSION_CHUNK, recursionTotals, runUnrolled, unrolledRecursion, type RecursionTotals } from "./unrolled-recursion.js";
+import { HALF_LOG_TWO_PI } from "../numerics/gaussian-constants.js";
 
 /**
  * The Gaussian log-likelihood log N(r | 0, K + diag(noise)) for a semiseparable kernel, in one pass and
@@ -99,9 +99,9 @@ export function advance(
   let variance = 0;
   for (let i = 0; i < r; i++) variance += p[i] * q[i];
   const projection = new Float64Array(2);
-  let previousInverse = scalars[SLOT.previousInverse];
-  let previousZ = scalars[SLOT.previousZ];
-  let quadratic = scalars[SLOT.quadratic];
+  let previousInverse = scalars[SCALAR_SLOTS.previousInverse];
+  let previousZ = scalars[SCALAR_SLOTS.previousZ];
+  let quadratic = scalars[SCALAR_SLOTS.quadratic];
   let k = begin;
   const record = recorder && ((dt: number) => recordBeforeTransition(recorder, layout, k, s, f, dt));
   for (; k < end; k++) {
@@ -116,10 +116,10 @@ export function advance(
     previousInverse = 1 / pivot;
     previousZ = z;
     quadratic += z * z * previousInverse;
-    absorbPivot(pivot, scalars, SLOT.product, SLOT.exponent);
+    absorbPivot(pivot, scalars, SCALAR_SLOTS.product, SCALAR_SLOTS.exponent);
     if (recorder) recordAfterProjection(recorder, k, s, f, u, previousInverse, z);
   }
-  scalars[SLOT.previousInverse] = previousInverse;
-  scalars[SLOT.previousZ] = previousZ;
-  scalars[SLOT.quadratic] = quadratic;
+  scalars[SCALAR_SLOTS.previousInverse] = previousInverse;
+  scalars[SCALAR_SLOTS.previousZ] = previousZ;
+  scalars[SCALAR_SLOTS.quadratic] = quadratic;
 }

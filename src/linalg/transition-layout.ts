@@ -50,54 +50,12 @@ export class TransitionLayout {
 
   /** vector <- Phi vector, in place (vector of length R at `offset`). */
   applyToVector(vector: Float64Array, offset: number): void {
-    const { blockStart, blockSize, phiStart, phi } = this;
-    for (let b = 0; b < blockStart.length; b++) {
-      const m = blockSize[b];
-      const s = offset + blockStart[b];
-      const p = phiStart[b];
-      if (m === 1) {
-        vector[s] *= phi[p];
-      } else if (m === 2) {
-        const x0 = vector[s];
-        const x1 = vector[s + 1];
-        vector[s] = phi[p] * x0 + phi[p + 1] * x1;
-        vector[s + 1] = phi[p + 2] * x0 + phi[p + 3] * x1;
-      } else {
-        const tmp = this.scratch;
-        for (let i = 0; i < m; i++) tmp[i] = vector[s + i];
-        for (let i = 0; i < m; i++) {
-          let acc = 0;
-          for (let j = 0; j < m; j++) acc += phi[p + i * m + j] * tmp[j];
-          vector[s + i] = acc;
-        }
-      }
-    }
+    this.applyStrided(vector, offset, 1, false);
   }
 
   /** vector <- Phi^T vector, in place. */
   applyTransposeToVector(vector: Float64Array, offset: number): void {
-    const { blockStart, blockSize, phiStart, phi } = this;
-    for (let b = 0; b < blockStart.length; b++) {
-      const m = blockSize[b];
-      const s = offset + blockStart[b];
-      const p = phiStart[b];
-      if (m === 1) {
-        vector[s] *= phi[p];
-      } else if (m === 2) {
-        const x0 = vector[s];
-        const x1 = vector[s + 1];
-        vector[s] = phi[p] * x0 + phi[p + 2] * x1;
-        vector[s + 1] = phi[p + 1] * x0 + phi[p + 3] * x1;
-      } else {
-        const tmp = this.scratch;
-        for (let i = 0; i < m; i++) tmp[i] = vector[s + i];
-        for (let i = 0; i < m; i++) {
-          let acc = 0;
-          for (let j = 0; j < m; j++) acc += phi[p + j * m + i] * tmp[j];
-          vector[s + i] = acc;
-        }
-      }
-    }
+    this.applyStrided(vector, offset, 1, true);
   }
 
   /** matrix <- Phi matrix Phi^T, in place (R x R row-major at `offset`). */
@@ -192,7 +150,10 @@ export class TransitionLayout {
     }
   }
 
-  /** Applies Phi (or Phi^T) to the strided vector matrix[start + k stride], k = 0..R-1. */
+  /**
+   * Applies Phi (or Phi^T) in place to the strided vector matrix[start + k stride], k = 0..R-1: a column of
+   * a matrix (stride R) or, with stride 1, a vector or a row.
+   */
   private applyStrided(matrix: Float64Array, start: number, stride: number, transpose: boolean): void {
     const { blockStart, blockSize, phiStart, phi } = this;
     for (let b = 0; b < blockStart.length; b++) {

@@ -45,12 +45,6 @@ export const MAX_UNROLLED_DIMENSION = 10;
  */
 export const RECURSION_CHUNK = 2048;
 
-/**
- * Slots of the running scalars carried from chunk to chunk, for the written-out code and the general loop
- * of semiseparable-likelihood.ts alike (the last three only with a constant column).
- */
-export const SLOT = SCALAR_SLOTS;
-
 /** Length of the `state` array of a recursion of dimension `r`: S (r x r), f, u and, with a constant column, g. */
 function stateLength(r: number, constantColumn: boolean): number {
   return r * r + (constantColumn ? 3 : 2) * r;
@@ -59,7 +53,7 @@ function stateLength(r: number, constantColumn: boolean): number {
 /** A fresh array of running scalars (the pivot product starts at 1). */
 export function initialScalars(): Float64Array {
   const scalars = new Float64Array(SCALAR_NAMES.length + COLUMN_SCALAR_NAMES.length);
-  scalars[SLOT.product] = 1;
+  scalars[SCALAR_SLOTS.product] = 1;
   return scalars;
 }
 
@@ -74,10 +68,10 @@ export interface RecursionTotals {
 /** The totals of a finished pass from its running scalars (the log-determinant from the pivot product, pivot-product.ts). */
 export function recursionTotals(scalars: Float64Array): RecursionTotals {
   return {
-    quadratic: scalars[SLOT.quadratic],
-    logDeterminant: logDeterminantOf(scalars[SLOT.product], scalars[SLOT.exponent]),
-    columnQuadratic: scalars[SLOT.columnQuadratic],
-    crossQuadratic: scalars[SLOT.crossQuadratic],
+    quadratic: scalars[SCALAR_SLOTS.quadratic],
+    logDeterminant: logDeterminantOf(scalars[SCALAR_SLOTS.product], scalars[SCALAR_SLOTS.exponent]),
+    columnQuadratic: scalars[SCALAR_SLOTS.columnQuadratic],
+    crossQuadratic: scalars[SCALAR_SLOTS.crossQuadratic],
   };
 }
 

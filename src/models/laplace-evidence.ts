@@ -1,5 +1,6 @@
 import { CholeskyDecomposition, Matrix } from "ml-matrix";
 import type { PosteriorTarget } from "../inference/index.js";
+import { HALF_LOG_TWO_PI } from "../numerics/gaussian-constants.js";
 
 /** The Laplace approximation of a log evidence at a mode. */
 export interface LaplaceEvidence {
@@ -56,5 +57,5 @@ export function laplaceLogEvidence(target: PosteriorTarget, mode: Float64Array, 
   const lower = cholesky.lowerTriangularMatrix;
   let logDet = 0;
   for (let i = 0; i < d; i++) logDet += 2 * Math.log(lower.get(i, i));
-  return { logEvidence: value + 0.5 * d * Math.log(2 * Math.PI) - 0.5 * logDet, positiveDefinite: true };
+  return { logEvidence: value + d * HALF_LOG_TWO_PI - 0.5 * logDet, positiveDefinite: true };
 }

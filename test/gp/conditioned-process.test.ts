@@ -1,7 +1,7 @@
 import { describe, expect, it } from "vitest";
 import { DenseGaussianProcess } from "../../src/gp/dense-gaussian-process.js";
 import { GaussianProcess } from "../../src/gp/gaussian-process.js";
-import { MAX_COVARIANCE_SIZE, type ConditionedProcess } from "../../src/gp/gp-options.js";
+import { MAX_COVARIANCE_SIZE, type ConditionedProcess } from "../../src/gp/process-interface.js";
 import { kernels, type Kernel } from "../../src/kernels/index.js";
 import { semiseparablePredict } from "../../src/linalg/semiseparable-smoother.js";
 import { createRng } from "../../src/random/rng.js";

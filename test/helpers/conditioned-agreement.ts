@@ -1,5 +1,5 @@
 import { expect } from "vitest";
-import type { ConditionedProcess, MeanAndVariance } from "../../src/gp/gp-options.js";
+import type { ConditionedProcess, MeanAndVariance } from "../../src/gp/process-interface.js";
 import { maxRelativeDifference } from "./seasonal-times.js";
 
 /** A process that conditions on values (`GaussianProcess`, `DenseGaussianProcess`). */

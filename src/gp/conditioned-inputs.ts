@@ -1,60 +1,6 @@
 import { FactorizationError } from "../linalg/factorization-error.js";
 import type { GradientWorkspace } from "../linalg/semiseparable-gradient.js";
-import type { Rng } from "../random/rng.js";
-
-/** Options of a Gaussian process conditioned on observation times. */
-export interface GaussianProcessOptions {
-  /** Per-point 1-sigma measurement errors (array, same length as the times) or one error for all. Default 0. */
-  readonly errors?: number | ArrayLike<number>;
-  /** Constant mean of the process, in the unit of the data. Default 0. */
-  readonly mean?: number;
-  /** Extra white-noise standard deviation added in quadrature to every error ("jitter"). Default 0. */
-  readonly jitter?: number;
-}
-
-/** Mean and variance of the latent (noise-free) process at requested times, given the data. */
-export interface MeanAndVariance {
-  readonly mean: Float64Array;
-  readonly variance: Float64Array;
-}
-
-/**
- * A Gaussian process conditioned on observed values (`gp.given(values)`): the latent (noise-free) light
- * curve's distribution anywhere, in gaps, between points and beyond both ends. Both engines return one.
- */
-export interface ConditionedProcess {
-  /** Conditional mean (the process's constant mean included) and variance at `times` (any order). */
-  at(times: ArrayLike<number>): MeanAndVariance;
-  /**
-   * Joint conditional covariance at `times` (row-major M x M, in the order given); refused with a
-   * RangeError above {@link MAX_COVARIANCE_SIZE} times.
-   */
-  covarianceAt(times: ArrayLike<number>): Float64Array;
-  /** One draw of the latent process at `times` from its conditional distribution (mean included). */
-  draw(rng: Rng, times: ArrayLike<number>): Float64Array;
-}
-
-/** Largest number of requested times for which a joint conditional covariance is formed (M^2 numbers). */
-export const MAX_COVARIANCE_SIZE = 2000;
-
-/** Refuses a joint covariance over more than {@link MAX_COVARIANCE_SIZE} times, naming the count. */
-export function checkCovarianceSize(count: number): void {
-  if (count > MAX_COVARIANCE_SIZE)
-    throw new RangeError(
-      `covarianceAt: a joint covariance is limited to ${MAX_COVARIANCE_SIZE} times (${MAX_COVARIANCE_SIZE}^2 numbers), got ${count}; use at() for the variances`,
-    );
-}
-
-/** The log-likelihood and its gradient. */
-export interface GradientResult {
-  readonly value: number;
-  /** d log L / d kernel parameter, in the kernel's `parameterNames` order. */
-  readonly kernel: Float64Array;
-  /** d log L / d mean. */
-  readonly mean: number;
-  /** d log L / d jitter. */
-  readonly jitter: number;
-}
+import type { GaussianProcessOptions } from "./process-interface.js";
 
 /** Validated inputs shared by both engines. */
 export interface ConditionedInputs {
@@ -147,7 +93,7 @@ export function withMeanAndJitter(inputs: ConditionedInputs, options: Pick<Gauss
  * as a FactorizationError; only then is y scanned ({@link checkValues}), so the error still names the bad
  * value. Saves the separate pass over y that checking first costs at every evaluation.
  */
-export function evaluateValues<T>(y: ArrayLike<number>, inputs: ConditionedInputs, evaluate: () => T): T {
+export function evaluateWithDeferredValueCheck<T>(y: ArrayLike<number>, inputs: ConditionedInputs, evaluate: () => T): T {
   const n = inputs.time.length;
   if (y.length !== n) throw new RangeError(`GaussianProcess: ${y.length} values for ${n} times`);
   try {
@@ -181,19 +127,4 @@ export function residualOf(y: ArrayLike<number>, inputs: ConditionedInputs): Flo
   const out = new Float64Array(y.length);
   for (let i = 0; i < out.length; i++) out[i] = y[i] - inputs.mean;
   return out;
-}
-
-/** Checks that every requested time is finite (`what` names the method in the message). */
-export function checkTargets(targets: ArrayLike<number>, what: string): void {
-  for (let i = 0; i < targets.length; i++)
-    if (!Number.isFinite(targets[i])) throw new RangeError(`${what}: requested times[${i}] is not finite (${targets[i]})`);
-}
-
-/** Sorts requested times (checked finite), remembering where each came from. */
-export function sortTargets(targets: ArrayLike<number>, what: string): { sorted: Float64Array; order: Int32Array } {
-  checkTargets(targets, what);
-  const order = Int32Array.from({ length: targets.length }, (_, i) => i);
-  order.sort((a, b) => targets[a] - targets[b]);
-  const sorted = Float64Array.from(order, (i) => targets[i]);
-  return { sorted, order };
 }
