@@ -239,7 +239,19 @@ const div = (a: Complex, b: Complex): Complex => {
   return { re: (a.re * b.re + a.im * b.im) / d, im: (a.im * b.re - a.re * b.im) / d };
 };
 
-/** The AR roots: -c +/- sqrt(c^2 - w0^2) per oscillation, -1/tau per timescale; throws when two coincide. */
+/**
+ * Two autoregressive roots coincide (to 1e-6 of the largest): the partial-fraction state-space form does
+ * not exist there (a repeated root needs a Jordan block). A RangeError; the models layer counts such a
+ * point as impossible (a set of zero prior mass), as it does a covariance that cannot be factorised.
+ */
+export class CoincidentRootsError extends RangeError {
+  constructor() {
+    super("carma: two autoregressive roots coincide (a quality of 1/2 or repeated timescales); perturb them");
+    this.name = "CoincidentRootsError";
+  }
+}
+
+/** The AR roots: -c +/- sqrt(c^2 - w0^2) per oscillation, -1/tau per timescale; throws a {@link CoincidentRootsError} when two coincide. */
 export function carmaRoots(oscillations: readonly CarmaOscillation[], timescales: readonly number[]): Complex[] {
   const roots: Complex[] = [];
   for (const o of oscillations) {
@@ -260,13 +272,28 @@ export function carmaRoots(oscillations: readonly CarmaOscillation[], timescales
   for (let i = 0; i < roots.length; i++)
     for (let j = i + 1; j < roots.length; j++)
       if (Math.hypot(roots[i].re - roots[j].re, roots[i].im - roots[j].im) < 1e-6 * largest)
-        throw new RangeError("carma: two autoregressive roots coincide (a quality of 1/2 or repeated timescales); perturb them");
+        throw new CoincidentRootsError();
   return roots;
 }
 
-/** Richardson-extrapolated central difference of a vector function: (4 D(h/2) - D(h)) / 3, error O(h^4). */
+/**
+ * Richardson-extrapolated central difference of a vector function: (4 D(h/2) - D(h)) / 3, error O(h^4).
+ * Where a step lands on coincident roots (x itself is admissible, x +- h is not), the step shrinks
+ * eightfold, up to four times: the derivative is local and the excluded set has zero width.
+ */
 function richardsonDerivative(f: (x: number) => Float64Array, x: number): Float64Array {
-  const h = 1e-3 * Math.max(Math.abs(x), 1e-3);
+  let h = 1e-3 * Math.max(Math.abs(x), 1e-3);
+  for (let attempt = 0; ; attempt++) {
+    try {
+      return richardsonAtStep(f, x, h);
+    } catch (error) {
+      if (!(error instanceof CoincidentRootsError) || attempt === 4) throw error;
+      h /= 8;
+    }
+  }
+}
+
+function richardsonAtStep(f: (x: number) => Float64Array, x: number, h: number): Float64Array {
   const central = (step: number) => {
     const up = f(x + step);
     const down = f(x - step);

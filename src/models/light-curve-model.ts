@@ -9,8 +9,7 @@ import {
 } from "../inference/index.js";
 import { dampedRandomWalkFamily } from "../kernels/damped-random-walk.js";
 import { familyOfModel, KERNEL_FAMILIES, type AnyKernelFamily, type FamilyParameter, type Kernel, type ModelName as FamilyModelName } from "../kernels/index.js";
-import { FactorizationError } from "../linalg/factorization-error.js";
-import { logLikelihoodOrImpossible } from "./impossible-parameters.js";
+import { isImpossibleParameters, logLikelihoodOrImpossible } from "./impossible-parameters.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { DataSummary } from "./data-summary.js";
 import type { PeriodRange } from "./period-range.js";
@@ -185,7 +184,7 @@ export function periodSearchRange(summary: DataSummary): { readonly shortest: nu
 /**
  * The model's log-likelihood and its gradient for one light curve, in physical parameters. The kernel's
  * gradient (sums of terms list their parameters term after term) maps back to the model's names one to
- * one. A covariance that cannot be factorised counts as an impossible point (-Infinity).
+ * one. A covariance that cannot be factorised, or coincident CARMA roots, count as an impossible point (-Infinity).
  */
 export function modelLikelihood(model: LightCurveModel, lightCurve: LightCurve): PhysicalLikelihood {
   const names = model.space.names;
@@ -206,7 +205,7 @@ export function modelLikelihood(model: LightCurveModel, lightCurve: LightCurve):
         if (jitterIndex >= 0) gradientOut[jitterIndex] = g.jitter;
         return g.value;
       } catch (error) {
-        if (error instanceof FactorizationError) {
+        if (isImpossibleParameters(error)) {
           gradientOut.fill(0);
           return -Infinity;
         }

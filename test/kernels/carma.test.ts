@@ -100,4 +100,12 @@ describe("CARMA kernel", () => {
     expect(() => kernels.carma({ sigma: 1, timescales: [5, 5] })).toThrow(/coincide/);
     expect(() => kernels.carma({ sigma: 1, timescales: [5], movingAverage: [1] })).toThrow(/moving-average order/);
   });
+
+  it("builds its state-space form next to coincident roots (a difference step that lands on them shrinks)", () => {
+    // tau1 - 1e-3 tau1 = 5 = tau0: the first central-difference step of tau1 lands on the excluded set.
+    const kernel = kernels.carma({ sigma: 1, timescales: [5, 5 / 0.999] });
+    const form = kernel.semiseparableForm();
+    expect(Array.from(form.projectionGradient).every(Number.isFinite)).toBe(true);
+    expect(kernel.covarianceAt(0)).toBeCloseTo(1, 9);
+  });
 });

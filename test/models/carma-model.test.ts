@@ -40,6 +40,18 @@ describe("CARMA model", () => {
     }
   });
 
+  it("coincident autoregressive roots are an impossible point (-Infinity), not an internal error", () => {
+    const lightCurve = simulated("carma:coincident");
+    const model = buildModel("carma", summarizeLightCurve(lightCurve), { order: { p: 3, q: 0 } });
+    const likelihood = modelLikelihood(model, lightCurve);
+    // quality0 = 1/2 exactly: the quadratic factor has a double root.
+    const at = model.space.physicalFromRecord({ sigma: 0.3, period0: 100, quality0: 0.5, tau0: 40, mean: 19 });
+    expect(likelihood.logLikelihood(at)).toBe(-Infinity);
+    const gradient = new Float64Array(at.length);
+    expect(likelihood.logLikelihoodAndGradient!(at, gradient)).toBe(-Infinity);
+    expect(Array.from(gradient).every((g) => g === 0)).toBe(true);
+  });
+
   it("CARMA(1,0) is the damped random walk: the same likelihood, priors and evidence", () => {
     // Kelly et al. 2014, ApJ 788, 33, sec. 2: CARMA(1,0) is the Ornstein-Uhlenbeck process, the damped
     // random walk of Kelly, Bechtold & Siemiginowska 2009.
