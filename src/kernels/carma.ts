@@ -40,7 +40,8 @@ export interface CarmaParameters {
  * quadratic factor and one exponential block per real root from a common noise input L; the stationary
  * covariance P solves F P + P F^T + L L^T = 0. R = p components. The transitions' parameter derivatives
  * are exact; those of q = P p (an O(p^6) function of the parameters, independent of the data) are
- * computed by Richardson-extrapolated central differences, accurate to about 1e-10 relative.
+ * computed by Richardson-extrapolated central differences, accurate to about 1e-10 relative (exact for
+ * sigma, q being proportional to sigma^2), on first use only.
  *
  * Parameter names: sigma, period<k>, quality<k> per oscillation, tau<k> per timescale, ma<j> per MA coefficient.
  *
@@ -152,23 +153,34 @@ export class CarmaKernel extends Kernel {
     });
     const projection = this.projection(this.parameterValues);
     const r = observation.length;
-    const projectionGradient = new Float64Array(count * r);
     const base = this.parameterValues;
-    for (let c = 0; c < count; c++) {
-      const derivative = richardsonDerivative((x) => {
-        const shifted = Float64Array.from(base);
-        shifted[c] = x;
-        return this.withParameters(shifted).projection(shifted);
-      }, base[c]);
-      projectionGradient.set(derivative, c * r);
-    }
+    let projectionGradient: Float64Array | undefined;
+    // The projection's derivatives cost 4 (count - 1) Lyapunov solves, about 40 times the value's: formed on
+    // first use (a gradient), so that value-only evaluations (importance draws, evidence) do not pay them.
+    const gradientOfProjection = (): Float64Array => {
+      if (projectionGradient) return projectionGradient;
+      const gradient = new Float64Array(count * r);
+      // q is proportional to sigma^2: dq / dsigma = 2 q / sigma exactly.
+      for (let i = 0; i < r; i++) gradient[i] = (2 * projection[i]) / this.sigma;
+      for (let c = 1; c < count; c++) {
+        const derivative = richardsonDerivative((x) => {
+          const shifted = Float64Array.from(base);
+          shifted[c] = x;
+          return this.withParameters(shifted).projection(shifted);
+        }, base[c]);
+        gradient.set(derivative, c * r);
+      }
+      return (projectionGradient = gradient);
+    };
     this.cachedForm = {
       blocks,
       observation: Float64Array.from(observation),
       projection,
       parameterCount: count,
       observationGradient: new Float64Array(count * r),
-      projectionGradient,
+      get projectionGradient() {
+        return gradientOfProjection();
+      },
     };
     return this.cachedForm;
   }

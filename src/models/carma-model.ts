@@ -76,7 +76,12 @@ export interface CarmaScales {
  * log-uniform from the shortest resolvable period to the baseline; qualities log-uniform on [0.05, 1000]
  * (either side of 1/2: complex or real root pairs); the real root's timescale as the damped random walk's
  * (a tenth of the median cadence to ten times the baseline); moving-average coefficient j uniform on
- * +-(baseline / 2 pi)^j, the scale at which |b(i w)| departs from 1 at the lowest frequency the data see.
+ * (0, (baseline / 2 pi)^j], the scale at which |b(i w)| departs from 1 at the lowest frequency the data see.
+ * Positive coefficients because the likelihood sees only |b(i w)|^2, which is unchanged when a root of b
+ * is reflected across the imaginary axis: the minimum-phase b (roots with negative real parts; Kelly et
+ * al. 2014, sec. 2) is the identifiable one, and for q <= 2 it is exactly the b with positive
+ * coefficients (Routh-Hurwitz). For q = 3 positive coefficients are necessary, not sufficient (b1 b2 > b3
+ * is also needed), so a reflected copy of part of the posterior can remain.
  * The first guess spreads the roots over the timescales the data resolve (distinct roots, as the kernel needs).
  */
 export function carmaPriors(order: CarmaOrder, scales: CarmaScales): { specs: ParameterSpec[]; guess: Record<string, number> } {
@@ -96,8 +101,30 @@ export function carmaPriors(order: CarmaOrder, scales: CarmaScales): { specs: Pa
   }
   const scale = baseline / (2 * Math.PI);
   for (let j = 1; j <= order.q; j++) {
-    specs.push({ name: `ma${j}`, prior: uniformPrior(-Math.pow(scale, j), Math.pow(scale, j)) });
+    specs.push({ name: `ma${j}`, prior: uniformPrior(0, Math.pow(scale, j)) });
     guess[`ma${j}`] = Math.pow(scale / 10, j);
   }
   return { specs, guess };
+}
+
+/**
+ * The relabellings under which a CARMA(p, q) posterior is invariant: exchanging two quadratic factors
+ * (period<k>, quality<k>) <-> (period<k+1>, quality<k+1>) leaves the polynomial, and the priors (the same for
+ * every factor), unchanged. Index maps over `freeNames` (the unconstrained coordinates), one per adjacent
+ * swap; they generate every permutation of the factors. None for p < 4.
+ */
+export function carmaSymmetries(order: CarmaOrder, freeNames: readonly string[]): number[][] {
+  const pairs = Math.floor(order.p / 2);
+  const generators: number[][] = [];
+  for (let k = 0; k + 1 < pairs; k++) {
+    const swap = new Map<string, string>([
+      [`period${k}`, `period${k + 1}`],
+      [`period${k + 1}`, `period${k}`],
+      [`quality${k}`, `quality${k + 1}`],
+      [`quality${k + 1}`, `quality${k}`],
+    ]);
+    if ([...swap.keys()].some((name) => !freeNames.includes(name))) continue;
+    generators.push(freeNames.map((name) => freeNames.indexOf(swap.get(name) ?? name)));
+  }
+  return generators;
 }

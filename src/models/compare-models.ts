@@ -2,10 +2,12 @@ import { findMaximumPosterior, unconstrainedPosterior, startingPoints } from "..
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { childSeed, createRng } from "../random/rng.js";
 import { summarizeLightCurve } from "./data-summary.js";
+import { bayesFactorPreference, twoLogBayesFactorText, type EvidencePreference } from "./evidence-scale.js";
+import { importanceLogEvidence, type EvidenceEstimate } from "./importance-evidence.js";
 import { laplaceLogEvidence } from "./laplace-evidence.js";
 import { periodogramPeriod } from "./fit-period-search.js";
 import { buildModel, modelLikelihood, type ModelName } from "./light-curve-model.js";
-import { MAX_CARMA_ORDER, type CarmaOrder } from "./carma-model.js";
+import { carmaSymmetries, MAX_CARMA_ORDER, type CarmaOrder } from "./carma-model.js";
 import { modelPeriodRange, periodRange, type PeriodLimits } from "./period-range.js";
 
 /** One model's standing in a comparison. */
@@ -15,8 +17,19 @@ export interface ModelStanding {
   readonly order?: string;
   /** The model's name as shown: the model, or "carma(p,q)". */
   readonly label: string;
-  /** Laplace-approximated ln evidence (marginal likelihood) of the model. */
+  /**
+   * ln evidence (marginal likelihood) of the model: by importance sampling at the mode
+   * ({@link importanceLogEvidence}) when its diagnostic holds, else the Laplace approximation.
+   */
   readonly logEvidence: number;
+  /** Monte Carlo standard error of `logEvidence`; null for the Laplace approximation (no stated error). */
+  readonly logEvidenceError: number | null;
+  /** How `logEvidence` was estimated. */
+  readonly evidenceMethod: "importance" | "laplace";
+  /** k-hat of the importance ratios (null when no draws were made). */
+  readonly evidenceParetoShape: number | null;
+  /** The Laplace approximation at the same mode, for reference. */
+  readonly laplaceLogEvidence: number;
   /** ln L at the maximum a posteriori. */
   readonly logLikelihood: number;
   /** Bayesian information criterion k ln N - 2 ln L (lower is better), for reference. */
@@ -37,16 +50,22 @@ export interface ModelComparison {
   readonly ranking: readonly ModelStanding[];
   /** A plain-language verdict, for example whether there is a period at all. */
   readonly verdict: string;
+  /** How strongly the evidence prefers the best model over the runner-up (absent for one model). */
+  readonly preference?: EvidencePreference;
+  /** CARMA orders compared: how strongly the evidence prefers the best order over the next best. */
+  readonly carmaOrder?: EvidencePreference;
 }
 
 /**
  * Ranks Gaussian-process models of one light curve by their Bayesian evidence (marginal likelihood)
- * Z = integral L(theta) pi(theta) dtheta, in the Laplace approximation at the maximum a posteriori
- * (MacKay 2003, ch. 28). The evidence is the natural criterion for Gaussian processes: the likelihood
+ * Z = integral L(theta) pi(theta) dtheta, estimated by importance sampling from a Student-t at the
+ * maximum a posteriori with the Laplace covariance ({@link importanceLogEvidence}: unbiased, with a Monte
+ * Carlo standard error), the Laplace approximation (MacKay 2003, ch. 28) where the importance ratios'
+ * k-hat says the estimate cannot be trusted. The evidence is the natural criterion for Gaussian processes: the likelihood
  * already integrates over the latent light curve, and the integral over the parameters penalises the extra
  * freedom of a periodic kernel, which the maximum likelihood alone would always reward. Differences are
- * read on the scale of Kass & Raftery 1995 (JASA 90, 773): 2 ln B above 6 is strong evidence, above 10
- * very strong. The BIC is reported beside it for reference.
+ * read on the scale of Kass & Raftery 1995 (JASA 90, 773; {@link bayesFactorPreference}), with the
+ * standard error of ln B. The BIC is reported beside it for reference.
  */
 export function compareModels(
   lightCurve: LightCurve,
@@ -89,7 +108,9 @@ export function compareModels(
       }
     }
     const best = findMaximumPosterior(target, { starts });
-    const evidence = laplaceLogEvidence(target, best.x);
+    const laplace = laplaceLogEvidence(target, best.x);
+    const symmetries = order ? carmaSymmetries(order, model.space.free.map((p) => p.name)) : [];
+    const evidence = evidenceAt(target, best.x, rng, symmetries, laplace.logEvidence);
     const physical = model.space.toPhysical(best.x);
     const logLikelihood = likelihood.logLikelihood(physical);
     const k2 = model.space.dimension;
@@ -97,7 +118,8 @@ export function compareModels(
       model: name,
       ...(order ? { order: `${order.p},${order.q}` } : {}),
       label: order ? `carma(${order.p},${order.q})` : name,
-      logEvidence: evidence.logEvidence,
+      ...evidence,
+      laplaceLogEvidence: laplace.logEvidence,
       logLikelihood,
       bic: k2 * Math.log(summary.n) - 2 * logLikelihood,
       parameterCount: k2,
@@ -109,21 +131,48 @@ export function compareModels(
   const ranking = standings
     .map((s) => ({ ...s, deltaLogEvidence: s.logEvidence - top, probability: Math.exp(s.logEvidence - top) / total }))
     .sort((a, b) => b.logEvidence - a.logEvidence);
+  const orders = ranking.filter((s) => s.model === "carma");
+  const preference = ranking.length >= 2 ? preferenceOf(ranking) : undefined;
+  const carmaOrder = orders.length >= 2 ? preferenceOf(orders) : undefined;
   return {
-    criterion: "Laplace-approximated Bayesian evidence (marginal likelihood); Kass & Raftery 1995 scale",
+    criterion: "Bayesian evidence (marginal likelihood) by importance sampling at the mode; Kass & Raftery 1995 scale",
     ranking,
-    verdict: verdictOf(ranking),
+    verdict: verdictOf(ranking, carmaOrder),
+    ...(preference ? { preference } : {}),
+    ...(carmaOrder ? { carmaOrder } : {}),
   };
+}
+
+/** The first of `standings` (best first) over the second. */
+function preferenceOf(standings: readonly ModelStanding[]): EvidencePreference {
+  const [best, second] = standings as [ModelStanding, ModelStanding];
+  return bayesFactorPreference(
+    { label: best.label, logEvidence: best.logEvidence, standardError: best.logEvidenceError },
+    { label: second.label, logEvidence: second.logEvidence, standardError: second.logEvidenceError },
+  );
+}
+
+/**
+ * The evidence of one model at its mode: importance sampling (its proposal refitted up to three times
+ * while k-hat is too high); the Laplace value (no stated error) when that fails.
+ */
+function evidenceAt(
+  target: Parameters<typeof importanceLogEvidence>[0],
+  mode: Float64Array,
+  rng: Parameters<typeof importanceLogEvidence>[2],
+  symmetries: readonly (readonly number[])[],
+  laplace: number,
+): Pick<ModelStanding, "logEvidence" | "logEvidenceError" | "evidenceMethod" | "evidenceParetoShape"> {
+  const estimate: EvidenceEstimate | undefined = importanceLogEvidence(target, mode, rng, { symmetries });
+  if (estimate && estimate.reliable && Number.isFinite(estimate.logEvidence)) {
+    return { logEvidence: estimate.logEvidence, logEvidenceError: estimate.standardError, evidenceMethod: "importance", evidenceParetoShape: estimate.paretoShape };
+  }
+  return { logEvidence: laplace, logEvidenceError: null, evidenceMethod: "laplace", evidenceParetoShape: estimate ? estimate.paretoShape : null };
 }
 
 /** An oscillator with Q <= 1/2 at its maximum is overdamped: it has no oscillation, so no period. */
 function oscillates(standing: ModelStanding): boolean {
   return standing.model === "quasi-periodic" || (standing.model === "oscillator" && standing.maximum.quality > 0.5);
-}
-
-/** Kass & Raftery 1995's words for 2 ln B. */
-function strengthOf(twoLnB: number): string {
-  return twoLnB > 10 ? "very strong" : twoLnB > 6 ? "strong" : twoLnB > 2 ? "positive" : "not worth more than a bare mention";
 }
 
 /** Every CARMA order (p, q) with 1 <= p <= MAX_CARMA_ORDER and q < p: the grid `compare` searches. */
@@ -134,25 +183,27 @@ export function carmaOrderGrid(): CarmaOrder[] {
 }
 
 /** Which CARMA order the evidence prefers, and over the runner-up by how much. */
-function carmaVerdict(ranking: readonly ModelStanding[]): string {
-  const orders = ranking.filter((s) => s.model === "carma");
-  if (orders.length < 2) return "";
-  const twoLnB = 2 * (orders[0].logEvidence - orders[1].logEvidence);
-  return ` CARMA order: ${orders[0].label} over ${orders[1].label}, 2 ln B = ${twoLnB.toFixed(1)} (${strengthOf(twoLnB)} evidence).`;
+function carmaVerdict(carmaOrder: EvidencePreference | undefined): string {
+  return carmaOrder ? ` CARMA order: ${carmaOrder.sentence}` : "";
 }
 
-function verdictOf(ranking: readonly ModelStanding[]): string {
-  return periodVerdict(ranking) + carmaVerdict(ranking);
+function verdictOf(ranking: readonly ModelStanding[], carmaOrder: EvidencePreference | undefined): string {
+  return periodVerdict(ranking) + carmaVerdict(carmaOrder);
 }
 
 function periodVerdict(ranking: readonly ModelStanding[]): string {
   const best = ranking[0];
   const aperiodic = ranking.find((s) => !oscillates(s));
   const periodic = ranking.find(oscillates);
-  const strength = strengthOf;
+  if (!best) return "";
   if (!aperiodic || !periodic) return `${best.label} is preferred.`;
-  const twoLnB = 2 * Math.abs(periodic.logEvidence - aperiodic.logEvidence);
-  if (!oscillates(best)) return `No period: an aperiodic model (${best.label}) is preferred (2 ln B = ${twoLnB.toFixed(1)}, ${strength(twoLnB)} evidence).`;
+  const [winner, loser] = oscillates(best) ? [periodic, aperiodic] : [aperiodic, periodic];
+  const preference = bayesFactorPreference(
+    { label: winner.label, logEvidence: winner.logEvidence, standardError: winner.logEvidenceError },
+    { label: loser.label, logEvidence: loser.logEvidence, standardError: loser.logEvidenceError },
+  );
+  const strength = `2 ln B = ${twoLogBayesFactorText(preference)}, ${preference.strength} evidence`;
+  if (!oscillates(best)) return `No period: an aperiodic model (${best.label}) is preferred (${strength}).`;
   const period = best.maximum.period;
-  return `A period is supported: ${best.model} (period ${period.toPrecision(4)}) over the damped random walk, 2 ln B = ${twoLnB.toFixed(1)} (${strength(twoLnB)} evidence).`;
+  return `A period is supported: ${best.model} (period ${period.toPrecision(4)}) over the damped random walk (${strength}).`;
 }

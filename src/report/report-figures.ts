@@ -4,6 +4,7 @@ import { lightCurveFigure } from "./light-curve-figure.js";
 import { phaseFigure, zoomFigure } from "./periodic-figures.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
+import { psdFigure } from "./psd-figure.js";
 import { spectrumFigure } from "./spectrum-figure.js";
 import { traceFigure } from "./trace-figure.js";
 
@@ -11,12 +12,13 @@ import { traceFigure } from "./trace-figure.js";
  * The figures of a report, in reading order: light curve with prediction (for a model with a period, then
  * the light curve folded at it and a zoom on a few periods; and, for a joint multi-band
  * fit, one panel per band), corner plot, power spectrum
- * (when a periodogram or PSD band is given) and chain traces. Specifications only; nothing is rendered.
+ * (when a periodogram or PSD band is given; for CARMA and DRW fits the one-scale comparison of psd-figure.ts)
+ * and chain traces. Specifications only; nothing is rendered.
  * Throws a RangeError when the input's arrays do not fit together (see {@link checkReportInput}).
  */
 export function reportFigures(input: ReportInput): ReportFigure[] {
   checkReportInput(input);
-  const spectrum = spectrumFigure(input);
+  const spectrum = input.psdComparison ? psdFigure(input) : spectrumFigure(input);
   const bandFigures = (input.bandPanels ?? []).map((panel): ReportFigure => {
     const figure = lightCurveFigure({ ...input, lightCurve: panel.lightCurve, prediction: panel.prediction });
     return { ...figure, id: `light-curve-band-${panel.band}`, title: `Band ${panel.band}: light curve and posterior prediction given every band` };

@@ -8,6 +8,7 @@ import { storedPosteriorSample } from "../models/posterior-sample.js";
 import { quantileOf } from "../numerics/order-statistics.js";
 import { computePeriodogram } from "../periodogram/periodogram.js";
 import type { ReportInput } from "./report-input.js";
+import { spectrumComparison } from "./spectrum-comparison.js";
 
 /** Sizes of the report's computed curves. */
 export interface ReportSizes {
@@ -79,6 +80,7 @@ export function reportInputFromDraws(lightCurve: LightCurve, result: FitResult, 
   const frequencies = Float64Array.from({ length: 200 }, (_, i) => fLow * Math.pow(fHigh / fLow, i / 199));
   const spectra = used.map((row) => model.kernelAt(row).psd(frequencies.map((f) => 2 * Math.PI * f)));
   const band = (q: number) => frequencies.map((_, i) => quantileOf(spectra.map((s) => s[i]), q));
+  const comparison = spectrumComparison(lightCurve, result, periodogram, used.map((row) => model.kernelAt(row)));
   const period = result.parameters["period"]?.median;
   const periodic = period !== undefined && period > 0 ? periodicCurves(lightCurve, period, (grid) => model.predict(used, grid)) : undefined;
   return {
@@ -89,6 +91,7 @@ export function reportInputFromDraws(lightCurve: LightCurve, result: FitResult, 
     ...(periodic ? { periodic } : {}),
     periodogram: { frequency: periodogram.frequency, power: periodogram.power, label: "Lomb-Scargle power" },
     psdBand: { frequency: frequencies, median: band(0.5), lower: band(0.16), upper: band(0.84), mass: 0.68 },
+    ...(comparison ? { psdComparison: comparison } : {}),
   };
 }
 

@@ -1,5 +1,6 @@
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import type { FitResult } from "../models/fit-result.js";
+import type { PsdComparison } from "./psd-comparison.js";
 
 /** A numeric column: a typed array or a plain array, whichever the producer has at hand. */
 export type NumericColumn = ArrayLike<number>;
@@ -87,6 +88,11 @@ export interface ReportInput {
   /** The periodogram of the data; with `psdBand` it makes the spectrum figure. */
   readonly periodogram?: PeriodogramCurve;
   readonly psdBand?: PsdBand;
+  /**
+   * CARMA and damped-random-walk fits: the model PSD, the periodogram and the best DRW on one scale; the
+   * spectrum figure is then `psdFigure`'s (psd-figure.ts) instead of the two-axis one.
+   */
+  readonly psdComparison?: PsdComparison;
   /** The time unit as text for axes and sentences (default "d"). */
   readonly timeUnit?: string;
   /** Overrides of the default labels and units, by parameter name. */

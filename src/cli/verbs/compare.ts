@@ -1,4 +1,4 @@
-import { compareModels } from "../../models/compare-models.js";
+import { compareModels, type ModelStanding } from "../../models/compare-models.js";
 import type { ModelName } from "../../models/light-curve-model.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { FIT_OPTIONS, fitArguments, modelName } from "../fit-arguments.js";
@@ -9,11 +9,15 @@ import { writeOutput } from "../write-output.js";
 const HELP = `Usage: horologium compare FILE [--models drw,oscillator,quasi-periodic] [options]
 
 Fits several models to one light curve and ranks them by their Bayesian evidence (the marginal
-likelihood, in the Laplace approximation at the maximum a posteriori): the criterion suited to
-Gaussian processes, whose likelihood already integrates over the latent light curve, and which
-charges a periodic kernel for its extra freedom where the best-fit likelihood alone would always
-prefer it. It answers "is there a period at all?": differences are read on the scale of Kass &
-Raftery 1995 (2 ln B > 6 strong, > 10 very strong). The BIC is shown beside it.
+likelihood, by importance sampling from a Student-t at the maximum a posteriori, with its Monte
+Carlo standard error; the Laplace approximation where the draws' k-hat is too high): the criterion
+suited to Gaussian processes, whose likelihood already integrates over the latent light curve, and
+which charges a periodic kernel for its extra freedom where the best-fit likelihood alone would
+always prefer it. It answers "is there a period at all?" and says how strongly: the log Bayes
+factor ln B of the best model over the runner-up with its standard error, read on the bands of
+Kass & Raftery 1995 (JASA 90, 773) for 2 ln B: below 2 inconclusive, 2-6 moderate, 6-10 clear,
+above 10 overwhelming. The BIC is shown beside it. The JSON (--out) holds the same under
+"preference" (and "carmaOrder" for CARMA orders).
 
 Options:
   --models LIST           comma-separated models (default drw,oscillator,quasi-periodic); "carma"
@@ -45,6 +49,11 @@ const OPTIONS = {
   "max-period": FIT_OPTIONS["max-period"],
 } as const;
 
+/** The Monte Carlo standard error of a model's ln Z, or "laplace" when it is the Laplace approximation. */
+function evidenceErrorText(standing: ModelStanding): string {
+  return standing.logEvidenceError === null ? "laplace" : standing.logEvidenceError.toFixed(2);
+}
+
 /** `horologium compare`. */
 export const verb: CliVerb = {
   summary: "rank models by Bayesian evidence: is there a period at all?",
@@ -60,12 +69,16 @@ export const verb: CliVerb = {
     if (!quiet) {
       for (const comparison of comparisons) {
         io.stdout(`${file}${comparison.band ? ` [band ${comparison.band}]` : ""} — ${comparison.criterion}\n`);
-        io.stdout(`  ${"model".padEnd(16)} ${"ln Z".padStart(11)} ${"delta".padStart(8)} ${"prob".padStart(7)} ${"ln L".padStart(11)} ${"BIC".padStart(11)}\n`);
+        io.stdout(`  ${"model".padEnd(16)} ${"ln Z".padStart(11)} ${"± s.e.".padStart(8)} ${"delta".padStart(8)} ${"prob".padStart(7)} ${"ln L".padStart(11)} ${"BIC".padStart(11)}\n`);
         for (const s of comparison.ranking)
           io.stdout(
-            `  ${s.label.padEnd(16)} ${s.logEvidence.toFixed(2).padStart(11)} ${s.deltaLogEvidence.toFixed(2).padStart(8)} ${s.probability.toFixed(3).padStart(7)} ${s.logLikelihood.toFixed(2).padStart(11)} ${s.bic.toFixed(2).padStart(11)}\n`,
+            `  ${s.label.padEnd(16)} ${s.logEvidence.toFixed(2).padStart(11)} ${evidenceErrorText(s).padStart(8)} ${s.deltaLogEvidence.toFixed(2).padStart(8)} ${s.probability.toFixed(3).padStart(7)} ${s.logLikelihood.toFixed(2).padStart(11)} ${s.bic.toFixed(2).padStart(11)}\n`,
           );
         io.stdout(`  ${comparison.verdict}\n`);
+        if (comparison.preference) io.stdout(`  Best model: ${comparison.preference.sentence}\n`);
+        if (comparison.carmaOrder) io.stdout(`  Best CARMA order: ${comparison.carmaOrder.sentence}\n`);
+        if (comparison.ranking.some((s) => s.evidenceMethod === "laplace"))
+          io.stdout("  (laplace: importance sampling's k-hat was too high for that model; its ln Z is the Laplace approximation, error not estimated)\n");
       }
     }
     const out = textOption(values, "out");
