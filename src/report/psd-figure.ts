@@ -37,20 +37,8 @@ export function psdFigure(input: ReportInput): ReportFigure | undefined {
     .map((m) => ({ f: m.frequency, label: m.label }));
   if (markers.length > 0) datasets["markers"] = markers;
   const powerDomain = powerDomainOf(datasets);
-  const x = {
-    field: "f",
-    type: "quantitative" as const,
-    title: `Frequency [1 / ${timeUnit}]`,
-    scale: { type: "log" as const, domain: frequencyDomain, nice: false },
-    axis: { format: "~g", grid: true },
-  };
-  const y = (field: string) => ({
-    field,
-    type: "quantitative" as const,
-    title: `One-sided PSD [${valueUnit}² ${timeUnit}]`,
-    scale: { type: "log" as const, domain: powerDomain, nice: false },
-    axis: { format: "~g", grid: true },
-  });
+  const x = logChannel("f", `Frequency [1 / ${timeUnit}]`, frequencyDomain);
+  const y = (field: string) => logChannel(field, `One-sided PSD [${valueUnit}² ${timeUnit}]`, powerDomain);
   const entries = [labels.band95, labels.band68, labels.median, labels.periodogram, labels.binned, ...(psd.referenceDrw ? [labels.drw] : [])];
   const colors = [FIGURE_COLORS.modelBandOuter, FIGURE_COLORS.modelBandInner, FIGURE_COLORS.model, "#c4c4c4", "#444444", ...(psd.referenceDrw ? [DRW_COLOR] : [])];
   const color = (label: string) => ({ datum: label, scale: { domain: entries, range: colors }, legend: { title: null, orient: "top" as const, direction: "horizontal" as const, columns: 3 } });
@@ -65,7 +53,7 @@ export function psdFigure(input: ReportInput): ReportFigure | undefined {
     layers.push({ data: { name: "model" }, mark: { type: "line", strokeWidth: 1.8, strokeDash: [7, 4], clip: true }, encoding: { x, y: y("drw"), color: color(labels.drw) } });
   }
   if (psd.noiseLevel !== undefined && psd.noiseLevel > powerDomain[0] && psd.noiseLevel < powerDomain[1]) {
-    layers.push(noiseLayer(psd.noiseLevel, frequencyDomain, y("p")));
+    layers.push(noiseLayer(psd.noiseLevel, x, y("p")));
   }
   if (markers.length > 0) layers.push(markerLayer(x));
   const spec: TopLevelSpec = {
@@ -136,28 +124,44 @@ function powerDomainOf(datasets: Record<string, DataRows>): [number, number] {
   return [low / 2, 2 * Math.max(bandHigh, binHigh, rawHigh)];
 }
 
-function noiseLayer(level: number, domain: [number, number], y: ReturnType<typeof Object>): LayerMember {
+/** A quantitative channel on a logarithmic scale over a fixed domain. */
+function logChannel(field: string, title: string, domain: [number, number]) {
   return {
-    data: { values: [{ f: domain[0], p: level, label: "measurement-noise level" }, { f: domain[1], p: level, label: "" }] },
+    field,
+    type: "quantitative" as const,
+    title,
+    scale: { type: "log" as const, domain, nice: false },
+    axis: { format: "~g", grid: true },
+  };
+}
+
+type LogChannel = ReturnType<typeof logChannel>;
+
+/** The measurement-noise level: a dotted horizontal line across the frequency domain, labelled at its left end. */
+function noiseLayer(level: number, x: LogChannel, y: LogChannel): LayerMember {
+  const [low, high] = x.scale.domain;
+  return {
+    data: { values: [{ f: low, p: level, label: "measurement-noise level" }, { f: high, p: level, label: "" }] },
     layer: [
-      { mark: { type: "line", strokeDash: [2, 3], color: "#555555", strokeWidth: 1.2, clip: true }, encoding: { x: { field: "f", type: "quantitative", scale: { type: "log" } }, y } },
+      { mark: { type: "line", strokeDash: [2, 3], color: "#555555", strokeWidth: 1.2, clip: true }, encoding: { x, y } },
       {
         transform: [{ filter: "datum.label != ''" }],
         mark: { type: "text", align: "left", baseline: "bottom", dx: 4, dy: -2, fontSize: 10, color: "#555555" },
-        encoding: { x: { field: "f", type: "quantitative", scale: { type: "log" } }, y, text: { field: "label" } },
+        encoding: { x, y, text: { field: "label" } },
       },
     ],
   };
 }
 
-function markerLayer(x: { field: string }): LayerMember {
+/** Dashed vertical rules at the frequencies of the sampling (1/baseline, pseudo-Nyquist), labelled along them. */
+function markerLayer(x: LogChannel): LayerMember {
   return {
     data: { name: "markers" },
     layer: [
-      { mark: { type: "rule", strokeDash: [5, 4], color: FIGURE_COLORS.marker, strokeWidth: 1, clip: true }, encoding: { x: x as never } },
+      { mark: { type: "rule", strokeDash: [5, 4], color: FIGURE_COLORS.marker, strokeWidth: 1, clip: true }, encoding: { x } },
       {
         mark: { type: "text", angle: 270, align: "right", baseline: "bottom", dx: -4, dy: -3, fontSize: 10, color: FIGURE_COLORS.marker },
-        encoding: { x: x as never, y: { value: 0 }, text: { field: "label" } },
+        encoding: { x, y: { value: 0 }, text: { field: "label" } },
       },
     ],
   };
@@ -173,7 +177,7 @@ function psdCaption(input: ReportInput, psd: PsdComparison, markers: readonly { 
     `Grey: the periodogram of the data on the same scale: the generalised Lomb-Scargle power (the fraction of the variance a sinusoid at f explains) times the data's weighted variance times the baseline, in ${valueUnit}² ${timeUnit}, the usual one-sided periodogram for even sampling; dots: its mean in bins of 1/12 decade.`,
     "The periodogram holds the measurement noise" +
       (psd.noiseLevel !== undefined ? ` (dotted: its expected level 2⟨e²⟩T/N = ${formatSignificant(psd.noiseLevel, 3)} ${valueUnit}² ${timeUnit})` : "") +
-      " and the leakage of the sampling window (seasonal gaps), so it lies above the model where the noise dominates; the model is the noise-free signal.",
+      " and the leakage of the sampling window (seasonal gaps and irregular nights spread low-frequency power over all frequencies), so it lies above the model at high frequencies; the model is the noise-free signal.",
     drw
       ? `Orange dashed: the damped random walk of highest posterior on the same data (τ = ${formatSignificant(drw.tau, 3)} ${timeUnit}, σ = ${formatSignificant(drw.sigma, 3)} ${valueUnit}), flat below 1/(2πτ) and falling as f⁻² above: where the band leaves it, the data ask for more than a damped random walk.`
       : "",

@@ -67,7 +67,13 @@ describe("CARMA model", () => {
     expect(priorOf(carma, "tau0").settings).toEqual(priorOf(drw, "tau").settings);
     const comparison = compareModels(lightCurve, ["drw", "carma"], { seed: 3, carmaOrders: [{ p: 1, q: 0 }] });
     const [a, b] = comparison.ranking;
-    expect(Math.abs(a.logEvidence - b.logEvidence)).toBeLessThan(1e-4);
+    // The Laplace values at the same mode agree to the optimiser's precision; the importance-sampling
+    // estimates (independent draws) within their Monte Carlo error.
+    expect(Math.abs(a!.laplaceLogEvidence - b!.laplaceLogEvidence)).toBeLessThan(1e-4);
+    expect(a!.evidenceMethod).toBe("importance");
+    expect(Math.abs(a!.logEvidence - b!.logEvidence)).toBeLessThan(4 * Math.hypot(a!.logEvidenceError!, b!.logEvidenceError!));
+    expect(comparison.carmaOrder).toBeUndefined();
+    expect(comparison.preference?.strength).toBe("inconclusive");
     expect(comparison.ranking.map((s) => s.label).sort()).toEqual(["carma(1,0)", "drw"]);
   });
 });

@@ -25,6 +25,15 @@ describe("model comparison by Bayesian evidence", () => {
     expect(Math.abs(periodic.ranking[0].maximum.period / 6.2 - 1)).toBeLessThan(0.05);
     expect(periodic.verdict).toMatch(/A period is supported/);
     expect(2 * -periodic.ranking[1].deltaLogEvidence).toBeGreaterThan(10);
+    // How strongly: ln B of the best over the runner-up with its Monte Carlo error, on Kass & Raftery's bands.
+    expect(periodic.preference?.preferred).toBe("quasi-periodic");
+    expect(periodic.preference?.strength).toBe("overwhelming");
+    expect(periodic.verdict).toMatch(/2 ln B = [\d.]+( ± [\d.]+)?, overwhelming evidence/);
+    const drw = periodic.ranking.find((s) => s.model === "drw")!;
+    expect(drw.evidenceMethod).toBe("importance");
+    expect(drw.logEvidenceError).toBeGreaterThan(0);
+    expect(drw.logEvidenceError).toBeLessThan(0.2);
+    expect(Math.abs(drw.logEvidence - drw.laplaceLogEvidence)).toBeLessThan(1);
 
     const quasar = simulate(kernels.dampedRandomWalk({ sigma: 0.2, tau: 40 }), "compare-quasar");
     const aperiodic = compareModels(quasar, ["drw", "quasi-periodic"], { seed: 1 });
