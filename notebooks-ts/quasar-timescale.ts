@@ -106,7 +106,7 @@ run stops on its budget before the criteria hold, the result says so in its warn
 const fit = fitLightCurveDetailed(training, { model: "drw", seed: 417, redshift: truth.redshift, sampler: "ensemble", maxEvaluations: 4e5 });
 const { result } = fit;
 const d = result.diagnostics;
-console.log(`converged: ${d.converged} (stop: ${String(d.stopReason)}); largest R-hat ${d.rhatMax.toFixed(4)}; smallest ESS ${d.essMin.toFixed(0)}; ` +
+console.log(`converged: ${d.converged} (stop: ${String(d.stopReason)}); largest R-hat ${d.rhatMax === null ? "none (importance sampling)" : d.rhatMax.toFixed(4)}; smallest ESS ${d.essMin.toFixed(0)}; ` +
   `${d.likelihoodEvaluations.toLocaleString("en")} evaluations in ${d.seconds.toFixed(1)} s`);
 console.log(result.warnings.length === 0 ? "no warnings" : result.warnings.join("\n"));
 

@@ -101,7 +101,7 @@ const { result } = fit;
 const d = result.diagnostics;
 console.log(`first guess from the periodogram: ${(result.periodogramPeriod as number).toFixed(2)} d`);
 console.log(`period modes found: ${(result.periodModes as { period: number; probability: number }[]).map((m) => `${m.period.toFixed(2)} d (${(100 * m.probability).toFixed(1)}%)`).join(", ")}`);
-console.log(`converged: ${d.converged} (stop: ${String(d.stopReason)}); largest R-hat ${d.rhatMax.toFixed(4)}; smallest ESS ${d.essMin.toFixed(0)}; ${d.seconds.toFixed(1)} s`);
+console.log(`converged: ${d.converged} (stop: ${String(d.stopReason)}); largest R-hat ${d.rhatMax === null ? "none (importance sampling)" : d.rhatMax.toFixed(4)}; smallest ESS ${d.essMin.toFixed(0)}; ${d.seconds.toFixed(1)} s`);
 console.log(result.warnings.length === 0 ? "no warnings" : result.warnings.join("\n"));
 
 // %%

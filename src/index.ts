@@ -12,21 +12,9 @@
  */
 export { kernels, Kernel, SumKernel, ProductKernel, CarmaKernel, DampedRandomWalkKernel, Matern32Kernel, OscillatorKernel, PeriodicSquaredExponentialKernel, QuasiPeriodicKernel } from "./kernels/index.js";
 export { KERNEL_FAMILIES, parameterUnit, parameterValidity } from "./kernels/index.js";
-export type {
-  AnyKernelFamily,
-  FamilyParameter,
-  KernelConstructors,
-  KernelFamily,
-  ParameterKind,
-  ParameterUnit,
-  CarmaOscillation,
-  CarmaParameters,
-  DampedRandomWalkParameters,
-  Matern32Parameters,
-  OscillatorParameters,
-  PeriodicSquaredExponentialParameters,
-  QuasiPeriodicParameters,
-} from "./kernels/index.js";
+export type { AnyKernelFamily, FamilyParameter, KernelConstructors, KernelFamily, ParameterKind, ParameterUnit } from "./kernels/index.js";
+export type { CarmaOscillation, CarmaParameters, DampedRandomWalkParameters, Matern32Parameters, OscillatorParameters } from "./kernels/index.js";
+export type { PeriodicSquaredExponentialParameters, QuasiPeriodicParameters } from "./kernels/index.js";
 export { GaussianProcess } from "./gp/gaussian-process.js";
 export { DenseGaussianProcess } from "./gp/dense-gaussian-process.js";
 export { SemiseparableConditionedProcess } from "./gp/conditioned-process.js";
@@ -61,21 +49,9 @@ export type { SinusoidFit } from "./periodogram/sinusoid-fit.js";
 export { fitLightCurve, fitLightCurveDetailed, type DetailedFit } from "./models/fit-light-curve.js";
 export type { StageSeconds } from "./models/fit-stage-timer.js";
 export type { FitOptions } from "./models/fit-options.js";
-export {
-  RESULT_FORMAT_VERSION,
-  type FitResult,
-  type ParameterSummary,
-  type FitDiagnostics,
-  type FitDataSummary,
-  type FitParameterSummary,
-  type DerivedSummary,
-  type FitChoices,
-  type RobustNoiseSummary,
-  type PriorDescription,
-  type PeriodModeSummary,
-  type StoredPosteriorSample,
-  type JointBandsSummary,
-} from "./models/fit-result.js";
+export { RESULT_FORMAT_VERSION, type FitResult, type ParameterSummary, type FitDiagnostics, type FitDataSummary } from "./models/fit-result.js";
+export type { FitParameterSummary, DerivedSummary, FitChoices, RobustNoiseSummary, PriorDescription } from "./models/fit-result.js";
+export type { PeriodModeSummary, StoredPosteriorSample, JointBandsSummary } from "./models/fit-result.js";
 export { parseFitResult } from "./models/parse-fit-result.js";
 export type { KernelTerm } from "./models/kernel-term.js";
 export type { ModelStanding } from "./models/compare-models.js";

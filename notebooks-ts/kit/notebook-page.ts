@@ -4,6 +4,7 @@
  * script, a Content-Security-Policy forbidding any fetch), so it opens from a file or a CI artifact.
  */
 import { inlineSvg } from "../../src/report/inline-svg.js";
+import { selfContainedPageOpening } from "../../src/report/self-contained-page.js";
 import { HOROLOGIUM_VERSION } from "../../src/version.js";
 import { escapeHtml, renderMarkdown } from "./markdown.js";
 import type { NotebookCell } from "./notebook-cells.js";
@@ -70,18 +71,7 @@ export function notebookPage(input: NotebookPageInput): string {
       );
     })
     .join("\n");
-  return `<!DOCTYPE html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'; img-src data:">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="generator" content="Horologium ${escapeHtml(HOROLOGIUM_VERSION)} notebooks">
-<title>${escapeHtml(title)}</title>
-<style>${STYLE}</style>
-</head>
-<body>
-<main>
+  return `${selfContainedPageOpening({ title, generator: `Horologium ${HOROLOGIUM_VERSION} notebooks`, style: STYLE })}
 <p class="meta">Horologium ${escapeHtml(HOROLOGIUM_VERSION)} · notebook <code>notebooks-ts/${escapeHtml(input.name)}.ts</code> · run in ${input.seconds.toFixed(0)} s · all data invented (Lanternfield Deep Survey)</p>
 ${body}
 </main>

@@ -1,36 +1,14 @@
-import { CarmaKernel, type CarmaOscillation, type CarmaParameters } from "./carma.js";
-import { DampedRandomWalkKernel, type DampedRandomWalkParameters } from "./damped-random-walk.js";
-import { Matern32Kernel, type Matern32Parameters } from "./matern32.js";
-import { OscillatorKernel, type OscillatorParameters } from "./oscillator.js";
-import {
-  PeriodicSquaredExponentialKernel,
-  type PeriodicSquaredExponentialParameters,
-} from "./periodic-squared-exponential.js";
-import { QuasiPeriodicKernel, type QuasiPeriodicParameters } from "./quasi-periodic.js";
-
 import { KERNEL_FAMILIES } from "./families.js";
 
 export { Kernel, SumKernel, ProductKernel, autocovarianceFromForm } from "./kernel.js";
 export { KERNEL_FAMILIES, familyOfExpression, familyOfModel, type ModelName } from "./families.js";
-export {
-  parameterUnit,
-  parameterValidity,
-  type AnyKernelFamily,
-  type FamilyParameter,
-  type KernelFamily,
-  type ParameterKind,
-  type ParameterUnit,
-} from "./kernel-family.js";
-export { CarmaKernel, DampedRandomWalkKernel, Matern32Kernel, OscillatorKernel, PeriodicSquaredExponentialKernel, QuasiPeriodicKernel };
-export type {
-  CarmaOscillation,
-  CarmaParameters,
-  DampedRandomWalkParameters,
-  Matern32Parameters,
-  OscillatorParameters,
-  PeriodicSquaredExponentialParameters,
-  QuasiPeriodicParameters,
-};
+export { parameterUnit, parameterValidity, type AnyKernelFamily, type FamilyParameter, type KernelFamily, type ParameterKind, type ParameterUnit } from "./kernel-family.js";
+export { CarmaKernel, type CarmaOscillation, type CarmaParameters } from "./carma.js";
+export { DampedRandomWalkKernel, type DampedRandomWalkParameters } from "./damped-random-walk.js";
+export { Matern32Kernel, type Matern32Parameters } from "./matern32.js";
+export { OscillatorKernel, type OscillatorParameters } from "./oscillator.js";
+export { PeriodicSquaredExponentialKernel, type PeriodicSquaredExponentialParameters } from "./periodic-squared-exponential.js";
+export { QuasiPeriodicKernel, type QuasiPeriodicParameters } from "./quasi-periodic.js";
 
 /** The `kernels` namespace: one constructor per family of {@link KERNEL_FAMILIES}, under the family's name. */
 export type KernelConstructors = {

@@ -5,6 +5,7 @@ import { escapeHtml } from "./html-escape.js";
 import { inlineSvg } from "./inline-svg.js";
 import { parameterDisplay, timeUnitOf } from "./parameter-display.js";
 import { plainSummary, RHAT_THRESHOLD } from "./plain-summary.js";
+import { selfContainedPageOpening } from "./self-contained-page.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
 
@@ -52,18 +53,7 @@ export function htmlReport(input: ReportInput, figures: readonly DrawnFigure[], 
   };
   const others = figures.filter((f) => !["light-curve", "phase", "zoom", "corner", "spectrum", "traces"].includes(f.figure.id));
 
-  return `<!DOCTYPE html>
-<html lang="en">
-<head>
-<meta charset="utf-8">
-<meta http-equiv="Content-Security-Policy" content="default-src 'none'; style-src 'unsafe-inline'; img-src data:">
-<meta name="viewport" content="width=device-width, initial-scale=1">
-<meta name="generator" content="Horologium ${escapeHtml(result.version)}">
-<title>${escapeHtml(title)}: Horologium report</title>
-<style>${STYLE}</style>
-</head>
-<body>
-<main>
+  return `${selfContainedPageOpening({ title: `${title}: Horologium report`, generator: `Horologium ${result.version}`, style: STYLE })}
 <header>
 <h1>${escapeHtml(title)}</h1>
 <p class="meta">Model <code>${escapeHtml(result.model)}</code> · seed <code>${escapeHtml(String(result.seed))}</code> · Horologium ${escapeHtml(result.version)}</p>
