@@ -1,10 +1,9 @@
-import { unlinkSync } from "node:fs";
 import { GaussianProcess } from "../src/gp/gaussian-process.js";
 import { semiseparableLogLikelihoodGradient, type GradientWorkspace } from "../src/linalg/semiseparable-gradient.js";
 import type { EngineCase, EngineData } from "./engine-cases.js";
-import { coreLogLikelihood, fullLogLikelihood, type TimingSettings } from "./engine-likelihood.js";
-import { NativeEngine, writeDataFile } from "./engine-native.js";
-import { calibrateRepeat, median, nanosecondsPerPoint, timeBatch, type Batch } from "./engine-timing.js";
+import { coreLogLikelihood, fullLogLikelihood, newProcessEvaluation, preparedInputs, type TimingSettings } from "./engine-likelihood.js";
+import { withNativeEngine } from "./engine-native.js";
+import { calibrateRepeat, median, nanosecondsPerPoint, runRotatingRounds, timeBatch, type Batch } from "./engine-timing.js";
 
 /** The gradient of one kernel on one light curve, in likelihoods and against the C reference. */
 export interface GradientRow {
@@ -35,10 +34,7 @@ export interface GradientRow {
 
 /** One gradient as an inference step does it: kernel from parameter values, a new GP, evaluate. */
 export function fullGradient(engineCase: EngineCase, data: EngineData): () => number {
-  const template = engineCase.kernel;
-  const values = template.parameterValues;
-  const options = { errors: data.errors, mean: data.mean };
-  return () => new GaussianProcess(template.withParameters(values), data.time, options).logLikelihoodGradient(data.value).value;
+  return newProcessEvaluation(engineCase, data, (process) => process.logLikelihoodGradient(data.value).value);
 }
 
 /** A sampler's step: the kernel from parameter values on a process made once (`withKernel`), then `evaluate`. */
@@ -51,15 +47,7 @@ function samplerStep<T>(engineCase: EngineCase, data: EngineData, evaluate: (pro
 
 /** The kernel gradient on prepared inputs, as a sampler calls it: the workspace keeps the tape between calls. */
 function coreGradient(engineCase: EngineCase, data: EngineData): { run: () => number; gradient: () => Float64Array } {
-  const form = engineCase.kernel.semiseparableForm();
-  if (!form) throw new Error(`${engineCase.label} has no semiseparable form`);
-  const n = data.time.length;
-  const noise = new Float64Array(n);
-  const residual = new Float64Array(n);
-  for (let i = 0; i < n; i++) {
-    noise[i] = data.errors[i] * data.errors[i];
-    residual[i] = data.value[i] - data.mean;
-  }
+  const { form, noise, residual } = preparedInputs(engineCase, data);
   const workspace: GradientWorkspace = {};
   const evaluate = () => semiseparableLogLikelihoodGradient(form, data.time, noise, residual, { pointwise: false, workspace });
   return { run: () => evaluate().value, gradient: () => evaluate().kernel };
@@ -82,27 +70,19 @@ export async function measureGradient(
   const gradientStep = samplerStep(engineCase, data, (process) => process.logLikelihoodGradient(data.value).value);
   const likelihoodCore = coreLogLikelihood(engineCase, data);
   const gradientCore = coreGradient(engineCase, data);
-  writeDataFile(dataFile, data);
-  const native = NativeEngine.start(executable, dataFile, engineCase.nativeTerms);
-  try {
+  return withNativeEngine(executable, dataFile, data, engineCase.nativeTerms, async (native) => {
     const ts = [likelihoodStep, gradientStep, fullLogLikelihood(engineCase, data), fullGradient(engineCase, data), likelihoodCore, gradientCore.run];
     for (const work of ts) work();
     const tsRepeat = ts.map((work) => calibrateRepeat(work, settings.batchSeconds));
     const nativeModes = ["core", "gradient"] as const;
     const nativeRepeat: number[] = [];
-    for (const mode of nativeModes) {
-      await native.run(mode, 1);
-      const once = await native.run(mode, 1);
-      nativeRepeat.push(Math.max(1, Math.ceil(settings.batchSeconds / Math.max(once.seconds, 1e-9))));
-    }
+    for (const mode of nativeModes) nativeRepeat.push(await native.calibrateRepeat(mode, settings.batchSeconds));
     const samples: Batch[][] = [[], [], [], [], [], [], [], []];
     const steps: Array<() => Promise<void>> = [
       ...ts.map((work, i) => async () => void samples[i].push(timeBatch(work, tsRepeat[i]))),
       ...nativeModes.map((mode, i) => async () => void samples[ts.length + i].push(await native.run(mode, nativeRepeat[i]))),
     ];
-    for (let round = 0; round < settings.rounds; round++) {
-      for (let s = 0; s < steps.length; s++) await steps[(round + s) % steps.length]();
-    }
+    await runRotatingRounds(steps, settings.rounds);
     const repeats = [...tsRepeat, ...nativeRepeat];
     const perPoint = samples.map((batches, i) => batches.map((batch) => nanosecondsPerPoint(batch, repeats[i], n, settings.clock)));
     const ratio = (a: number, b: number) => median(perPoint[a].map((value, round) => value / perPoint[b][round]));
@@ -127,8 +107,5 @@ export async function measureGradient(
       ratioLikelihood: ratio(4, 6),
       gradientDifference: nativeGradient.length === tsGradient.length ? gradientDifference : NaN,
     };
-  } finally {
-    await native.close();
-    unlinkSync(dataFile);
-  }
+  });
 }

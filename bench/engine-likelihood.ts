@@ -1,9 +1,9 @@
-import { unlinkSync } from "node:fs";
 import { GaussianProcess } from "../src/gp/gaussian-process.js";
+import type { SemiseparableForm } from "../src/linalg/semiseparable-form.js";
 import { semiseparableLogLikelihood } from "../src/linalg/semiseparable-likelihood.js";
 import type { EngineCase, EngineData } from "./engine-cases.js";
-import { NativeEngine, writeDataFile } from "./engine-native.js";
-import { calibrateRepeat, median, nanosecondsPerPoint, timeBatch, type Batch, type Clock } from "./engine-timing.js";
+import { withNativeEngine } from "./engine-native.js";
+import { calibrateRepeat, median, nanosecondsPerPoint, runRotatingRounds, timeBatch, type Batch, type Clock } from "./engine-timing.js";
 
 /** Settings shared by the timed sections. */
 export interface TimingSettings {
@@ -34,16 +34,31 @@ export interface LikelihoodRow {
   readonly nativeValue: number;
 }
 
-/** One log-likelihood, as an inference step does it: kernel from parameter values, a new GP, evaluate. */
-export function fullLogLikelihood(engineCase: EngineCase, data: EngineData): () => number {
+/**
+ * One evaluation as an inference step makes it: the kernel from parameter values, a new GaussianProcess
+ * on the light curve (inputs checked and copied), then `evaluate`.
+ */
+export function newProcessEvaluation(engineCase: EngineCase, data: EngineData, evaluate: (process: GaussianProcess) => number): () => number {
   const template = engineCase.kernel;
   const values = template.parameterValues;
   const options = { errors: data.errors, mean: data.mean };
-  return () => new GaussianProcess(template.withParameters(values), data.time, options).logLikelihood(data.value);
+  return () => evaluate(new GaussianProcess(template.withParameters(values), data.time, options));
 }
 
-/** The recursion alone, on a prepared form, noise variances and residuals. */
-export function coreLogLikelihood(engineCase: EngineCase, data: EngineData): () => number {
+/** One log-likelihood, as an inference step does it: kernel from parameter values, a new GP, evaluate. */
+export function fullLogLikelihood(engineCase: EngineCase, data: EngineData): () => number {
+  return newProcessEvaluation(engineCase, data, (process) => process.logLikelihood(data.value));
+}
+
+/** What the engine's core functions take: the kernel's form, the noise variances and the residuals. */
+export interface PreparedInputs {
+  readonly form: SemiseparableForm;
+  readonly noise: Float64Array;
+  readonly residual: Float64Array;
+}
+
+/** The engine's inputs prepared once, outside the timed calls (the recursion alone is timed on them). */
+export function preparedInputs(engineCase: EngineCase, data: EngineData): PreparedInputs {
   const form = engineCase.kernel.semiseparableForm();
   if (!form) throw new Error(`${engineCase.label} has no semiseparable form`);
   const n = data.time.length;
@@ -53,6 +68,12 @@ export function coreLogLikelihood(engineCase: EngineCase, data: EngineData): () 
     noise[i] = data.errors[i] * data.errors[i];
     residual[i] = data.value[i] - data.mean;
   }
+  return { form, noise, residual };
+}
+
+/** The recursion alone, on a prepared form, noise variances and residuals. */
+export function coreLogLikelihood(engineCase: EngineCase, data: EngineData): () => number {
+  const { form, noise, residual } = preparedInputs(engineCase, data);
   return () => semiseparableLogLikelihood(form, data.time, noise, residual);
 }
 
@@ -72,21 +93,14 @@ export async function measureLikelihood(
   const n = data.time.length;
   const full = fullLogLikelihood(engineCase, data);
   const core = coreLogLikelihood(engineCase, data);
-  writeDataFile(dataFile, data);
-  const native = NativeEngine.start(executable, dataFile, engineCase.nativeTerms);
-  try {
+  return withNativeEngine(executable, dataFile, data, engineCase.nativeTerms, async (native) => {
     // Warm-up of this data size (caches, page faults, allocation sizes) on both sides.
     full();
     core();
-    const nativeOnce = await native.run("full", 1);
-    await native.run("core", 1);
     const tsFullRepeat = calibrateRepeat(full, settings.batchSeconds);
     const tsCoreRepeat = calibrateRepeat(core, settings.batchSeconds);
-    const nativeFullRepeat = Math.max(1, Math.ceil(settings.batchSeconds / Math.max(nativeOnce.seconds, 1e-9)));
-    const nativeCoreRepeat = Math.max(
-      1,
-      Math.ceil(settings.batchSeconds / Math.max((await native.run("core", 1)).seconds, 1e-9)),
-    );
+    const nativeFullRepeat = await native.calibrateRepeat("full", settings.batchSeconds);
+    const nativeCoreRepeat = await native.calibrateRepeat("core", settings.batchSeconds);
 
     const other: Clock = settings.clock === "cpu" ? "wall" : "cpu";
     const samples = { tsFull: [] as Batch[], tsCore: [] as Batch[], nativeFull: [] as Batch[], nativeCore: [] as Batch[] };
@@ -96,9 +110,7 @@ export async function measureLikelihood(
       async () => void samples.tsCore.push(timeBatch(core, tsCoreRepeat)),
       async () => void samples.nativeCore.push(await native.run("core", nativeCoreRepeat)),
     ];
-    for (let round = 0; round < settings.rounds; round++) {
-      for (let s = 0; s < steps.length; s++) await steps[(round + s) % steps.length]();
-    }
+    await runRotatingRounds(steps, settings.rounds);
     const perPoint = (batches: Batch[], repeat: number, clock: Clock) =>
       batches.map((batch) => nanosecondsPerPoint(batch, repeat, n, clock));
     const tsFull = perPoint(samples.tsFull, tsFullRepeat, settings.clock);
@@ -121,8 +133,5 @@ export async function measureLikelihood(
       tsValue: samples.tsFull[samples.tsFull.length - 1].value,
       nativeValue: samples.nativeFull[samples.nativeFull.length - 1].value,
     };
-  } finally {
-    await native.close();
-    unlinkSync(dataFile);
-  }
+  });
 }

@@ -1,5 +1,5 @@
 import { spawn, spawnSync, type ChildProcessWithoutNullStreams } from "node:child_process";
-import { existsSync, mkdirSync, writeFileSync } from "node:fs";
+import { existsSync, mkdirSync, unlinkSync, writeFileSync } from "node:fs";
 import { dirname, join } from "node:path";
 import { createInterface, type Interface } from "node:readline";
 import { fileURLToPath } from "node:url";
@@ -65,6 +65,27 @@ export function writeDataFile(path: string, data: EngineData): void {
 }
 
 /**
+ * Runs `measure` with the C reference program serving `data` for the kernel `terms` (the data written to
+ * `dataFile` first); the program is closed and the file removed afterwards, whatever happens.
+ */
+export async function withNativeEngine<T>(
+  executable: string,
+  dataFile: string,
+  data: EngineData,
+  terms: readonly string[],
+  measure: (native: NativeEngine) => Promise<T>,
+): Promise<T> {
+  writeDataFile(dataFile, data);
+  const native = NativeEngine.start(executable, dataFile, terms);
+  try {
+    return await measure(native);
+  } finally {
+    await native.close();
+    unlinkSync(dataFile);
+  }
+}
+
+/**
  * A running C reference program in serve mode, loaded with one light curve and one kernel. Each request
  * runs a batch of evaluations in the C process while the Node process waits, so C and TypeScript batches
  * can be interleaved one by one.
@@ -105,6 +126,16 @@ export class NativeEngine {
       });
       this.child.stdin.write(`${mode} ${repeat}\n`);
     });
+  }
+
+  /**
+   * How many evaluations of `mode` make one batch of about `targetSeconds` (as `calibrateRepeat` for the
+   * TypeScript side): one warm-up request, one timed request, the count rounded up, at least 1.
+   */
+  async calibrateRepeat(mode: "full" | "core" | "gradient", targetSeconds: number): Promise<number> {
+    await this.run(mode, 1);
+    const once = await this.run(mode, 1);
+    return Math.max(1, Math.ceil(targetSeconds / Math.max(once.seconds, 1e-9)));
   }
 
   /** Ends the program (closing its input ends its loop) and waits for it to exit. */

@@ -38,6 +38,16 @@ export function calibrateRepeat(work: () => number, targetSeconds: number): numb
   return Math.max(1, Math.ceil(targetSeconds / Math.max(probe, 1e-9)));
 }
 
+/**
+ * Runs every step once per round for `rounds` rounds, the order rotated by one from round to round, so that
+ * a burst of load from other processes hits every measurement alike (ratios are then taken within a round).
+ */
+export async function runRotatingRounds(steps: ReadonlyArray<() => Promise<void>>, rounds: number): Promise<void> {
+  for (let round = 0; round < rounds; round++) {
+    for (let s = 0; s < steps.length; s++) await steps[(round + s) % steps.length]();
+  }
+}
+
 /** Which clock a figure is read from. */
 export type Clock = "cpu" | "wall";
 

@@ -391,6 +391,55 @@ static const double PRODUCT_LOW = 1e-150, PRODUCT_HIGH = 1e150;
 /* log det from the running product and binary exponent (logDeterminantOf). */
 #define LOG_DETERMINANT() (log(product) + exponent * 0.6931471805599453)
 
+static double not_positive_definite(size_t k, double pivot) {
+  fprintf(stderr, "engine-loglike: not positive definite at point %zu (pivot %g)\n", k, pivot);
+  return NAN;
+}
+
+/*
+ * Point k's pivot D and innovation z taken in, as every recursion does: D must be positive (else NaN is
+ * returned), 1 / D and z are kept for the next point, z^2 / D is summed and D folded into log det.
+ */
+#define TAKE_PIVOT(k, pivot, innovation)                                      \
+  do {                                                                        \
+    if (!((pivot) > 0) || !isfinite(pivot)) return not_positive_definite((k), (pivot)); \
+    previous_inverse = 1 / (pivot);                                           \
+    previous_z = (innovation);                                                \
+    quadratic += previous_z * previous_z * previous_inverse;                  \
+    FOLD_PIVOT(pivot);                                                        \
+  } while (0)
+
+/* S += u u^T / D and f += u z / D for the previous point's gain u, pivot D and innovation z (absorb). */
+static inline void absorb_previous(int r, const double *u, double previous_inverse, double previous_z, double *s, double *f) {
+  for (int i = 0; i < r; i++) {
+    double ui = u[i] * previous_inverse;
+    double *row = s + i * r;
+    for (int j = 0; j < r; j++) row[j] += ui * u[j];
+    f[i] += ui * previous_z;
+  }
+}
+
+/* u = q - S p, with p^T S p and p^T f, every sum from its first term, as projectState. */
+static inline void project_state(int r, const double *p, const double *q, const double *s, const double *f, double *u,
+                                 double *p_s_p, double *p_f) {
+  double ps = 0, pf = 0;
+  for (int i = 0; i < r; i++) {
+    const double *row = s + i * r;
+    double sp = row[0] * p[0];
+    for (int j = 1; j < r; j++) sp += row[j] * p[j];
+    u[i] = q[i] - sp;
+    if (i == 0) {
+      ps = p[0] * sp;
+      pf = p[0] * f[0];
+    } else {
+      ps += p[i] * sp;
+      pf += p[i] * f[i];
+    }
+  }
+  *p_s_p = ps;
+  *p_f = pf;
+}
+
 static double general_recursion(const form_t *form, size_t n, const double *time, const double *noise,
                                 const double *residual, double mean) {
   const int r = form->dimension;
@@ -406,50 +455,19 @@ static double general_recursion(const form_t *form, size_t n, const double *time
   double quadratic = 0, exponent = 0, product = 1, previous_inverse = 0, previous_z = 0;
   for (size_t k = 0; k < n; k++) {
     if (k > 0) {
-      for (int i = 0; i < r; i++) {
-        double ui = u[i] * previous_inverse;
-        double *row = s + i * r;
-        for (int j = 0; j < r; j++) row[j] += ui * u[j];
-        f[i] += ui * previous_z;
-      }
+      absorb_previous(r, u, previous_inverse, previous_z, s, f);
       compute_transitions(form, time[k] - time[k - 1], phi);
       apply_congruence(form, phi, s);
       apply_strided(form, phi, f, 0, 1);
     }
-    /* Sums from their first term, as projectState. */
-    double p_s_p = 0, p_f = 0;
-    for (int i = 0; i < r; i++) {
-      const double *row = s + i * r;
-      double sp = row[0] * p[0];
-      for (int j = 1; j < r; j++) sp += row[j] * p[j];
-      u[i] = q[i] - sp;
-      if (i == 0) {
-        p_s_p = p[0] * sp;
-        p_f = p[0] * f[0];
-      } else {
-        p_s_p += p[i] * sp;
-        p_f += p[i] * f[i];
-      }
-    }
+    double p_s_p, p_f;
+    project_state(r, p, q, s, f, u, &p_s_p, &p_f);
     double pivot = noise[k] + variance - p_s_p;
-    if (!(pivot > 0) || !isfinite(pivot)) {
-      fprintf(stderr, "engine-loglike: not positive definite at point %zu (pivot %g)\n", k, pivot);
-      return NAN;
-    }
-    double z = (residual[k] - mean) - p_f;
-    previous_inverse = 1 / pivot;
-    previous_z = z;
-    quadratic += z * z * previous_inverse;
-    FOLD_PIVOT(pivot);
+    TAKE_PIVOT(k, pivot, (residual[k] - mean) - p_f);
   }
   return -0.5 * (quadratic + LOG_DETERMINANT()) - (double)n * HALF_LOG_TWO_PI;
 }
 
-
-static double not_positive_definite(size_t k, double pivot) {
-  fprintf(stderr, "engine-loglike: not positive definite at point %zu (pivot %g)\n", k, pivot);
-  return NAN;
-}
 
 /*
  * One 1 x 1 block (R = 1) with the state in local variables, as semiseparableLogLikelihood's advanceOne:
@@ -474,12 +492,7 @@ static double one_block_recursion(const form_t *form, size_t n, const double *ti
     double sp = s * p0;
     u = q0 - sp;
     double pivot = noise[k] + variance - p0 * sp;
-    if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
-    double z = (residual[k] - mean) - p0 * f;
-    previous_inverse = 1 / pivot;
-    previous_z = z;
-    quadratic += z * z * previous_inverse;
-    FOLD_PIVOT(pivot);
+    TAKE_PIVOT(k, pivot, (residual[k] - mean) - p0 * f);
   }
   return -0.5 * (quadratic + LOG_DETERMINANT()) - (double)n * HALF_LOG_TWO_PI;
 }
@@ -518,12 +531,7 @@ static double two_block_recursion(const form_t *form, size_t n, const double *ti
     double p_s_p = p0 * sp0 + p1 * sp1;
     double p_f = p0 * f0 + p1 * f1;
     double pivot = noise[k] + variance - p_s_p;
-    if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
-    double z = (residual[k] - mean) - p_f;
-    previous_inverse = 1 / pivot;
-    previous_z = z;
-    quadratic += z * z * previous_inverse;
-    FOLD_PIVOT(pivot);
+    TAKE_PIVOT(k, pivot, (residual[k] - mean) - p_f);
   }
   return -0.5 * (quadratic + LOG_DETERMINANT()) - (double)n * HALF_LOG_TWO_PI;
 }
@@ -655,12 +663,7 @@ static double forward_with_tape(const form_t *form, const tape_layout_t *t, doub
   for (size_t k = 0; k < n; k++) {
     double *record = tape + k * (size_t)t->width;
     if (k > 0) {
-      for (int i = 0; i < r; i++) {
-        double ui = u[i] * previous_inverse;
-        double *row = s + i * r;
-        for (int j = 0; j < r; j++) row[j] += ui * u[j];
-        f[i] += ui * previous_z;
-      }
+      absorb_previous(r, u, previous_inverse, previous_z, s, f);
       int index = 0;
       for (int i = 0; i < r; i++)
         for (int j = i; j < r; j++) record[index++] = s[i * r + j];
@@ -671,30 +674,13 @@ static double forward_with_tape(const form_t *form, const tape_layout_t *t, doub
       apply_congruence(form, phi, s);
       apply_strided(form, phi, f, 0, 1);
     }
-    double p_s_p = 0, p_f = 0;
-    for (int i = 0; i < r; i++) {
-      const double *row = s + i * r;
-      double sp = row[0] * p[0];
-      for (int j = 1; j < r; j++) sp += row[j] * p[j];
-      u[i] = q[i] - sp;
-      if (i == 0) {
-        p_s_p = p[0] * sp;
-        p_f = p[0] * f[0];
-      } else {
-        p_s_p += p[i] * sp;
-        p_f += p[i] * f[i];
-      }
-    }
+    double p_s_p, p_f;
+    project_state(r, p, q, s, f, u, &p_s_p, &p_f);
     double pivot = noise[k] + variance - p_s_p;
-    if (!(pivot > 0) || !isfinite(pivot)) return not_positive_definite(k, pivot);
-    double z = (residual[k] - mean) - p_f;
-    previous_inverse = 1 / pivot;
-    previous_z = z;
-    quadratic += z * z * previous_inverse;
-    FOLD_PIVOT(pivot);
+    TAKE_PIVOT(k, pivot, (residual[k] - mean) - p_f);
     for (int i = 0; i < r; i++) record[t->gain + i] = u[i];
     record[t->inverse_pivot] = previous_inverse;
-    record[t->innovation] = z;
+    record[t->innovation] = previous_z;
   }
   return -0.5 * (quadratic + LOG_DETERMINANT()) - (double)n * HALF_LOG_TWO_PI;
 }
