@@ -12,6 +12,7 @@ import type { LightCurveModel } from "./light-curve-model.js";
 import type { DrawnPeriodMode } from "./period-modes.js";
 import { grossOutlierThreshold, grossOutliers } from "./outlier-screen.js";
 import type { RobustNoise } from "./robust-noise.js";
+import { robustSummary } from "./robust-summary.js";
 
 /** Everything the result JSON is assembled from. */
 export interface ResultParts {
@@ -34,13 +35,14 @@ export const DEFAULT_KEPT_DRAWS = 400;
 
 /**
  * The result stage of a fit: the result JSON ({@link FitResult}) with the data's provenance, the
- * summaries, diagnostics and warnings, the options that change the model, the robust weights, the
+ * summaries, diagnostics and warnings, the options that change the model, the robust noise (bounded: robust-summary.ts), the
  * priors, the maximum a posteriori, the period modes, and at most `keptDraws` posterior draws spread
  * evenly over the pooled ones.
  */
 export function assembleFitResult(parts: ResultParts): FitResult {
   const { options, lightCurve, summary, model, summaries, diagnostics, modes, robust } = parts;
   const provenance = lightCurve.provenance;
+  const robustSection = robust ? robustSummary(robust, lightCurve) : undefined;
   return {
     formatVersion: RESULT_FORMAT_VERSION,
     model: options.model,
@@ -64,7 +66,7 @@ export function assembleFitResult(parts: ResultParts): FitResult {
     diagnostics,
     warnings: [
       ...fitWarnings({ model, summary, lightCurve, parameters: summaries.parameters, derived: summaries.derived, diagnostics, modes, redshift: options.redshift }),
-      ...(robust ? robustWarnings(robust) : outlierWarnings(lightCurve)),
+      ...(robust && robustSection ? robustWarnings(robust, robustSection) : outlierWarnings(lightCurve)),
     ],
     options: {
       ...(options.background ? { background: options.background } : {}),
@@ -73,7 +75,7 @@ export function assembleFitResult(parts: ResultParts): FitResult {
       ...(robust ? { robust: true } : {}),
       ...(options.order !== undefined ? { order: orderText(carmaOrderOf(options.order)) } : {}),
     },
-    ...(robust ? { robust: robustSection(robust) } : {}),
+    ...(robustSection ? { robust: robustSection } : {}),
     priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, settings: p.prior.settings }])),
     maximumPosterior: parts.maximumPosterior,
     ...(modes.length > 0 ? { periodModes: modes.map((m) => ({ period: m.period, probability: m.probability })) } : {}),
@@ -82,27 +84,8 @@ export function assembleFitResult(parts: ResultParts): FitResult {
   };
 }
 
-/** Outlier probability above which a point counts as a likely outlier. */
-const LIKELY_OUTLIER = 0.5;
-
-function likelyOutlierCount(robust: RobustNoise): number {
-  let count = 0;
-  for (const p of robust.outlierProbability) if (p > LIKELY_OUTLIER) count++;
-  return count;
-}
-
-function robustSection(robust: RobustNoise): RobustNoiseSummary {
-  return {
-    noise: `Student-t, ${robust.degreesOfFreedom} degrees of freedom (scale mixture of Gaussians, EM weights)`,
-    degreesOfFreedom: robust.degreesOfFreedom,
-    likelyOutliers: likelyOutlierCount(robust),
-    weights: Array.from(robust.weights),
-    outlierProbability: Array.from(robust.outlierProbability),
-  };
-}
-
-function robustWarnings(robust: RobustNoise): string[] {
-  const likely = likelyOutlierCount(robust);
+function robustWarnings(robust: RobustNoise, summary: RobustNoiseSummary): string[] {
+  const likely = summary.likelyOutliers;
   return [
     ...(likely > 0
       ? [`${likely} points are likely outliers (probability > 0.5 that their scatter exceeds twice their error bar); the Student-t noise down-weights them.`]

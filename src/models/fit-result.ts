@@ -10,9 +10,10 @@ export type { ParameterSummary };
  * The format of the fit-result JSON this version writes and reads (`formatVersion`). Raise it whenever a
  * key is renamed, removed or changes meaning, so that a reader can tell an older file from a malformed
  * one (docs/architecture.md, "Result JSON"). Format 2 is the first that carries the key; files without it
- * were written by earlier versions (priors flattened, diagnostics keys since renamed).
+ * were written by earlier versions (priors flattened, diagnostics keys since renamed). Format 3: `robust`
+ * lists the flagged points and the weights' parameters instead of N weights and probabilities.
  */
-export const RESULT_FORMAT_VERSION = 2;
+export const RESULT_FORMAT_VERSION = 3;
 
 /**
  * The fit result: the JSON contract of `horologium fit` (docs/architecture.md, "Result JSON"). Every key
@@ -125,17 +126,53 @@ export interface FitChoices {
   readonly referenceBand?: string;
 }
 
-/** The robust noise of a fit: the Student-t as a scale mixture of Gaussians, with per-point weights. */
+/**
+ * The robust noise of a fit: the Student-t as a scale mixture of Gaussians. Bounded in size whatever the
+ * number of points: the flagged points in full, a summary of the weights, and the parameters that
+ * determine every weight, from which readers recompute them with the light curve (`robustWeightsAt`,
+ * models/robust-noise.ts; predict and report do).
+ */
 export interface RobustNoiseSummary {
   /** The noise model, in words. */
   readonly noise: string;
   readonly degreesOfFreedom: number;
   /** Points whose outlier probability exceeds 1/2. */
   readonly likelyOutliers: number;
-  /** Per-point precision weights (the error is divided by sqrt(weight)), in the order of the light curve. */
-  readonly weights: readonly number[];
-  /** Per-point probability that the point's scatter exceeds twice its error bar. */
-  readonly outlierProbability: readonly number[];
+  /** Points the weights are for (the light curve's length). */
+  readonly points: number;
+  /** The physical parameters (by name) at which the weights were computed: with the light curve they give every weight. */
+  readonly weightParameters: Readonly<Record<string, number>>;
+  /** The precision weights of all points (each error is divided by sqrt(weight)). */
+  readonly weightSummary: RobustWeightSummary;
+  /**
+   * The likely outliers (outlier probability above 1/2) in the order of the light curve; when there are
+   * more than {@link MAX_FLAGGED_POINTS_STORED}, the most probable that many (`likelyOutliers` counts all).
+   */
+  readonly flagged: readonly RobustFlaggedPoint[];
+}
+
+/** Most flagged points a result lists (`robust.flagged`); `robust.likelyOutliers` counts all of them. */
+export const MAX_FLAGGED_POINTS_STORED = 1000;
+
+/** The distribution of the robust weights over all points. */
+export interface RobustWeightSummary {
+  readonly minimum: number;
+  readonly median: number;
+  readonly maximum: number;
+  /** Points whose weight is below 1/2 (their error bar more than sqrt(2) times wider). */
+  readonly belowHalf: number;
+}
+
+/** One likely outlier of a robust fit. */
+export interface RobustFlaggedPoint {
+  /** Position in the light curve (0-based, time order). */
+  readonly index: number;
+  readonly time: number;
+  readonly value: number;
+  /** Precision weight: the point's error is divided by sqrt(weight). */
+  readonly weight: number;
+  /** Probability that the point's scatter exceeds twice its error bar. */
+  readonly outlierProbability: number;
 }
 
 /** A prior, for readers: its family and the family's settings (for example `{ lower, upper }`). */

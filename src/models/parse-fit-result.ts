@@ -10,6 +10,7 @@ import {
   type JointBandsSummary,
   type PeriodModeSummary,
   type PriorDescription,
+  type RobustFlaggedPoint,
   type RobustNoiseSummary,
   type StoredPosteriorSample,
 } from "./fit-result.js";
@@ -206,12 +207,24 @@ function jointBands(f: Fields): JointBandsSummary {
 }
 
 function robustSummary(f: Fields): RobustNoiseSummary {
+  const weights = f.object("weightSummary");
   return {
     noise: f.text("noise"),
     degreesOfFreedom: f.number("degreesOfFreedom"),
     likelyOutliers: f.count("likelyOutliers"),
-    weights: f.list("weights", (g, index) => g.number(index)),
-    outlierProbability: f.list("outlierProbability", (g, index) => g.number(index)),
+    points: f.count("points"),
+    weightParameters: f.record("weightParameters", (g, key) => g.number(key)),
+    weightSummary: { minimum: weights.number("minimum"), median: weights.number("median"), maximum: weights.number("maximum"), belowHalf: weights.count("belowHalf") },
+    flagged: f.list("flagged", (g, index): RobustFlaggedPoint => {
+      const point = g.object(index);
+      return {
+        index: point.count("index"),
+        time: point.number("time"),
+        value: point.number("value"),
+        weight: point.number("weight"),
+        outlierProbability: point.number("outlierProbability"),
+      };
+    }),
   };
 }
 

@@ -18,6 +18,12 @@ export interface RobustNoise {
   readonly weights: Float64Array;
   /** P(lambda_i < 1/4 | data): the probability that the point's true scatter is over twice its error bar. */
   readonly outlierProbability: Float64Array;
+  /**
+   * The physical parameters (by name) at which the weights were computed, the maximum a posteriori of EM's
+   * last M-step: with the light curve they determine every weight ({@link robustWeightsAt}), so a result
+   * stores them instead of N weights.
+   */
+  readonly parameters: Readonly<Record<string, number>>;
   /** EM iterations used. */
   readonly iterations: number;
   /** Whether the weights settled (largest change below 1e-3) within the iterations allowed. */
@@ -46,8 +52,7 @@ export interface RobustNoise {
  * signal (a short timescale, a large sigma) and keeps a weight near 1.
  */
 export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurve, maxIterations = 50): RobustNoise {
-  const errors = lightCurve.error;
-  if (!errors) throw new RangeError("robust noise needs per-point errors (an error column)");
+  const errors = requireErrors(lightCurve);
   const nu = ROBUST_DEGREES_OF_FREEDOM;
   const n = lightCurve.time.length;
   const z = robustResiduals(lightCurve);
@@ -55,59 +60,21 @@ export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurv
     findMaximumPosterior(unconstrainedPosterior(model.space, modelLikelihood(model, withNoiseWeights(lightCurve, weights)), { jacobian: false }), {
       starts: [from],
     }).x;
-  /** One E-step at `point` from `weights`: the new weights and E[eps_i^2 | y] / s_i^2. */
-  const expectation = (point: Float64Array, weights: Float64Array) => {
-    const weighted = withNoiseWeights(lightCurve, weights);
-    const latent = model.processAt(model.space.toPhysical(point), weighted).given(weighted.value).at(weighted.time);
-    // The point's own precision removed from the latent posterior gives the prediction of all the other
-    // points, N(mu_-i, V_-i); the E-step for lambda_i is then a scalar fixed point (the point's noise enters
-    // its own posterior), iterated to convergence at fixed parameters.
-    const next = new Float64Array(n);
-    const standardised = new Float64Array(n);
-    for (let i = 0; i < n; i++) {
-      const noise = weighted.error![i] ** 2;
-      const variance = latent.variance[i];
-      // Removing the point's own precision is ill-conditioned when the latent variance is almost all the
-      // point's own noise; then the latent posterior itself is the (slightly optimistic) prediction.
-      const removed = variance < noise ? 1 / (1 / variance - 1 / noise) : NaN;
-      const looVariance = Number.isFinite(removed) && removed > 0 ? removed : variance;
-      const looMean = looVariance !== variance ? looVariance * (latent.mean[i] / variance - lightCurve.value[i] / noise) : latent.mean[i];
-      const residual = lightCurve.value[i] - looMean;
-      const base = errors[i] ** 2;
-      let w = weights[i];
-      let e2 = 0;
-      for (let inner = 0; inner < 200; inner++) {
-        const n2 = base / w;
-        const shrink = n2 / (looVariance + n2);
-        e2 = (residual * shrink) ** 2 + looVariance * shrink; // E[eps_i^2 | y] = mean^2 + n V / (V + n)
-        const updated = (nu + 1) / (nu + e2 / base);
-        const settled = Math.abs(updated - w) < 1e-9;
-        w = updated;
-        if (settled) break;
-      }
-      next[i] = Number.isFinite(w) ? Math.max(w, MINIMUM_WEIGHT) : weights[i];
-      standardised[i] = Number.isFinite(e2) ? e2 / base : z[i] * z[i];
-    }
-    return { next, standardised };
-  };
+  const expectation = (point: Float64Array, weights: Float64Array) => expectationStep(model, lightCurve, errors, model.space.toPhysical(point), weights, z);
   // The start: each point's weight is the smaller of two that outliers cannot pull, the Student-t weight of
   // its residual about the running median, and an E-step at the first guess with amplitudes from the
   // median absolute deviation (the sample sd that the guess would otherwise use is inflated by the
   // outliers themselves).
   const guess = model.space.toUnconstrained(model.space.physicalFromRecord(robustFirstGuess(model, lightCurve)));
-  const fromMedian = Float64Array.from(z, (zi) => Math.max((nu + 1) / (nu + zi * zi), MINIMUM_WEIGHT));
   const fromGuess = expectation(guess, new Float64Array(n).fill(1)).next;
-  let weights = Float64Array.from(fromMedian, (w, i) => Math.min(w, fromGuess[i]));
+  let weights: Float64Array = Float64Array.from(medianWeights(z), (w, i) => Math.min(w, fromGuess[i]));
   let point = maximise(weights, guess);
-  let standardised = Float64Array.from(z, (zi) => zi * zi);
   let iteration = 0;
   let converged = false;
   for (; iteration < maxIterations; iteration++) {
     const step = expectation(point, weights);
-    let change = 0;
-    for (let i = 0; i < n; i++) change = Math.max(change, Math.abs(step.next[i] - weights[i]));
+    const change = largestChange(step.next, weights);
     weights = step.next;
-    standardised = step.standardised;
     if (change < 1e-3) {
       iteration++;
       converged = true;
@@ -115,10 +82,101 @@ export function robustNoiseWeights(model: LightCurveModel, lightCurve: LightCurv
     }
     point = maximise(weights, point);
   }
-  const outlierProbability = Float64Array.from({ length: n }, (_, i) =>
-    gammaCdf(0.25, (nu + 1) / 2, (nu + standardised[i]) / 2),
-  );
-  return { degreesOfFreedom: nu, weights, outlierProbability, iterations: iteration, converged };
+  const parameters = model.space.toPhysical(point);
+  return { degreesOfFreedom: nu, ...robustWeightsAt(model, lightCurve, parameters), parameters: model.space.recordFromPhysical(parameters), iterations: iteration, converged };
+}
+
+/** Largest change of a weight between two steps below which E-steps at fixed parameters have settled. */
+const SETTLED_CHANGE = 1e-7;
+
+/**
+ * The robust weights and outlier probabilities of every point at fixed physical parameters: E-steps of
+ * {@link robustNoiseWeights} at `parameters`, started from the Student-t weights of the residuals about
+ * the running median ({@link robustResiduals}, which outliers cannot pull) and repeated until no weight
+ * changes by more than 1e-7 (at most 100 steps). Removing each point's own precision makes its
+ * prediction depend on its neighbours' weights only, so the steps settle in a few rounds. Deterministic
+ * in (model, light curve, parameters): the fit conditions on exactly these weights, and a reader of the
+ * result recomputes them from the stored parameters (models/model-from-result.ts) instead of reading N numbers.
+ */
+export function robustWeightsAt(model: LightCurveModel, lightCurve: LightCurve, parameters: ArrayLike<number>): { weights: Float64Array; outlierProbability: Float64Array } {
+  const errors = requireErrors(lightCurve);
+  const nu = ROBUST_DEGREES_OF_FREEDOM;
+  const z = robustResiduals(lightCurve);
+  let weights = medianWeights(z);
+  let step = expectationStep(model, lightCurve, errors, parameters, weights, z);
+  for (let round = 1; round < 100 && largestChange(step.next, weights) > SETTLED_CHANGE; round++) {
+    weights = step.next;
+    step = expectationStep(model, lightCurve, errors, parameters, weights, z);
+  }
+  const standardised = step.standardised;
+  const outlierProbability = Float64Array.from(standardised, (s) => gammaCdf(0.25, (nu + 1) / 2, (nu + s) / 2));
+  return { weights: step.next, outlierProbability };
+}
+
+/** The Student-t weights (nu + 1) / (nu + z^2) of residuals z about the running median. */
+function medianWeights(z: Float64Array): Float64Array {
+  const nu = ROBUST_DEGREES_OF_FREEDOM;
+  return Float64Array.from(z, (zi) => Math.max((nu + 1) / (nu + zi * zi), MINIMUM_WEIGHT));
+}
+
+function largestChange(next: Float64Array, previous: Float64Array): number {
+  let change = 0;
+  for (let i = 0; i < next.length; i++) change = Math.max(change, Math.abs(next[i] - previous[i]));
+  return change;
+}
+
+function requireErrors(lightCurve: LightCurve): Float64Array {
+  if (!lightCurve.error) throw new RangeError("robust noise needs per-point errors (an error column)");
+  return lightCurve.error;
+}
+
+/**
+ * One E-step at the physical parameters `parameters` from `weights`: the new weights and E[eps_i^2 | y] / s_i^2
+ * of every point (see {@link robustNoiseWeights}); `z` are the residuals about the running median, used
+ * where the E-step is not finite.
+ */
+function expectationStep(
+  model: LightCurveModel,
+  lightCurve: LightCurve,
+  errors: Float64Array,
+  parameters: ArrayLike<number>,
+  weights: Float64Array,
+  z: Float64Array,
+): { next: Float64Array; standardised: Float64Array } {
+  const nu = ROBUST_DEGREES_OF_FREEDOM;
+  const n = lightCurve.time.length;
+  const weighted = withNoiseWeights(lightCurve, weights);
+  const latent = model.processAt(parameters, weighted).given(weighted.value).at(weighted.time);
+  // The point's own precision removed from the latent posterior gives the prediction of all the other
+  // points, N(mu_-i, V_-i); the E-step for lambda_i is then a scalar fixed point (the point's noise enters
+  // its own posterior), iterated to convergence at fixed parameters.
+  const next = new Float64Array(n);
+  const standardised = new Float64Array(n);
+  for (let i = 0; i < n; i++) {
+    const noise = errors[i] ** 2 / weights[i];
+    const variance = latent.variance[i];
+    // Removing the point's own precision is ill-conditioned when the latent variance is almost all the
+    // point's own noise; then the latent posterior itself is the (slightly optimistic) prediction.
+    const removed = variance < noise ? 1 / (1 / variance - 1 / noise) : NaN;
+    const looVariance = Number.isFinite(removed) && removed > 0 ? removed : variance;
+    const looMean = looVariance !== variance ? looVariance * (latent.mean[i] / variance - lightCurve.value[i] / noise) : latent.mean[i];
+    const residual = lightCurve.value[i] - looMean;
+    const base = errors[i] ** 2;
+    let w = weights[i];
+    let e2 = 0;
+    for (let inner = 0; inner < 200; inner++) {
+      const n2 = base / w;
+      const shrink = n2 / (looVariance + n2);
+      e2 = (residual * shrink) ** 2 + looVariance * shrink; // E[eps_i^2 | y] = mean^2 + n V / (V + n)
+      const updated = (nu + 1) / (nu + e2 / base);
+      const settled = Math.abs(updated - w) < 1e-9;
+      w = updated;
+      if (settled) break;
+    }
+    next[i] = Number.isFinite(w) ? Math.max(w, MINIMUM_WEIGHT) : weights[i];
+    standardised[i] = Number.isFinite(e2) ? e2 / base : z[i] * z[i];
+  }
+  return { next, standardised };
 }
 
 /**

@@ -185,24 +185,22 @@ const MAX_OUTLIERS_LISTED = 100;
 function outlierSection(input: ReportInput): string {
   const robust = input.result.robust;
   if (robust === undefined) return "";
-  const { time, value, error } = input.lightCurve;
-  const flagged: number[] = [];
-  robust.outlierProbability.forEach((p, i) => {
-    if (p > 0.5 && i < time.length) flagged.push(i);
-  });
-  const head = `<p>Noise: ${escapeHtml(robust.noise)}. ${flagged.length === 0 ? "No point is more likely than not an outlier." : `${flagged.length} point${flagged.length === 1 ? " is" : "s are"} more likely than not outliers (scatter beyond twice the error bar); the fit down-weights them rather than dropping them.`}</p>`;
-  if (flagged.length === 0) return `<section id="outliers">\n<h2>Outliers</h2>\n${head}\n</section>`;
-  const rows = flagged
+  const { error } = input.lightCurve;
+  const count = robust.likelyOutliers;
+  const head = `<p>Noise: ${escapeHtml(robust.noise)}. ${count === 0 ? "No point is more likely than not an outlier." : `${count} point${count === 1 ? " is" : "s are"} more likely than not outliers (scatter beyond twice the error bar); the fit down-weights them rather than dropping them.`}</p>`;
+  if (robust.flagged.length === 0) return `<section id="outliers">\n<h2>Outliers</h2>\n${head}\n</section>`;
+  const rows = robust.flagged
     .slice(0, MAX_OUTLIERS_LISTED)
     .map(
-      (i) =>
-        `<tr><td>${escapeHtml(formatSignificant(time[i], 10))}</td><td>${escapeHtml(formatSignificant(value[i], 6))}</td><td>${error ? escapeHtml(formatSignificant(error[i], 3)) : "–"}</td><td>${escapeHtml(formatSignificant(robust.outlierProbability[i], 3))}</td></tr>`,
+      (p) =>
+        `<tr><td>${escapeHtml(formatSignificant(p.time, 10))}</td><td>${escapeHtml(formatSignificant(p.value, 6))}</td><td>${error && p.index < error.length ? escapeHtml(formatSignificant(error[p.index], 3)) : "–"}</td><td>${escapeHtml(formatSignificant(p.weight, 3))}</td><td>${escapeHtml(formatSignificant(p.outlierProbability, 3))}</td></tr>`,
     );
-  const more = flagged.length > MAX_OUTLIERS_LISTED ? `\n<p class="note">The first ${MAX_OUTLIERS_LISTED} of ${flagged.length} are listed; the result JSON has every point's probability (robust.outlierProbability).</p>` : "";
+  const listed = Math.min(MAX_OUTLIERS_LISTED, robust.flagged.length);
+  const more = listed < count ? `\n<p class="note">${listed} of the ${count} are listed; the result JSON lists ${robust.flagged.length === count ? "every one" : `the ${robust.flagged.length} most probable`} (robust.flagged).</p>` : "";
   return `<section id="outliers">
 <h2>Outliers</h2>
 ${head}
-<table class="numbers narrow"><thead><tr><th scope="col">Time [${escapeHtml(timeUnitOf(input))}]</th><th scope="col">Value</th><th scope="col">Error</th><th scope="col">Outlier probability</th></tr></thead><tbody>
+<table class="numbers narrow"><thead><tr><th scope="col">Time [${escapeHtml(timeUnitOf(input))}]</th><th scope="col">Value</th><th scope="col">Error</th><th scope="col">Weight</th><th scope="col">Outlier probability</th></tr></thead><tbody>
 ${rows.join("\n")}
 </tbody></table>${more}
 </section>`;

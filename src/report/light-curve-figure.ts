@@ -22,8 +22,6 @@ const MAX_POINTS_WITH_ERROR_BARS = 2000;
 const MAX_POINTS_DRAWN = 5000;
 /** Above this many grid times, the predictive curve is thinned evenly, for the same reason. */
 const MAX_GRID_DRAWN = 2000;
-/** A point whose outlier probability (robust noise) exceeds this is drawn apart and listed. */
-const OUTLIER_PROBABILITY = 0.5;
 
 const SERIES_DATA_WITH_ERRORS = "data ± 1σ";
 const SERIES_DATA = "data";
@@ -47,8 +45,9 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
   const drawn = evenlySpacedIndices(n, MAX_POINTS_DRAWN);
   const withErrors = lightCurve.error !== undefined && n <= MAX_POINTS_WITH_ERROR_BARS;
 
-  const outlierProbability = input.result.robust?.outlierProbability;
-  const flagged = (i: number) => (outlierProbability?.[i] ?? 0) > OUTLIER_PROBABILITY;
+  // The likely outliers of a robust fit (outlier probability > 1/2, robust.flagged) are drawn apart and listed.
+  const flaggedIndices = new Set((input.result.robust?.flagged ?? []).map((point) => point.index));
+  const flagged = (i: number) => flaggedIndices.has(i);
   const domain = bulkRange(lightCurve.value, prediction.mean);
   const clamp = (v: number) => Math.min(domain[1], Math.max(domain[0], v));
   const dataRows = drawn

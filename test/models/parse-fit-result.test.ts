@@ -68,9 +68,9 @@ describe("parseFitResult: reading a fit-result file back", () => {
 
   it("says when a file was written by an older or a newer format", () => {
     const { formatVersion: _, ...withoutVersion } = inventedFitResult();
-    expect(problemOf(withoutVersion)).toMatch(/^lds\.json: written by an older version of horologium \(a result file without "formatVersion"; this version reads format 2\)/);
-    expect(problemOf({ ...inventedFitResult(), formatVersion: 1 })).toMatch(/^lds\.json: written in the older result format 1 \(this version reads format 2\)/);
-    expect(problemOf({ ...inventedFitResult(), formatVersion: 3 })).toMatch(/^lds\.json: written in result format 3, which this version of horologium \(format 2\) does not know/);
+    expect(problemOf(withoutVersion)).toMatch(/^lds\.json: written by an older version of horologium \(a result file without "formatVersion"; this version reads format 3\)/);
+    expect(problemOf({ ...inventedFitResult(), formatVersion: 1 })).toMatch(/^lds\.json: written in the older result format 1 \(this version reads format 3\)/);
+    expect(problemOf({ ...inventedFitResult(), formatVersion: 4 })).toMatch(/^lds\.json: written in result format 4, which this version of horologium \(format 3\) does not know/);
   });
 
   it("names the file and the field of a malformed result", () => {

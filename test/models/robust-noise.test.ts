@@ -5,7 +5,10 @@ import { seasonalGroundCadence } from "../../src/lightcurve/cadence.js";
 import type { LightCurve } from "../../src/lightcurve/light-curve.js";
 import { summarizeLightCurve } from "../../src/models/data-summary.js";
 import { buildModel } from "../../src/models/light-curve-model.js";
-import { robustNoiseWeights, ROBUST_DEGREES_OF_FREEDOM } from "../../src/models/robust-noise.js";
+import { fitLightCurveDetailed } from "../../src/models/fit-light-curve.js";
+import { conditioningLightCurve, modelFromResult } from "../../src/models/model-from-result.js";
+import { parseFitResult } from "../../src/models/parse-fit-result.js";
+import { robustNoiseWeights, robustWeightsAt, ROBUST_DEGREES_OF_FREEDOM } from "../../src/models/robust-noise.js";
 import { createRng } from "../../src/random/rng.js";
 
 describe("Student-t noise by expectation-maximisation (Lange, Little & Taylor 1989, JASA 84, 881)", () => {
@@ -33,5 +36,43 @@ describe("Student-t noise by expectation-maximisation (Lange, Little & Taylor 19
     // For Gaussian scatter, a point is flagged (p > 0.5) only when its residual is a few sigma: rare.
     expect(clean.filter((p) => p > 0.5).length).toBeLessThanOrEqual(Math.ceil(0.02 * clean.length));
     for (const i of outliers) expect(robust.weights[i]).toBeLessThan(0.1);
+  });
+});
+
+describe("the robust section of a result stays bounded and gives every weight back", () => {
+  it("lists the flagged points, and the stored parameters reproduce the weights the fit conditioned on", () => {
+    const rng = createRng("robust-bounded");
+    const time = seasonalGroundCadence({ seasons: 2, revisitInterval: 3 }, rng);
+    const n = time.length;
+    const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.15, tau: 40 }), time, { mean: 18 }).priorDraw(rng);
+    const value = Float64Array.from(truth, (v) => v + 0.02 * rng.normal());
+    const outliers = [7, 30, Math.floor(n / 2), n - 3];
+    for (const i of outliers) value[i] += 1.5; // 75 error bars off
+    const lightCurve: LightCurve = {
+      time,
+      value,
+      error: new Float64Array(n).fill(0.02),
+      unit: "mag",
+      provenance: { source: "lds-robust.csv", timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: true },
+    };
+    const fit = fitLightCurveDetailed(lightCurve, { model: "drw", robust: true, seed: 4, keptDraws: 40, clock: () => 0 });
+    const robust = parseFitResult(JSON.parse(JSON.stringify(fit.result)), "lds-robust.json").robust!;
+    // Bounded: no per-point array, only the flagged points (here exactly the injected ones).
+    expect(robust.points).toBe(n);
+    expect(robust.flagged.map((p) => p.index)).toEqual(outliers);
+    for (const p of robust.flagged) {
+      expect(p.time).toBe(time[p.index]);
+      expect(p.value).toBe(value[p.index]);
+      expect(p.weight).toBeLessThan(0.1);
+    }
+    expect(JSON.stringify(fit.result.robust).length).toBeLessThan(3000);
+    expect(robust.weightSummary.belowHalf).toBeGreaterThanOrEqual(outliers.length);
+    expect(robust.weightSummary.minimum).toBe(fit.robust!.weights.reduce((a, b) => Math.min(a, b), Infinity));
+    // A reader (predict, report) recomputes the very errors the posterior was conditioned on.
+    const again = conditioningLightCurve(parseFitResult(JSON.parse(JSON.stringify(fit.result)), "lds-robust.json"), lightCurve);
+    expect(Array.from(again.error!)).toEqual(Array.from(fit.conditioning.error!));
+    const model = modelFromResult(fit.result, lightCurve);
+    const { weights } = robustWeightsAt(model, lightCurve, model.space.physicalFromRecord(robust.weightParameters));
+    expect(Array.from(weights)).toEqual(Array.from(fit.robust!.weights));
   });
 });
