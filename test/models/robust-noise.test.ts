@@ -11,23 +11,22 @@ import { parseFitResult } from "../../src/models/parse-fit-result.js";
 import { robustNoiseWeights, robustWeightsAt, ROBUST_DEGREES_OF_FREEDOM } from "../../src/models/robust-noise.js";
 import { createRng } from "../../src/random/rng.js";
 
+/** A damped random walk (sigma 0.2 mag, tau 60 d) seen over a few seasons with 0.02 mag errors, `shift(i)` added at the outliers. */
+function drwWithOutliers(seed: string, seasons: number, at: (n: number) => number[], shift: (i: number) => number): { lightCurve: LightCurve; outliers: number[] } {
+  const rng = createRng(seed);
+  const time = seasonalGroundCadence({ seasons, revisitInterval: 4 }, rng);
+  const n = time.length;
+  const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 60 }), time, { mean: 19 }).priorDraw(rng);
+  const value = Float64Array.from(truth, (v) => v + 0.02 * rng.normal());
+  const outliers = at(n);
+  for (const i of outliers) value[i] += shift(i);
+  const provenance = { source: "simulated", timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: false };
+  return { lightCurve: { time, value, error: new Float64Array(n).fill(0.02), unit: "mag", provenance }, outliers };
+}
+
 describe("Student-t noise by expectation-maximisation (Lange, Little & Taylor 1989, JASA 84, 881)", () => {
   it("flags injected outliers and leaves clean points alone", () => {
-    const rng = createRng("robust");
-    const time = seasonalGroundCadence({ seasons: 3, revisitInterval: 4 }, rng);
-    const n = time.length;
-    const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 60 }), time, { mean: 19 }).priorDraw(rng);
-    const error = new Float64Array(n).fill(0.02);
-    const value = Float64Array.from(truth, (v) => v + 0.02 * rng.normal());
-    const outliers = [10, 40, 41, 77, Math.floor(n / 2), n - 5];
-    for (const i of outliers) value[i] += (i % 2 ? 1 : -1) * 0.4; // 20 error bars off
-    const lightCurve: LightCurve = {
-      time,
-      value,
-      error,
-      unit: "mag",
-      provenance: { source: "simulated", timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: false },
-    };
+    const { lightCurve, outliers } = drwWithOutliers("robust", 3, (n) => [10, 40, 41, 77, Math.floor(n / 2), n - 5], (i) => (i % 2 ? 1 : -1) * 0.4); // 20 error bars off
     const model = buildModel("drw", summarizeLightCurve(lightCurve));
     const robust = robustNoiseWeights(model, lightCurve);
     expect(robust.degreesOfFreedom).toBe(ROBUST_DEGREES_OF_FREEDOM);
@@ -41,20 +40,9 @@ describe("Student-t noise by expectation-maximisation (Lange, Little & Taylor 19
 
 describe("the robust section of a result stays bounded and gives every weight back", () => {
   it("lists the flagged points, and the stored parameters reproduce the weights the fit conditioned on", () => {
-    const rng = createRng("robust-bounded");
-    const time = seasonalGroundCadence({ seasons: 2, revisitInterval: 3 }, rng);
+    const { lightCurve, outliers } = drwWithOutliers("robust-bounded", 2, (n) => [7, 30, Math.floor(n / 2), n - 3], () => 1.5); // 75 error bars off
+    const { time, value } = lightCurve;
     const n = time.length;
-    const truth = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.15, tau: 40 }), time, { mean: 18 }).priorDraw(rng);
-    const value = Float64Array.from(truth, (v) => v + 0.02 * rng.normal());
-    const outliers = [7, 30, Math.floor(n / 2), n - 3];
-    for (const i of outliers) value[i] += 1.5; // 75 error bars off
-    const lightCurve: LightCurve = {
-      time,
-      value,
-      error: new Float64Array(n).fill(0.02),
-      unit: "mag",
-      provenance: { source: "lds-robust.csv", timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: true },
-    };
     const fit = fitLightCurveDetailed(lightCurve, { model: "drw", robust: true, seed: 4, keptDraws: 40, clock: () => 0 });
     const robust = parseFitResult(JSON.parse(JSON.stringify(fit.result)), "lds-robust.json").robust!;
     // Bounded: no per-point array, only the flagged points (here exactly the injected ones).
