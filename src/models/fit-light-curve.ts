@@ -10,7 +10,7 @@ import { periodogramPeriod } from "./fit-period-search.js";
 import { pooledDraws, summaryDrawLimit, thinnedDraws } from "./fit-pooling.js";
 import { assembleFitResult } from "./fit-result-assembly.js";
 import type { FitResult } from "./fit-result.js";
-import { noiseConditioning } from "./fit-robust-stage.js";
+import { noiseConditioning, periodSearchCurve } from "./fit-robust-stage.js";
 import { stageTimer, type StageSeconds } from "./fit-stage-timer.js";
 import { sampleStarts } from "./fit-sampling.js";
 import { posteriorSummaries } from "./fit-summaries.js";
@@ -51,7 +51,8 @@ export function fitLightCurve(lightCurve: LightCurve, options: FitOptions): FitR
  *    values, fewer points than parameters) end in an InputError; the period range (`period-range.ts`)
  *    from the cadence, or the user's limits;
  * 1. periodogram (`fit-period-search.ts`): for periodic models, the highest generalised Lomb-Scargle
- *    peak (Zechmeister & Kurster 2009) in the period range as the first guess of the period;
+ *    peak (Zechmeister & Kurster 2009) in the period range as the first guess of the period (with
+ *    `robust`, gross outliers down-weighted by their residuals about a running median, `periodSearchCurve`);
  * 2. model (`buildModel`): priors from the data's own scales;
  * 3. robust noise (`fit-robust-stage.ts`): with `robust`, Student-t weights folded into the errors;
  * 4. modes (`fit-mode-plan.ts`): the period modes at P, P/2 and 2P weighted by their Laplace evidence;
@@ -76,7 +77,7 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   requireVariableData(lightCurve, summary, options.model);
   const range = modelPeriodRange(options.model, summary, options, lightCurve.provenance.source);
   timer.lap("data summary");
-  const periodGuess = range ? periodogramPeriod(lightCurve, range) : undefined;
+  const periodGuess = range ? periodogramPeriod(periodSearchCurve(lightCurve, options.robust === true), range) : undefined;
   timer.lap("periodogram");
   const model = buildModel(options.model, summary, {
     ...(options.background ? { background: options.background } : {}),

@@ -113,6 +113,15 @@ export function robustWeightsAt(model: LightCurveModel, lightCurve: LightCurve, 
   return { weights: step.next, outlierProbability };
 }
 
+/**
+ * The Student-t weights (nu + 1) / (nu + z^2) of the points' residuals z about the running median of
+ * their neighbours ({@link robustResiduals}): the start of the E-steps, which outliers of any size
+ * cannot pull; also the weights of the robust fit's period search (fit-robust-stage.ts).
+ */
+export function runningMedianWeights(lightCurve: LightCurve): Float64Array {
+  return medianWeights(robustResiduals(lightCurve));
+}
+
 /** The Student-t weights (nu + 1) / (nu + z^2) of residuals z about the running median. */
 function medianWeights(z: Float64Array): Float64Array {
   const nu = ROBUST_DEGREES_OF_FREEDOM;
