@@ -41,6 +41,7 @@ export { stretchProposal, differentialEvolutionProposal, defaultWalkerProposals,
 export { createWalkerEnsemble, defaultWalkerCount, type WalkerEnsembleOptions } from "./walker-ensemble.js";
 export { createNutsSampler, type NutsSamplerOptions } from "./nuts-sampler.js";
 export type { MarkovSampler } from "./markov-sampler.js";
+export { ChainTraceRecorder, MAX_TRACE_STEPS, MAX_TRACED_CHAINS, type ChainTrace, type TraceSeries } from "./chain-trace.js";
 export { DrawStore } from "./draw-store.js";
 export {
   runSampler,

@@ -21,6 +21,8 @@ export interface MarkovSampler {
   analysisStart(): number;
   /** Mean acceptance over the kept iterations (NUTS: mean Metropolis acceptance statistic of the trees). */
   acceptanceRate(): number;
+  /** Where every chain or walker is now (unconstrained coordinates) and its ln p, warm-up included: what a trace records. */
+  current(): { readonly positions: readonly Float64Array[]; readonly logPosterior: ArrayLike<number> };
   /** Sampler-specific figures for the result (step sizes, divergences, tree depths, moves). */
   details(): Record<string, unknown>;
 }

@@ -176,6 +176,9 @@ export function createNutsSampler(
     analysisStart() {
       return 0;
     },
+    current() {
+      return { positions: chains.map((c) => c.point.q), logPosterior: Float64Array.from(chains, (c) => c.point.logPosterior) };
+    },
     acceptanceRate() {
       const kept = draws.length * chains.length;
       return kept > 0 ? acceptanceSum / kept : NaN;

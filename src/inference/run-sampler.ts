@@ -1,3 +1,4 @@
+import { ChainTraceRecorder } from "./chain-trace.js";
 import { checkGrowthAfter } from "./check-schedule.js";
 import { assessConvergence, DEFAULT_CONVERGENCE_CRITERIA, type ConvergenceCriteria, type ConvergenceReport } from "./convergence-check.js";
 import { evaluationCost, type EvaluationCounts } from "./evaluation-counter.js";
@@ -69,7 +70,14 @@ export interface SamplerRun {
   readonly stopReason: StopReason;
   /** First kept row used for summaries (after the ensemble's burn-in). */
   readonly analysisStart: number;
+  /**
+   * Iterations before the first draw used for summaries: NUTS's warm-up, or the ensemble's burn-in
+   * (the first half of its iterations, `analysisStart`).
+   */
+  readonly warmup: number;
   readonly diagnostics: RunDiagnostics;
+  /** A bounded trace of the whole run, warm-up included, in the sampler's coordinates ({@link ChainTraceRecorder}). */
+  readonly trace: ChainTraceRecorder;
 }
 
 /**
@@ -103,6 +111,8 @@ export function runSampler(
   let nextCheck = minIterations;
   let fraction = 0;
   let stopReason: StopReason = "budget";
+  const trace = new ChainTraceRecorder(sampler.chainCount, sampler.dimension);
+  if (trace.wants(sampler.iterations)) trace.record(sampler.iterations, sampler.current());
 
   const assess = (quick: boolean): ConvergenceReport => {
     const start = sampler.analysisStart();
@@ -138,6 +148,7 @@ export function runSampler(
       break;
     }
     sampler.iterate();
+    if (trace.wants(sampler.iterations)) trace.record(sampler.iterations, sampler.current());
     const kept = sampler.draws.length;
     if (kept >= nextCheck) {
       report = assess(true);
@@ -174,5 +185,6 @@ export function runSampler(
     gradientCost,
     convergence: report,
   };
-  return { sampler, stopReason, analysisStart: sampler.analysisStart(), diagnostics };
+  const analysisStart = sampler.analysisStart();
+  return { sampler, stopReason, analysisStart, warmup: sampler.warmupIterations + analysisStart, diagnostics, trace };
 }

@@ -1,3 +1,4 @@
+import type { ChainTrace } from "./chain-trace.js";
 import { childSeed, createRng, type Rng } from "../random/rng.js";
 import { createWalkerEnsemble, defaultWalkerCount } from "./walker-ensemble.js";
 import type { WeightedProposal } from "./walker-proposals.js";
@@ -75,6 +76,8 @@ export interface PosteriorSample {
   readonly space: ParameterSpace;
   /** Sampler details (step sizes, divergences, moves, ...). */
   readonly details: Record<string, unknown>;
+  /** A bounded trace of the whole run, warm-up included, in physical units. */
+  readonly trace: ChainTrace;
 }
 
 /** Draws `count` points around `centre`, `scale[i] * spread` wide, each with a finite log density. */
@@ -198,5 +201,6 @@ export function samplePosterior(
     run,
     space,
     details: sampler.details(),
+    trace: run.trace.finish(space, { sampler: kind, iterations: run.diagnostics.iterations, warmup: run.warmup }),
   };
 }

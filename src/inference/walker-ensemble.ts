@@ -108,6 +108,9 @@ export function createWalkerEnsemble(
     analysisStart() {
       return Math.floor(draws.length / 2);
     },
+    current() {
+      return { positions, logPosterior: logp };
+    },
     acceptanceRate() {
       return iterations > 0 ? keptAccepted / (iterations * walkers) : NaN;
     },

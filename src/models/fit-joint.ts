@@ -14,6 +14,7 @@ import { carmaOrderOf, orderText } from "./carma-model.js";
 import { collapseJointMeans, restoreBandMeans } from "./joint-mean-marginal.js";
 import { jointWarnings } from "./joint-warnings.js";
 import { childSeed, createRng } from "../random/rng.js";
+import { runRecords } from "./fit-run-records.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
 
 /** Options of a joint multi-band fit. */
@@ -135,6 +136,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
     maximumPosterior,
     ...(periodGuess !== undefined ? { periodogramPeriod: periodGuess } : {}),
     posteriorSample: thinnedSample(draws, options.keptDraws ?? DEFAULT_KEPT_DRAWS),
+    ...runRecords([markovPosterior(run)]),
   };
   return { result, model, lightCurves, draws, run };
 }

@@ -116,6 +116,7 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     ...(robust ? { robust } : {}),
     maximumPosterior,
     draws,
+    runs,
   });
   timer.lap("result");
   return { result, model, summary, draws, runs, modes: plan.modes, conditioning, stageSeconds: timer.seconds, ...(robust ? { robust } : {}) };

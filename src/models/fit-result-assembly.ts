@@ -1,12 +1,13 @@
 import { carmaOrderOf, orderText } from "./carma-model.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
-import type { PosteriorDraws } from "../inference/index.js";
+import type { MethodPosterior, PosteriorDraws } from "../inference/index.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
 import type { DataSummary } from "./data-summary.js";
 import type { FitOptions } from "./fit-options.js";
 import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { RESULT_FORMAT_VERSION, type FitDiagnostics, type FitResult, type RobustNoiseSummary, type StoredPosteriorSample } from "./fit-result.js";
 import type { PosteriorSummaries } from "./fit-summaries.js";
+import { runRecords } from "./fit-run-records.js";
 import { fitWarnings } from "./fit-warnings.js";
 import type { LightCurveModel } from "./light-curve-model.js";
 import type { DrawnPeriodMode } from "./period-modes.js";
@@ -28,6 +29,8 @@ export interface ResultParts {
   readonly robust?: RobustNoise;
   readonly maximumPosterior: Readonly<Record<string, number>>;
   readonly draws: PosteriorDraws;
+  /** The posterior of each start, for the traces of MCMC runs and the weights of importance-sampled ones. */
+  readonly runs: readonly MethodPosterior[];
 }
 
 /** Number of posterior draws kept in the result when the options do not say (`keptDraws`). */
@@ -81,6 +84,7 @@ export function assembleFitResult(parts: ResultParts): FitResult {
     ...(modes.length > 0 ? { periodModes: modes.map((m) => ({ period: m.period, probability: m.probability })) } : {}),
     ...(parts.periodogramPeriod !== undefined ? { periodogramPeriod: parts.periodogramPeriod } : {}),
     posteriorSample: thinnedSample(parts.draws, options.keptDraws ?? DEFAULT_KEPT_DRAWS),
+    ...runRecords(parts.runs),
   };
 }
 

@@ -1,3 +1,4 @@
+import type { ChainTrace, TraceSeries } from "../inference/chain-trace.js";
 import type { ParameterSummary } from "../inference/posterior-summary.js";
 import type { MethodDiagnostics, PosteriorMethod } from "../inference/posterior-by-method.js";
 import type { SamplerKind } from "../inference/sample-posterior.js";
@@ -54,6 +55,13 @@ export interface FitResult {
   readonly posteriorSample: StoredPosteriorSample;
   /** The bands of a joint multi-band fit (`fit --bands joint`); absent for one band. */
   readonly bands?: JointBandsSummary;
+  /**
+   * A bounded trace of each MCMC run over all its iterations, warm-up included (one per sampled period
+   * mode; absent when no MCMC ran), for the trace figure.
+   */
+  readonly chainTraces?: readonly StoredChainTrace[];
+  /** The weights of each importance-sampled run (absent when none was): importance draws form no chain. */
+  readonly importanceWeights?: readonly StoredImportanceWeights[];
 }
 
 /** What was fitted. */
@@ -198,6 +206,35 @@ export interface StoredPosteriorSample {
   readonly chain: readonly number[];
   /** Physical parameter vectors. */
   readonly rows: readonly (readonly number[])[];
+}
+
+/**
+ * One MCMC run traced over all its iterations (`chainTraces`): the inference layer's `ChainTrace`, a few
+ * chains (and, for a large ensemble, the median over its walkers) at evenly spaced iterations, at most a
+ * few hundred steps, values rounded to 6 significant digits.
+ */
+export type StoredChainTrace = ChainTrace;
+
+/** One traced chain, walker, or the median over every walker (`TraceSeries`). */
+export type StoredTraceSeries = TraceSeries;
+
+/**
+ * The Pareto-smoothed weights of one importance-sampled run, as the report draws them: the weights
+ * times the number of draws (1: an equal share), largest first, the largest ones all kept and the rest
+ * thinned evenly by rank.
+ */
+export interface StoredImportanceWeights {
+  /** Importance draws. */
+  readonly draws: number;
+  /** k-hat of the weights and the threshold it was compared with. */
+  readonly paretoK: number;
+  readonly paretoKThreshold: number;
+  /** ESS of the smoothed weights, 1 / sum w^2. */
+  readonly effectiveSampleSize: number;
+  /** Rank of each stored weight (1: the largest). */
+  readonly ranks: readonly number[];
+  /** The weight at that rank times `draws`. */
+  readonly scaledWeights: readonly number[];
 }
 
 /** The bands of a joint multi-band fit: one shared process, per-band amplitude, mean and lag. */

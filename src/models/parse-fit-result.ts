@@ -12,7 +12,10 @@ import {
   type PriorDescription,
   type RobustFlaggedPoint,
   type RobustNoiseSummary,
+  type StoredChainTrace,
+  type StoredImportanceWeights,
   type StoredPosteriorSample,
+  type StoredTraceSeries,
 } from "./fit-result.js";
 import { MODEL_NAMES, type ModelName } from "./light-curve-model.js";
 
@@ -51,6 +54,8 @@ export function parseFitResult(value: unknown, file: string, label?: string): Fi
   const periodogramPeriod = fields.optional("periodogramPeriod", (f, key) => f.number(key));
   const robust = fields.optional("robust", (f, key) => robustSummary(f.object(key)));
   const bands = fields.optional("bands", (f, key) => jointBands(f.object(key)));
+  const chainTraces = fields.optional("chainTraces", (f, key) => f.list(key, (g, index) => chainTrace(g.object(index))));
+  const importanceWeights = fields.optional("importanceWeights", (f, key) => f.list(key, (g, index) => weightsOfImportance(g.object(index))));
   return {
     formatVersion: RESULT_FORMAT_VERSION,
     model: model as ModelName,
@@ -75,6 +80,8 @@ export function parseFitResult(value: unknown, file: string, label?: string): Fi
     ...(periodModes !== undefined ? { periodModes } : {}),
     ...(periodogramPeriod !== undefined ? { periodogramPeriod } : {}),
     posteriorSample: posteriorSample(fields.object("posteriorSample")),
+    ...(chainTraces !== undefined ? { chainTraces } : {}),
+    ...(importanceWeights !== undefined ? { importanceWeights } : {}),
   };
 }
 
@@ -238,6 +245,44 @@ function posteriorSample(f: Fields): StoredPosteriorSample {
   });
   if (chain.length !== rows.length) throw f.wrong("chain", `one chain number per row (${rows.length})`);
   return { names, chain, rows };
+}
+
+function chainTrace(f: Fields): StoredChainTrace {
+  const sampler = f.text("sampler");
+  if (sampler !== "nuts" && sampler !== "ensemble") throw f.wrong("sampler", '"nuts" or "ensemble"');
+  const steps = f.list("steps", (g, index) => g.count(index));
+  const names = f.list("names", (g, index) => g.text(index));
+  const series = f.list("series", (g, index): StoredTraceSeries => {
+    const s = g.object(index);
+    const chain = s.get("chain") === null ? null : s.count("chain");
+    const sameLength = (h: Fields, key: string) => {
+      const values = h.list(key, (v, k) => v.number(k));
+      if (values.length !== steps.length) throw h.wrong(key, `${steps.length} numbers (one per step)`);
+      return values;
+    };
+    const values = s.object("values");
+    return {
+      label: s.text("label"),
+      chain,
+      values: Object.fromEntries(names.map((name) => [name, sameLength(values, name)])),
+      logPosterior: sameLength(s, "logPosterior"),
+    };
+  });
+  return { sampler, chains: f.count("chains"), iterations: f.count("iterations"), warmup: f.count("warmup"), steps, names, series };
+}
+
+function weightsOfImportance(f: Fields): StoredImportanceWeights {
+  const ranks = f.list("ranks", (g, index) => g.count(index));
+  const scaledWeights = f.list("scaledWeights", (g, index) => g.number(index));
+  if (scaledWeights.length !== ranks.length) throw f.wrong("scaledWeights", `one number per rank (${ranks.length})`);
+  return {
+    draws: f.count("draws"),
+    paretoK: f.number("paretoK"),
+    paretoKThreshold: f.number("paretoKThreshold"),
+    effectiveSampleSize: f.number("effectiveSampleSize"),
+    ranks,
+    scaledWeights,
+  };
 }
 
 function isRecord(value: unknown): value is Record<string, unknown> {

@@ -8,6 +8,7 @@ import { plainSummary, RHAT_THRESHOLD } from "./plain-summary.js";
 import { selfContainedPageOpening } from "./self-contained-page.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
+import { timeScaleName } from "./time-offset.js";
 
 /** A figure with its SVG text: all the HTML page needs of a rendered figure. */
 export interface DrawnFigure {
@@ -51,7 +52,7 @@ export function htmlReport(input: ReportInput, figures: readonly DrawnFigure[], 
     const drawn = byId.get(id);
     return drawn === undefined ? "" : figureHtml(drawn, files);
   };
-  const others = figures.filter((f) => !["light-curve", "phase", "zoom", "corner", "spectrum", "traces"].includes(f.figure.id));
+  const others = figures.filter((f) => !["light-curve", "phase", "zoom", "corner", "spectrum", "traces", "importance-weights"].includes(f.figure.id));
 
   return `${selfContainedPageOpening({ title: `${title}: Horologium report`, generator: `Horologium ${result.version}`, style: STYLE })}
 <header>
@@ -75,6 +76,7 @@ ${figure("zoom")}
 ${figure("corner")}
 ${figure("spectrum")}
 ${figure("traces")}
+${figure("importance-weights")}
 ${others.map((f) => figureHtml(f, files)).join("\n")}
 <section id="diagnostics">
 <h2>Sampler diagnostics</h2>
@@ -200,10 +202,15 @@ function outlierSection(input: ReportInput): string {
   return `<section id="outliers">
 <h2>Outliers</h2>
 ${head}
-<table class="numbers narrow"><thead><tr><th scope="col">Time [${escapeHtml(timeUnitOf(input))}]</th><th scope="col">Value</th><th scope="col">Error</th><th scope="col">Weight</th><th scope="col">Outlier probability</th></tr></thead><tbody>
+<table class="numbers narrow"><thead><tr><th scope="col">${escapeHtml(timeScaleName(input.lightCurve.provenance.timeColumn))} [${escapeHtml(timeUnitOf(input))}]</th><th scope="col">${escapeHtml(valueColumnTitle(input))}</th><th scope="col">Measured error</th><th scope="col">Weight</th><th scope="col">Outlier probability</th></tr></thead><tbody>
 ${rows.join("\n")}
 </tbody></table>${more}
 </section>`;
+}
+
+/** The value column's heading: "Magnitude [mag]" or "Flux". */
+function valueColumnTitle(input: ReportInput): string {
+  return input.lightCurve.unit === "mag" ? "Magnitude [mag]" : "Flux";
 }
 
 /** The sampler and how the run ended, in words. */
@@ -239,7 +246,7 @@ function diagnosticsTable(d: FitDiagnostics): string {
         ["Method", "Pareto-smoothed importance sampling", ""],
         ["Pareto k-hat of the weights", formatSignificant(d.paretoK ?? NaN, 3), (d.paretoK ?? Infinity) <= (d.paretoKThreshold ?? 0.7) ? "" : "bad"],
         ["k-hat threshold for this number of draws", formatSignificant(d.paretoKThreshold ?? NaN, 3), ""],
-        ["Effective sample size of the weights", formatSignificant(d.essMin, 4), ""],
+        ["Effective sample size of the weights", convergenceFigure(Math.round(d.essMin)), ""],
         ["Likelihood evaluations (a gradient counted at its cost)", String(d.likelihoodEvaluations), ""],
         ["Wall time (s)", formatSignificant(d.seconds, 3), ""],
       ]
@@ -251,7 +258,7 @@ function diagnosticsTable(d: FitDiagnostics): string {
           (d.rhatMax ?? NaN) < (d.rhatThreshold ?? RHAT_THRESHOLD) ? "" : "bad",
         ],
         ["R-hat bound for this number of chains", formatSignificant(d.rhatThreshold ?? RHAT_THRESHOLD, 4), ""],
-        ["Smallest effective sample size", convergenceFigure(d.essMin), ""],
+        ["Smallest effective sample size", convergenceFigure(Math.round(d.essMin)), ""],
         ["Largest integrated autocorrelation time (steps)", convergenceFigure(d.autocorrelationTime, 3), ""],
         ["Mean acceptance rate", formatSignificant(d.acceptance ?? NaN, 3), ""],
         ["Likelihood evaluations (a gradient counted at its cost)", String(d.likelihoodEvaluations), ""],
@@ -269,8 +276,11 @@ function diagnosticsTable(d: FitDiagnostics): string {
     ([label, value, cls]) =>
       `<tr${cls ? ` class="${cls}"` : ""}><th scope="row">${escapeHtml(label)}</th><td>${escapeHtml(value)}</td></tr>`,
   );
+  const note = importance
+    ? `An importance sample is trusted when the Pareto k-hat of its weights is at most the threshold for its number of draws and the weights' effective sample size is at least 400 (Vehtari et al. 2024); its draws are independent, so R-hat and autocorrelation do not apply.`
+    : `Chains are taken as mixed when R-hat is below ${RHAT_THRESHOLD} for four chains (Vehtari et al. 2021), and below the bound that asks the same effective sample size for more chains, such as the walkers of an ensemble.`;
   return `<table class="numbers narrow"><tbody>\n${rows.join("\n")}\n</tbody></table>
-<p class="note">Chains are taken as mixed when R-hat is below ${RHAT_THRESHOLD} for four chains (Vehtari et al. 2021), and below the bound that asks the same effective sample size for more chains, such as the walkers of an ensemble.</p>`;
+<p class="note">${note}</p>`;
 }
 
 function dataTable(input: ReportInput): string {

@@ -16,6 +16,7 @@ export { lightCurveFigure } from "./light-curve-figure.js";
 export { cornerFigure } from "./corner-figure.js";
 export { spectrumFigure, spectrumMarkers, type FrequencyMarker } from "./spectrum-figure.js";
 export { traceFigure } from "./trace-figure.js";
+export { importanceWeightsFigure } from "./importance-weights-figure.js";
 export { reportFigures } from "./report-figures.js";
 export { checkReportInput } from "./check-report-input.js";
 export { renderFigure, renderSvg, type RenderedFigure, type RenderOptions } from "./render-figure.js";

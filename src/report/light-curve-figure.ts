@@ -1,13 +1,13 @@
 import type { TopLevelSpec } from "vega-lite";
 import { medianOf } from "../numerics/order-statistics.js";
-import { bulkRange } from "./bulk-range.js";
-import { evenlySpacedIndices } from "../numerics/even-thinning.js";
+import { evenlySpacedIndices, evenlySpacedItems } from "../numerics/even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
 import { formatSignificant } from "./format-measurement.js";
 import { timeUnitOf, valueUnitOf } from "./parameter-display.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
 import { timeAxisTitle, timeOffset, timeScaleName } from "./time-offset.js";
+import { robustFlags, valueAxisRange } from "./value-axis-range.js";
 import type { LayerMember } from "./vega-lite-types.js";
 
 /** The 0.975 quantile of the standard normal: the half-width, in sd, of a central 95% Gaussian band. */
@@ -22,6 +22,11 @@ const MAX_POINTS_WITH_ERROR_BARS = 2000;
 const MAX_POINTS_DRAWN = 5000;
 /** Above this many grid times, the predictive curve is thinned evenly, for the same reason. */
 const MAX_GRID_DRAWN = 2000;
+/**
+ * Flagged points and points beyond the axis are each drawn up to this many (evenly spaced in time beyond):
+ * a few per cent of a million points would otherwise outweigh the thinned data.
+ */
+const MAX_MARKED_DRAWN = 1000;
 
 const SERIES_DATA_WITH_ERRORS = "data ± 1σ";
 const SERIES_DATA = "data";
@@ -29,7 +34,7 @@ const SERIES_MEAN = "posterior-predictive mean";
 const SERIES_INNER = "68% band";
 const SERIES_OUTER = "95% band";
 const SERIES_OUTLIER = "likely outlier (robust noise)";
-const SERIES_BEYOND = "beyond the axis (drawn at its edge)";
+const SERIES_BEYOND = "beyond the axis (at its edge)";
 
 /**
  * The light curve with its error bars, and the posterior-predictive mean of the latent curve with its
@@ -46,9 +51,8 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
   const withErrors = lightCurve.error !== undefined && n <= MAX_POINTS_WITH_ERROR_BARS;
 
   // The likely outliers of a robust fit (outlier probability > 1/2, robust.flagged) are drawn apart and listed.
-  const flaggedIndices = new Set((input.result.robust?.flagged ?? []).map((point) => point.index));
-  const flagged = (i: number) => flaggedIndices.has(i);
-  const domain = bulkRange(lightCurve.value, prediction.mean);
+  const flagged = robustFlags(input.result.robust?.flagged);
+  const domain = valueAxisRange(lightCurve, flagged, prediction.mean);
   const clamp = (v: number) => Math.min(domain[1], Math.max(domain[0], v));
   const dataRows = drawn
     .filter((i) => !flagged(i) && lightCurve.value[i] >= domain[0] && lightCurve.value[i] <= domain[1])
@@ -57,15 +61,20 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
       const e = lightCurve.error?.[i] ?? 0;
       return { t: lightCurve.time[i] - offset, y, lo: clamp(y - e), hi: clamp(y + e) };
     });
-  // Every flagged or off-axis point is drawn, thinned or not: these are the points a reader looks for.
-  const outlierRows: { t: number; y: number }[] = [];
-  const beyondRows: { t: number; y: number; side: string }[] = [];
+  // Flagged and off-axis points are drawn apart from the thinned data (up to MAX_MARKED_DRAWN each):
+  // these are the points a reader looks for.
+  const allOutliers: { t: number; y: number }[] = [];
+  const allBeyond: { t: number; y: number; side: string }[] = [];
+  let flaggedBeyond = 0;
   for (let i = 0; i < n; i++) {
     const y = lightCurve.value[i];
     const beyond = y < domain[0] || y > domain[1];
-    if (beyond) beyondRows.push({ t: lightCurve.time[i] - offset, y: clamp(y), side: (y > domain[1]) !== (lightCurve.unit === "mag") ? "up" : "down" });
-    else if (flagged(i)) outlierRows.push({ t: lightCurve.time[i] - offset, y });
+    if (beyond) allBeyond.push({ t: lightCurve.time[i] - offset, y: clamp(y), side: (y > domain[1]) !== (lightCurve.unit === "mag") ? "up" : "down" });
+    if (beyond && flagged(i)) flaggedBeyond++;
+    else if (flagged(i)) allOutliers.push({ t: lightCurve.time[i] - offset, y });
   }
+  const outlierRows = evenlySpacedItems(allOutliers, MAX_MARKED_DRAWN);
+  const beyondRows = evenlySpacedItems(allBeyond, MAX_MARKED_DRAWN);
   const gridRows = evenlySpacedIndices(prediction.time.length, MAX_GRID_DRAWN).map((i) => {
     const m = prediction.mean[i];
     const s = prediction.sd[i];
@@ -180,14 +189,19 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
       : withErrors
         ? "Bars are the 1σ measurement errors."
         : `Error bars are left out above ${MAX_POINTS_WITH_ERROR_BARS} points; the median 1σ error is ${formatSignificant(medianOf(lightCurve.error), 2)} ${valueUnit}.`;
-  const thinNote = drawn.length < n ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn (every flagged or off-axis point is).` : "";
+  const thinNote =
+    drawn.length < n
+      ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn${allOutliers.length + allBeyond.length > 0 ? `, and ${allOutliers.length + allBeyond.length > outlierRows.length + beyondRows.length ? `up to ${MAX_MARKED_DRAWN} of` : "every"} flagged and off-axis point${allOutliers.length + allBeyond.length === 1 ? "" : "s"} besides` : ""}.`
+      : "";
+  const drawnOf = (drawnCount: number, all: number) => (drawnCount < all ? ` (an evenly spaced ${drawnCount} of them drawn)` : "");
   const outlierNote =
-    outlierRows.length > 0
-      ? ` Open red circles: the ${outlierRows.length} points the robust noise model finds more likely than not to be outliers (listed in the outlier table).`
+    allOutliers.length > 0
+      ? ` Open red circles: the ${allOutliers.length} points the robust noise model finds more likely than not to be outliers${drawnOf(outlierRows.length, allOutliers.length)}, listed in the outlier table.`
       : "";
   const beyondNote =
-    beyondRows.length > 0
-      ? ` The value axis spans the bulk of the data; ${beyondRows.length} point${beyondRows.length === 1 ? " lies" : "s lie"} beyond it, drawn as red triangles at its edge.`
+    allBeyond.length > 0
+      ? ` The value axis spans the bulk of the data; ${allBeyond.length} point${allBeyond.length === 1 ? " lies" : "s lie"} beyond it, drawn as red triangle${allBeyond.length === 1 ? "" : "s"} at its edge${drawnOf(beyondRows.length, allBeyond.length)}` +
+        (flaggedBeyond > 0 ? ` (${flaggedBeyond === allBeyond.length ? (allBeyond.length === 1 ? "a" : "all") : `${flaggedBeyond} of them`} likely outlier${flaggedBeyond === 1 ? "" : "s"} of the robust noise, listed in the outlier table).` : ".")
       : "";
   const offsetNote = offset === 0 ? "" : ` Times are shown relative to ${offset} ${timeUnit}.`;
   return {

@@ -1,6 +1,5 @@
 import type { TopLevelSpec } from "vega-lite";
 import type { LightCurve } from "../lightcurve/light-curve.js";
-import { bulkRange } from "./bulk-range.js";
 import { evenlySpacedIndices } from "../numerics/even-thinning.js";
 import { FIGURE_COLORS, figureConfig } from "./figure-style.js";
 import { formatSignificant } from "./format-measurement.js";
@@ -9,6 +8,7 @@ import { timeUnitOf } from "./parameter-display.js";
 import { sortedQuantile } from "../numerics/order-statistics.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
+import { robustFlags, valueAxisRange } from "./value-axis-range.js";
 
 /** Phase bins of the folded model curve. */
 const PHASE_BINS = 20;
@@ -47,7 +47,7 @@ export function phaseFigure(input: ReportInput): ReportFigure | undefined {
     return [{ phase: centre, ...row }, { phase: centre + 1, ...row }];
   });
   const isMag = lightCurve.unit === "mag";
-  const domain = bulkRange(lightCurve.value, model.map((r) => r.m));
+  const domain = valueAxisRange(lightCurve, robustFlags(input.result.robust?.flagged), model.map((r) => r.m));
   const y = { type: "quantitative" as const, scale: { zero: false, reverse: isMag, domain, nice: false } };
   const x = { field: "phase", type: "quantitative" as const, title: `Phase at P = ${formatSignificant(P, 5)} ${timeUnitOf(input)}`, scale: { domain: [0, 2], nice: false } };
   const spec: TopLevelSpec = {
@@ -97,9 +97,17 @@ export function zoomFigure(input: ReportInput): ReportFigure | undefined {
   if (period === undefined || zoom === undefined || zoom.time.length < 2) return undefined;
   const start = zoom.time[0];
   const end = zoom.time[zoom.time.length - 1];
-  const lightCurve = windowOf(input.lightCurve, start, end);
+  const { lightCurve, kept } = windowOf(input.lightCurve, start, end);
   if (lightCurve.time.length === 0) return undefined;
-  const figure = lightCurveFigure({ ...input, lightCurve, prediction: zoom });
+  // The robust flags follow the points into the window (they are indexed like the light curve).
+  const robust = input.result.robust;
+  const position = new Map(kept.map((index, k) => [index, k]));
+  const flagged = robust?.flagged.flatMap((point) => {
+    const k = position.get(point.index);
+    return k === undefined ? [] : [{ ...point, index: k }];
+  });
+  const result = robust && flagged ? { ...input.result, robust: { ...robust, flagged } } : input.result;
+  const figure = lightCurveFigure({ ...input, result, lightCurve, prediction: zoom });
   const cycles = Math.round((end - start) / period.median);
   return {
     ...figure,
@@ -109,14 +117,18 @@ export function zoomFigure(input: ReportInput): ReportFigure | undefined {
   };
 }
 
-function windowOf(lightCurve: LightCurve, start: number, end: number): LightCurve {
+/** The points of a light curve from `start` to `end`, and their indices in it. */
+function windowOf(lightCurve: LightCurve, start: number, end: number): { lightCurve: LightCurve; kept: number[] } {
   const keep: number[] = [];
   for (let i = 0; i < lightCurve.time.length; i++) if (lightCurve.time[i] >= start && lightCurve.time[i] <= end) keep.push(i);
   const pick = (values: Float64Array) => Float64Array.from(keep, (i) => values[i]);
   return {
-    ...lightCurve,
-    time: pick(lightCurve.time),
-    value: pick(lightCurve.value),
-    ...(lightCurve.error ? { error: pick(lightCurve.error) } : {}),
+    lightCurve: {
+      ...lightCurve,
+      time: pick(lightCurve.time),
+      value: pick(lightCurve.value),
+      ...(lightCurve.error ? { error: pick(lightCurve.error) } : {}),
+    },
+    kept: keep,
   };
 }

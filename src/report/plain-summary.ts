@@ -33,9 +33,15 @@ export function plainSummary(input: ReportInput): string[] {
   const sentences: string[] = [];
 
   const band = lightCurve.band === undefined ? "" : ` in band ${lightCurve.band}`;
+  const placeholders = result.data.placeholders ?? 0;
+  const missing = result.data.dropped - placeholders;
+  const reasons = [
+    ...(missing > 0 ? [`${missing} with a missing value`] : []),
+    ...(placeholders > 0 ? [`${placeholders} with a placeholder code instead of a measurement`] : []),
+  ];
   const dropped =
     result.data.dropped > 0
-      ? ` ${result.data.dropped} ${result.data.dropped === 1 ? "row was" : "rows were"} dropped for missing values.`
+      ? ` ${result.data.dropped} ${result.data.dropped === 1 ? "row was" : "rows were"} dropped (${reasons.join(", ")}).`
       : "";
   sentences.push(
     `The light curve${band} has ${result.data.n} measurements over a baseline of ` +

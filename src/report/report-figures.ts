@@ -1,5 +1,6 @@
 import { checkReportInput } from "./check-report-input.js";
 import { cornerFigure } from "./corner-figure.js";
+import { importanceWeightsFigure } from "./importance-weights-figure.js";
 import { lightCurveFigure } from "./light-curve-figure.js";
 import { phaseFigure, zoomFigure } from "./periodic-figures.js";
 import type { ReportFigure } from "./report-figure.js";
@@ -13,7 +14,8 @@ import { traceFigure } from "./trace-figure.js";
  * the light curve folded at it and a zoom on a few periods; and, for a joint multi-band
  * fit, one panel per band), corner plot, power spectrum
  * (when a periodogram or PSD band is given; for CARMA and DRW fits the one-scale comparison of psd-figure.ts)
- * and chain traces. Specifications only; nothing is rendered.
+ * and chain traces over the whole run (or, for an importance-sampled fit, its weights). Specifications only;
+ * nothing is rendered.
  * Throws a RangeError when the input's arrays do not fit together (see {@link checkReportInput}).
  */
 export function reportFigures(input: ReportInput): ReportFigure[] {
@@ -31,5 +33,6 @@ export function reportFigures(input: ReportInput): ReportFigure[] {
     cornerFigure(input),
     ...(spectrum === undefined ? [] : [spectrum]),
     traceFigure(input),
-  ];
+    importanceWeightsFigure(input),
+  ].filter((f): f is ReportFigure => f !== undefined);
 }

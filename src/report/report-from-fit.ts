@@ -4,6 +4,7 @@ import type { LightCurveModel } from "../models/light-curve-model.js";
 import type { Kernel } from "../kernels/index.js";
 import { posteriorPredictive, type PredictiveCurve } from "../models/posterior-predictive.js";
 import { evenlySpacedItems } from "../numerics/even-thinning.js";
+import { conditioningLightCurve } from "../models/model-from-result.js";
 import { storedPosteriorSample } from "../models/posterior-sample.js";
 import { quantileOf } from "../numerics/order-statistics.js";
 import { computePeriodogram } from "../periodogram/periodogram.js";
@@ -19,7 +20,9 @@ export interface ReportSizes {
 }
 
 /**
- * Fills a report from a fit: the posterior-predictive curve on a grid spanning the data, 5% before the
+ * Fills a report from a fit of `lightCurve` (as read: the measured errors, which the figures and the
+ * outlier table show): the posterior-predictive curve, conditioned on the light curve as the fit saw it
+ * (errors widened by the robust weights, when the fit was robust), on a grid spanning the data, 5% before the
  * first point and 10% after the last (so the forecast after the last point shows); the draws per chain;
  * the generalised Lomb-Scargle periodogram; and the 68% band of the model PSD, S(2 pi f) (two-sided, per
  * unit angular frequency) at log-spaced frequencies from a tenth of 1 / baseline to 1 / (2 x smallest spacing).
@@ -30,9 +33,10 @@ export function reportInputFromFit(
   model: LightCurveModel,
   sizes: ReportSizes = {},
 ): ReportInput {
+  const conditioning = conditioningLightCurve(result, lightCurve);
   return reportInputFromDraws(lightCurve, result, {
     names: model.space.names,
-    predict: (rows, grid) => posteriorPredictive(model, lightCurve, rows, grid),
+    predict: (rows, grid) => posteriorPredictive(model, conditioning, rows, grid),
     kernelAt: (row) => model.kernelAt(row),
   }, sizes);
 }

@@ -49,12 +49,14 @@ function inventedLightCurve(n: number, seed: number): LightCurve {
 describe("parseFitResult: reading a fit-result file back", () => {
   it("reads back exactly what a fit wrote, and every key the fit writes is one it declares", () => {
     // A short, unconverged fit is enough: the format does not depend on convergence.
-    for (const options of [{ model: "drw" as const, robust: true, redshift: 1.2 }, { model: "oscillator" as const }]) {
-      const result = fitLightCurve(inventedLightCurve(60, 3), { ...options, seed: 5, maxEvaluations: 3e4, keptDraws: 40 });
+    // Importance sampling (drw: importanceWeights), the ensemble and NUTS (chainTraces).
+    for (const options of [{ model: "drw" as const, robust: true, redshift: 1.2 }, { model: "oscillator" as const }, { model: "drw" as const, sampler: "nuts" as const, maxEvaluations: 2e5 }]) {
+      const result = fitLightCurve(inventedLightCurve(60, 3), { seed: 5, maxEvaluations: 3e4, keptDraws: 40, ...options });
       const written = throughJson(result);
       // Keys the reader does not know would be dropped here, and the comparison would fail.
       expect(throughJson(parseFitResult(written, "lds.json"))).toEqual(written);
       expect(result.formatVersion).toBe(RESULT_FORMAT_VERSION);
+      expect(result.chainTraces !== undefined || result.importanceWeights !== undefined).toBe(true);
     }
   });
 

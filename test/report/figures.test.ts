@@ -6,6 +6,8 @@ import { lightCurveFigure, NORMAL_Z95 } from "../../src/report/light-curve-figur
 import { renderFigure, renderSvg, type RenderedFigure } from "../../src/report/render-figure.js";
 import type { ReportInput } from "../../src/report/report-input.js";
 import { spectrumFigure, spectrumMarkers } from "../../src/report/spectrum-figure.js";
+import type { StoredChainTrace } from "../../src/models/fit-result.js";
+import { importanceWeightsFigure } from "../../src/report/importance-weights-figure.js";
 import { traceFigure } from "../../src/report/trace-figure.js";
 import { inventedReportInput } from "./invented-input.js";
 import { markSets, PNG_SIGNATURE, pngSize, svgTexts } from "./svg-marks.js";
@@ -14,7 +16,7 @@ const input = inventedReportInput();
 const rendered: Record<string, RenderedFigure> = {};
 
 beforeAll(async () => {
-  for (const figure of [lightCurveFigure(input), cornerFigure(input), spectrumFigure(input)!, traceFigure(input)]) {
+  for (const figure of [lightCurveFigure(input), cornerFigure(input), spectrumFigure(input)!, traceFigure(input)!]) {
     rendered[figure.id] = await renderFigure(figure);
   }
 });
@@ -227,20 +229,57 @@ describe("spectrum figure", () => {
 });
 
 describe("trace figure", () => {
-  it("draws one line per chain and parameter, on a labelled step axis", () => {
-    const svg = rendered["traces"].svg;
-    const lines = markSets(svg).filter((s) => s.type === "line");
-    const chains = input.draws.chains["tau"].length;
-    expect(lines).toHaveLength(chains * input.draws.names.length);
-    for (const line of lines) expect(line.items).toBe(1);
+  /** A trace of 3 walkers and their median over 900 iterations (burn-in 450) in which walker 3 drifts in tau. */
+  function driftingTrace(): StoredChainTrace {
+    const steps = Array.from({ length: 300 }, (_, k) => 3 * k);
+    const series = [0, 1, 2].map((c) => ({
+      label: `walker ${c + 1}`,
+      chain: c as number | null,
+      values: { tau: steps.map((s) => (c === 2 ? 200 + s : 200 + 10 * Math.sin(s + c))), sigma: steps.map(() => 0.2 + 0.01 * c) },
+      logPosterior: steps.map((s) => -100 - (c === 2 ? s / 100 : 0)),
+    }));
+    return { sampler: "ensemble", chains: 24, iterations: 900, warmup: 450, steps, names: ["tau", "sigma"], series: [...series, { ...series[0], label: "median of 24 walkers", chain: null }] };
+  }
+
+  it("draws the whole run from the result's trace: one line per series in each parameter's panel and in ln p, the burn-in shaded", async () => {
+    const traced = { ...input, result: { ...input.result, chainTraces: [driftingTrace()] } };
+    const figure = traceFigure(traced)!;
+    const rows = datasets(figure.spec)["trace0_0"];
+    // Reference: the trace itself (4 series x 300 steps), drawn in log10 when tau spans a decade, else as is.
+    expect(rows).toHaveLength(4 * 300);
+    const drifting = rows.filter((r) => r["series"] === "walker 3");
+    expect(drifting[drifting.length - 1]["step"]).toBe(897);
+    const svg = await renderSvg(figure);
     const texts = svgTexts(svg);
-    for (const title of ["Step", "τ [d]", "σ [mag]", "mean [mag]"]) expect(texts).toContain(title);
+    for (const title of ["Iteration (warm-up included)", "ln p", "burn-in", "walker 3", "median of 24 walkers"]) expect(texts).toContain(title);
+    const marks = markSets(svg);
+    // Panels: tau, sigma, ln p; in each one line per series and the shaded burn-in.
+    expect(marks.filter((m) => m.type === "line")).toHaveLength(3 * 4);
+    expect(marks.filter((m) => m.type === "rect").length).toBeGreaterThanOrEqual(3);
+    expect(figure.caption).toContain("over the whole run of 900 iterations, drawn at 300 evenly spaced iterations");
+    expect(figure.caption).toContain("3 of the 24 walkers and the median over all 24");
+    expect(figure.caption).toContain("Not traced: mean, integrated out while sampling");
   });
-  it("thins long runs of many walkers evenly and says so", () => {
-    const many = inventedReportInput({ chains: 40, steps: 400 });
-    const figure = traceFigure(many);
-    expect(datasets(figure.spec)["trace0"]).toHaveLength(40 * 200);
-    expect(figure.caption).toContain("200 evenly spaced steps");
-    expect(figure.caption).not.toContain("one colour per chain");
+
+  it("without a stored trace, draws the kept draws (a few chains, thinned) and says the warm-up is missing", () => {
+    const many = inventedReportInput({ chains: 40, steps: 800 });
+    const figure = traceFigure(many)!;
+    expect(datasets(figure.spec)["trace0_0"]).toHaveLength(4 * 500);
+    expect(figure.caption).toContain("holds no trace of the whole run");
+  });
+
+  it("is left out for an importance-sampled fit, whose weights are drawn instead", async () => {
+    const weights = { draws: 1000, paretoK: 0.31, paretoKThreshold: 0.67, effectiveSampleSize: 640, ranks: [1, 2, 3, 500, 1000], scaledWeights: [4.2, 3.1, 2.5, 1.0, 0.0001] };
+    const sampled = { ...input, result: { ...input.result, importanceWeights: [weights] } };
+    expect(traceFigure(sampled)).toBeUndefined();
+    const figure = importanceWeightsFigure(sampled)!;
+    // The weights as stored, the smallest raised to the axis floor (1e-3 of an equal share).
+    expect(datasets(figure.spec)["weights"].map((r) => r["w"])).toEqual([4.2, 3.1, 2.5, 1.0, 1e-3]);
+    expect(figure.caption).toContain("k-hat 0.31 (threshold 0.67), ESS 640 of 1000 draws, the largest weight 4.2 times an equal share");
+    expect(figure.caption).toContain("there is no chain");
+    const texts = svgTexts(await renderSvg(figure));
+    expect(texts).toContain("Weight × number of draws");
+    expect(importanceWeightsFigure(input)).toBeUndefined();
   });
 });
+

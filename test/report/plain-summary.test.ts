@@ -69,7 +69,9 @@ describe("plainSummary", () => {
   it("mentions dropped rows and a missing error column", () => {
     const input = withResult({ data: { ...base.result.data, dropped: 1, errorColumn: null } });
     const text = plainSummary(input)[0];
-    expect(text).toContain("1 row was dropped for missing values");
+    expect(text).toContain("1 row was dropped (1 with a missing value)");
     expect(text).toContain("a white-noise term was fitted");
+    const placeholders = withResult({ data: { ...base.result.data, dropped: 3, placeholders: 2 } });
+    expect(plainSummary(placeholders)[0]).toContain("3 rows were dropped (1 with a missing value, 2 with a placeholder code instead of a measurement)");
   });
 });

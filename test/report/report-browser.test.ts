@@ -91,7 +91,7 @@ describe.skipIf(skipWithoutChromium)("the HTML report in headless Chromium", () 
     expect(texts("figure-light-curve")).toContain("Magnitude [mag]");
     expect(texts("figure-corner")).toContain("τ [d]");
     expect(texts("figure-spectrum")).toContain("Frequency [cycles / d]");
-    expect(texts("figure-traces")).toContain("Step");
+    expect(texts("figure-traces")).toContain("Kept step (after warm-up)");
     expect(warningsVisible).toBe(true);
   });
 });

@@ -74,7 +74,7 @@ async function fitRequest(request: FitRequest): Promise<WorkerMessage> {
   });
   scope.postMessage({ type: "progress", stage: "drawing the report", fraction: 1, evaluations: fit.result.diagnostics.likelihoodEvaluations });
   const result = { ...fit.result, warnings: [...readingNotes, ...fit.result.warnings] };
-  const input = { ...reportInputFromFit(fit.conditioning, result, fit.model), title: reportTitle(lightCurve, request) };
+  const input = { ...reportInputFromFit(lightCurve, result, fit.model), title: reportTitle(lightCurve, request) };
   const drawn = [];
   for (const figure of reportFigures(input)) drawn.push({ figure, svg: await renderSvg(figure) });
   const prediction = input.prediction;

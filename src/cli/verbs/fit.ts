@@ -56,7 +56,7 @@ export const verb: CliVerb = {
       const results = await fitAll(lightCurves, options, io, quiet, async (lightCurve, fit) => {
         if (!reportDir) return;
         const dir = resolve(io.cwd, reportDir, lightCurves.length > 1 ? `band-${lightCurve.band}` : ".");
-        const written = await writeReport(reportInputFromFit(fit.conditioning, fit.result, fit.model), dir);
+        const written = await writeReport(reportInputFromFit(lightCurve, fit.result, fit.model), dir);
         if (!quiet) io.stderr(`report: ${written.html}\n`);
       });
       json = JSON.stringify(choice.kind === "separate" ? perBandResults(results) : results[0], null, 2) + "\n";

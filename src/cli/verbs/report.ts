@@ -1,6 +1,6 @@
 import { InputError } from "../../errors/input-error.js";
 import { readLightCurves } from "../../lightcurve/read-light-curves.js";
-import { conditioningLightCurve, modelFromResult } from "../../models/model-from-result.js";
+import { modelFromResult } from "../../models/model-from-result.js";
 import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { jointReportInput } from "../../report/joint-report-input.js";
 import type { ReportInput } from "../../report/report-input.js";
@@ -86,7 +86,7 @@ async function reportFromResult({ values, file: resultPath, quiet }: SingleInput
   if (lightCurve.time.length !== result.data.n)
     throw new InputError(`the light curve has ${lightCurve.time.length} points, the result was fitted to ${result.data.n}: not the same data`, { file: dataPath });
   const input = fromStoredResult(resultPath, () =>
-    reportInputFromFit(conditioningLightCurve(result, lightCurve), result, modelFromResult(result, lightCurve)),
+    reportInputFromFit(lightCurve, result, modelFromResult(result, lightCurve)),
   );
   const written = await writeReport(input, resolve(io.cwd, textOption(values, "out") ?? "report"));
   if (!quiet) io.stdout(`${written.html}\n`);
