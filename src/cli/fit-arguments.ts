@@ -1,5 +1,7 @@
 import { UsageError } from "../errors/usage-error.js";
 import { DEFAULT_SAMPLER, type SamplerKind } from "../inference/index.js";
+import { KERNEL_FAMILIES } from "../kernels/families.js";
+import type { AnyKernelFamily } from "../kernels/kernel-family.js";
 import type { FitOptions } from "../models/fit-options.js";
 import { MODEL_NAMES, type ModelName } from "../models/light-curve-model.js";
 import { carmaOrderOf, orderText, parseCarmaOrder, type CarmaOrder } from "../models/carma-model.js";
@@ -32,10 +34,14 @@ export const FIT_OPTIONS = {
  */
 export const FILE_FIT_OPTIONS = { ...COLUMN_OPTIONS, ...FIT_OPTIONS, ...BAND_OPTIONS, ...OUTPUT_OPTIONS } as const;
 
+/** The models of the kernel families, each with what it is for (from the family's descriptor). */
+const FAMILY_MODEL_HELP = (KERNEL_FAMILIES as readonly AnyKernelFamily[])
+  .flatMap((family) => (family.model ? [`${family.model.name} (${family.model.purpose})`] : []))
+  .join(", ");
+
 /** The help lines of {@link FIT_OPTIONS}. */
-export const FIT_HELP = `  --model NAME            ${MODEL_NAMES.join(", ")}: drw (quasar timescale), oscillator,
-                          quasi-periodic (stellar rotation), carma (continuous-time ARMA,
-                          Kelly et al. 2014; needs --order)
+export const FIT_HELP = `  --model NAME            ${FAMILY_MODEL_HELP},
+                          or carma (continuous-time ARMA, Kelly et al. 2014; needs --order)
   --order p,q             the CARMA order: p autoregressive roots (1 to 4), q < p moving-average terms
   --background drw        add a slow damped random walk for trends
   --seed N                seed of every random choice, a non-negative integer (default 1):

@@ -4,7 +4,7 @@ import { OscillatorTransition } from "../linalg/oscillator-transition.js";
 import { formAutocovariance, type SemiseparableForm } from "../linalg/semiseparable-form.js";
 import type { TransitionBlock } from "../linalg/transition-block.js";
 import { Kernel } from "./kernel.js";
-import type { KernelFamily } from "./kernel-family.js";
+import { STANDARD_DEVIATION, type KernelFamily } from "./kernel-family.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** One damped oscillation of a CARMA process: a quadratic factor s^2 + (w0/Q) s + w0^2 of its AR polynomial. */
@@ -332,7 +332,7 @@ export const carmaFamily: KernelFamily<"carma", CarmaParameters, never> = {
   expressionName: "carma",
   summary: "CARMA(p, q) (Kelly et al. 2014), stationary by construction: spectra with several breaks or bumps",
   parameters: [
-    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    STANDARD_DEVIATION,
     { name: "period<k>", kind: "period", description: "undamped period of oscillation k" },
     { name: "quality<k>", kind: "quality", description: "quality factor of oscillation k" },
     { name: "tau<k>", kind: "timescale", description: "relaxation timescale k" },

@@ -68,10 +68,10 @@ export const dampedRandomWalkFamily = fixedParameterFamily({
   name: "dampedRandomWalk",
   expressionName: "drw",
   summary: "sigma^2 exp(-|t| / tau): quasar and AGN variability",
+  kernel: DampedRandomWalkKernel,
   parameters: [
     { name: "sigma", kind: "amplitude", description: "long-term standard deviation" },
     { name: "tau", kind: "timescale", description: "damping timescale" },
   ],
-  create: (parameters: DampedRandomWalkParameters) => new DampedRandomWalkKernel(parameters),
-  model: { name: "drw", periodCycles: 1 },
+  model: { name: "drw", periodCycles: 1, purpose: "quasar timescale" },
 });

@@ -36,6 +36,12 @@ export interface FamilyParameter {
 }
 
 /**
+ * The amplitude parameter of every family but the damped random walk (whose sigma is described as the
+ * long-term standard deviation): sigma, with k(0) = sigma^2.
+ */
+export const STANDARD_DEVIATION: FamilyParameter = { name: "sigma", kind: "amplitude", description: "standard deviation" };
+
+/**
  * Everything the library, the CLI and the models need to know about one kernel family, in one place
  * (each family's file exports its descriptor; kernels/families.ts lists them).
  */
@@ -63,9 +69,10 @@ export interface KernelFamily<Name extends string = string, Parameters = never, 
   /**
    * The ready-made model of the trade built on this family (`fit --model NAME`): its parameters are the
    * family's, amplitude last, then `mean`; `periodCycles` is how many cycles of the period the baseline must
-   * hold (the period prior stops at baseline / periodCycles).
+   * hold (the period prior stops at baseline / periodCycles); `purpose` says in a few words what it is for,
+   * for the model lists of the CLI's help and the browser page.
    */
-  readonly model?: { readonly name: Model; readonly periodCycles: number };
+  readonly model?: { readonly name: Model; readonly periodCycles: number; readonly purpose: string };
 }
 
 /** Any kernel family (the supertype of every descriptor, whatever its parameter object). */
@@ -85,24 +92,30 @@ export function parameterValidity(kind: ParameterKind): string {
 }
 
 /**
- * A descriptor for a family with a fixed list of parameters: `fromValues` and `fromExpression` build the
- * parameter object from the list, so the family's file states its parameters once.
+ * A descriptor for a family with a fixed list of parameters, from its kernel class: `create` constructs
+ * the class, and `fromValues` and `fromExpression` build the parameter object from the list, so the
+ * family's file states its parameters once.
  *
  * @example
- * export const dampedRandomWalkFamily = fixedParameterFamily({
- *   name: "dampedRandomWalk", expressionName: "drw", summary: "...",
- *   parameters: [{ name: "sigma", kind: "amplitude", description: "..." }, { name: "tau", kind: "timescale", description: "..." }],
- *   create: (p: DampedRandomWalkParameters) => new DampedRandomWalkKernel(p),
+ * export const matern32Family = fixedParameterFamily({
+ *   name: "matern32", expressionName: "matern32", summary: "...", kernel: Matern32Kernel,
+ *   parameters: [STANDARD_DEVIATION, { name: "scale", kind: "timescale", description: "length scale" }],
  * });
  */
 export function fixedParameterFamily<const Name extends string, Parameters, const Model extends string = never>(
-  spec: Omit<KernelFamily<Name, Parameters, Model>, "fromValues" | "fromExpression">,
+  spec: Omit<KernelFamily<Name, Parameters, Model>, "create" | "fromValues" | "fromExpression"> & {
+    /** The family's kernel class, constructed from its parameter object (which it validates). */
+    readonly kernel: new (parameters: Parameters) => Kernel;
+  },
 ): KernelFamily<Name, Parameters, Model> & { readonly fromValues: (values: readonly number[]) => Kernel } {
+  const { kernel: KernelClass, ...descriptor } = spec;
   const names = spec.parameters.map((p) => p.name);
+  const create = (parameters: Parameters): Kernel => new KernelClass(parameters);
   // A record with exactly the family's parameter names is its parameter object (every one a number).
-  const fromRecord = (values: Readonly<Record<string, number>>) => spec.create(values as Parameters);
+  const fromRecord = (values: Readonly<Record<string, number>>) => create(values as Parameters);
   return {
-    ...spec,
+    ...descriptor,
+    create,
     fromValues: (values) => fromRecord(Object.fromEntries(names.map((name, i) => [name, values[i]]))),
     fromExpression: fromRecord,
   };

@@ -1,7 +1,7 @@
 import { OscillatorTransition } from "../linalg/oscillator-transition.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { Kernel } from "./kernel.js";
-import { fixedParameterFamily } from "./kernel-family.js";
+import { fixedParameterFamily, STANDARD_DEVIATION } from "./kernel-family.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** Parameters of the Matern-3/2 kernel. */
@@ -70,9 +70,9 @@ export const matern32Family = fixedParameterFamily({
   name: "matern32",
   expressionName: "matern32",
   summary: "sigma^2 (1 + sqrt(3)|t|/scale) exp(-sqrt(3)|t|/scale): smooth aperiodic variability, slow trends",
+  kernel: Matern32Kernel,
   parameters: [
-    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    STANDARD_DEVIATION,
     { name: "scale", kind: "timescale", description: "length scale" },
   ],
-  create: (parameters: Matern32Parameters) => new Matern32Kernel(parameters),
 });

@@ -1,7 +1,7 @@
 import { dampedHyperbolicPair, OscillatorTransition } from "../linalg/oscillator-transition.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { Kernel } from "./kernel.js";
-import { fixedParameterFamily } from "./kernel-family.js";
+import { fixedParameterFamily, STANDARD_DEVIATION } from "./kernel-family.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** Parameters of the stochastically driven damped harmonic oscillator. */
@@ -100,11 +100,11 @@ export const oscillatorFamily = fixedParameterFamily({
   name: "oscillator",
   expressionName: "oscillator",
   summary: "stochastically driven damped harmonic oscillator: one damped mode, pulsations, or (Q < 1/2) smooth noise",
+  kernel: OscillatorKernel,
   parameters: [
-    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    STANDARD_DEVIATION,
     { name: "period", kind: "period", description: "undamped period 2 pi / w0" },
     { name: "quality", kind: "quality", description: "quality factor Q" },
   ],
-  create: (parameters: OscillatorParameters) => new OscillatorKernel(parameters),
-  model: { name: "oscillator", periodCycles: 1 },
+  model: { name: "oscillator", periodCycles: 1, purpose: "damped oscillation" },
 });

@@ -1,6 +1,6 @@
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { Kernel } from "./kernel.js";
-import { fixedParameterFamily } from "./kernel-family.js";
+import { fixedParameterFamily, STANDARD_DEVIATION } from "./kernel-family.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** Parameters of the squared-exponential times periodic kernel. */
@@ -117,11 +117,11 @@ function logFactorial(n: number): number {
 export const periodicSquaredExponentialFamily = fixedParameterFamily({
   name: "periodicSquaredExponential",
   summary: "squared exponential times periodic: the dense-engine reference for rotation (O(N^3))",
+  kernel: PeriodicSquaredExponentialKernel,
   parameters: [
-    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    STANDARD_DEVIATION,
     { name: "period", kind: "period", description: "period" },
     { name: "scale", kind: "timescale", description: "length scale of the squared exponential" },
     { name: "gamma", kind: "shape", description: "sharpness of the periodic factor" },
   ],
-  create: (parameters: PeriodicSquaredExponentialParameters) => new PeriodicSquaredExponentialKernel(parameters),
 });

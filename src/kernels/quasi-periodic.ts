@@ -2,7 +2,7 @@ import { OscillatorTransition } from "../linalg/oscillator-transition.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import type { ParameterDependence } from "../linalg/transition-block.js";
 import { Kernel } from "./kernel.js";
-import { fixedParameterFamily } from "./kernel-family.js";
+import { fixedParameterFamily, STANDARD_DEVIATION } from "./kernel-family.js";
 import { requirePositive, requireWithin } from "./parameter-checks.js";
 
 /** Parameters of the quasi-periodic (rotation) kernel. */
@@ -160,12 +160,12 @@ export const quasiPeriodicFamily = fixedParameterFamily({
   name: "quasiPeriodic",
   expressionName: "quasi-periodic",
   summary: "damped oscillations at period and period / 2 sharing one decay time: rotation of a spotted star",
+  kernel: QuasiPeriodicKernel,
   parameters: [
-    { name: "sigma", kind: "amplitude", description: "standard deviation" },
+    STANDARD_DEVIATION,
     { name: "period", kind: "period", description: "period of the autocorrelation (rotation period)" },
     { name: "decayTime", kind: "coherence", description: "decay (coherence) time of the pattern" },
     { name: "harmonicWeight", kind: "fraction", description: "fraction of the variance at period / 2" },
   ],
-  create: (parameters: QuasiPeriodicParameters) => new QuasiPeriodicKernel(parameters),
-  model: { name: "quasi-periodic", periodCycles: 2 },
+  model: { name: "quasi-periodic", periodCycles: 2, purpose: "stellar rotation" },
 });

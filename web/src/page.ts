@@ -3,6 +3,8 @@
  * report with the downloads. `document.body.dataset.fitState` says where it is: idle, fitting,
  * columns (the page asks which column is which), done, error or cancelled.
  */
+import { KERNEL_FAMILIES } from "../../src/kernels/families.js";
+import type { AnyKernelFamily } from "../../src/kernels/kernel-family.js";
 import type { ColumnAnswer, FitDone, FitRequest, ProgressMessage, WorkerMessage } from "./worker-messages.js";
 
 type FitState = "idle" | "fitting" | "columns" | "done" | "error" | "cancelled";
@@ -17,6 +19,7 @@ const errorText = element<HTMLParagraphElement>("error");
 const columnsBox = element<HTMLFieldSetElement>("columns");
 const results = element<HTMLElement>("results");
 const frame = element<HTMLIFrameElement>("report-frame");
+fillModelChoices(element<HTMLSelectElement>("model"));
 
 let worker: Worker | undefined;
 /** Object URLs of the current downloads, revoked when the next fit starts. */
@@ -188,6 +191,20 @@ function fill(id: string, options: readonly string[], selected: number): void {
 function guess(columns: readonly string[], pattern: RegExp, fallback: number): number {
   const index = columns.findIndex((name) => pattern.test(name));
   return index >= 0 ? index : fallback;
+}
+
+/**
+ * The model menu, from the library: one entry per kernel family that offers a model of the trade (its
+ * descriptor names the model and says what it is for), so the page lists exactly the models a fit knows.
+ */
+function fillModelChoices(select: HTMLSelectElement): void {
+  for (const family of KERNEL_FAMILIES as readonly AnyKernelFamily[]) {
+    if (family.model === undefined) continue;
+    const option = document.createElement("option");
+    option.value = family.model.name;
+    option.textContent = `${family.model.name} (${family.model.purpose})`;
+    select.append(option);
+  }
 }
 
 function formValue(name: string): string {

@@ -3,6 +3,7 @@
  * the page sends the file's bytes and the form's choices, the worker answers with progress, a
  * question about columns, an error line or the finished fit.
  */
+import type { ModelName as FamilyModelName } from "../../src/kernels/families.js";
 
 /** Column names the user chose in the page when the file's names were not recognised. */
 export interface ColumnAnswer {
@@ -17,7 +18,8 @@ export interface FitRequest {
   readonly type: "fit";
   readonly fileName: string;
   readonly bytes: ArrayBuffer;
-  readonly model: "drw" | "oscillator" | "quasi-periodic";
+  /** A model of the trade the page offers (a kernel family's model, src/kernels/families.ts). */
+  readonly model: FamilyModelName;
   readonly background: boolean;
   readonly robust: boolean;
   readonly seed: number;

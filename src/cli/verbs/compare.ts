@@ -1,12 +1,15 @@
 import { compareModels, type ModelStanding } from "../../models/compare-models.js";
-import type { ModelName } from "../../models/light-curve-model.js";
+import { MODEL_NAMES, type ModelName } from "../../models/light-curve-model.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
 import { FIT_OPTIONS, fitArguments, modelName } from "../fit-arguments.js";
 import { readInput } from "../read-input.js";
 import { COLUMN_HELP, COLUMN_OPTIONS, OUTPUT_OPTIONS, textOption, withSingleInput } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
-const HELP = `Usage: horologium compare FILE [--models drw,oscillator,quasi-periodic] [options]
+/** Models compared when --models is not given: every model but CARMA (only when asked: its grid is ten fits). */
+const DEFAULT_COMPARED: readonly ModelName[] = MODEL_NAMES.filter((name) => name !== "carma");
+
+const HELP = `Usage: horologium compare FILE [--models ${DEFAULT_COMPARED.join(",")}] [options]
 
 Fits several models to one light curve and ranks them by their Bayesian evidence (the marginal
 likelihood, by importance sampling from a Student-t at the maximum a posteriori, with its Monte
@@ -20,7 +23,7 @@ above 10 overwhelming. The BIC is shown beside it. The JSON (--out) holds the sa
 "preference" (and "carmaOrder" for CARMA orders).
 
 Options:
-  --models LIST           comma-separated models (default drw,oscillator,quasi-periodic); "carma"
+  --models LIST           comma-separated models (default ${DEFAULT_COMPARED.join(",")}); "carma"
                           compares every CARMA order p,q with q < p <= 4 (Kelly et al. 2014) and says
                           which order the evidence prefers and how strongly
   --background drw        add a damped-random-walk background to every model
@@ -35,9 +38,6 @@ ${COLUMN_HELP}
 Example:
   horologium compare demo/lds-v2291-spotted-star.csv --out comparison.json
 `;
-
-/** Models compared when --models is not given (CARMA only when asked: its grid is ten fits). */
-const DEFAULT_COMPARED: readonly ModelName[] = ["drw", "oscillator", "quasi-periodic"];
 
 const OPTIONS = {
   ...COLUMN_OPTIONS,

@@ -4,6 +4,7 @@ import { reportInputFromFit } from "../../report/report-from-fit.js";
 import { writeReport } from "../../report/write-report.js";
 import { BAND_HELP, bandChoice } from "../band-choice.js";
 import type { CliIo, CliVerb } from "../cli-io.js";
+import { MODEL_NAMES } from "../../models/light-curve-model.js";
 import { FILE_FIT_OPTIONS, FIT_HELP, fitArguments } from "../fit-arguments.js";
 import { fitJointWithProgress, perBandResults } from "../fit-bands.js";
 import { fitAll, requireErrorsForRobust } from "../fit-light-curves.js";
@@ -11,7 +12,7 @@ import { readInput } from "../read-input.js";
 import { COLUMN_HELP, textOption, withSingleInput } from "../verb-arguments.js";
 import { writeOutput } from "../write-output.js";
 
-const HELP = `Usage: horologium fit FILE --model drw|oscillator|quasi-periodic|carma [options]
+const HELP = `Usage: horologium fit FILE --model ${MODEL_NAMES.join("|")} [options]
 
 Fits a Gaussian-process model to a light curve (CSV/TSV, Parquet or FITS binary table) and writes
 the result as JSON: posterior summaries of every parameter, derived quantities, sampler
