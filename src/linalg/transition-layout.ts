@@ -60,26 +60,25 @@ export class TransitionLayout {
 
   /** matrix <- Phi matrix Phi^T, in place (R x R row-major at `offset`). */
   applyCongruence(matrix: Float64Array, offset: number): void {
-    if (this.smallBlocks) {
-      this.smallBlockCongruence(matrix, offset, false);
-      return;
-    }
-    const r = this.dimension;
-    // Left product: every column j, block by block.
-    for (let j = 0; j < r; j++) this.applyStrided(matrix, offset + j, r, false);
-    // Right product by Phi^T: every row i, i.e. row <- Phi row.
-    for (let i = 0; i < r; i++) this.applyToVector(matrix, offset + i * r);
+    this.congruence(matrix, offset, false);
   }
 
   /** matrix <- Phi^T matrix Phi, in place. */
   applyTransposeCongruence(matrix: Float64Array, offset: number): void {
+    this.congruence(matrix, offset, true);
+  }
+
+  /** matrix <- A matrix A^T with A = Phi (or Phi^T when `transpose`). */
+  private congruence(matrix: Float64Array, offset: number, transpose: boolean): void {
     if (this.smallBlocks) {
-      this.smallBlockCongruence(matrix, offset, true);
+      this.smallBlockCongruence(matrix, offset, transpose);
       return;
     }
     const r = this.dimension;
-    for (let j = 0; j < r; j++) this.applyStrided(matrix, offset + j, r, true);
-    for (let i = 0; i < r; i++) this.applyTransposeToVector(matrix, offset + i * r);
+    // Left product: every column j, block by block.
+    for (let j = 0; j < r; j++) this.applyStrided(matrix, offset + j, r, transpose);
+    // Right product by A^T: every row i, i.e. row <- A row.
+    for (let i = 0; i < r; i++) this.applyStrided(matrix, offset + i * r, 1, transpose);
   }
 
   /**

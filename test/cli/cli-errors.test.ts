@@ -2,6 +2,7 @@ import { writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { inventedFitResult } from "../helpers/invented-fit-result.js";
+import { VERB_NAMES } from "../../src/cli/main.js";
 import { runInProcess } from "./run-cli-in-process.js";
 
 /** Every input or usage problem ends in exactly one line on stderr, exit code 2, and no stack trace. */
@@ -72,7 +73,9 @@ describe("command-line errors", () => {
   });
 
   it("every verb answers --help with an example", async () => {
-    for (const verb of ["fit", "predict", "simulate", "periodogram", "compare", "report", "batch", "demo"]) {
+    // Every registered verb (cli/main.ts): a verb added there is checked here without an edit.
+    expect(VERB_NAMES).toEqual(expect.arrayContaining(["fit", "predict", "simulate", "periodogram", "compare", "report", "batch", "demo"]));
+    for (const verb of VERB_NAMES) {
       const { code, stdout } = await runInProcess([verb, "--help"]);
       expect(code).toBe(0);
       expect(stdout).toMatch(/Usage: horologium/);
