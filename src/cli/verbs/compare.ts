@@ -75,8 +75,9 @@ export const verb: CliVerb = {
             `  ${s.label.padEnd(16)} ${s.logEvidence.toFixed(2).padStart(11)} ${evidenceErrorText(s).padStart(8)} ${s.deltaLogEvidence.toFixed(2).padStart(8)} ${s.probability.toFixed(3).padStart(7)} ${s.logLikelihood.toFixed(2).padStart(11)} ${s.bic.toFixed(2).padStart(11)}\n`,
           );
         io.stdout(`  ${comparison.verdict}\n`);
-        if (comparison.preference) io.stdout(`  Best model: ${comparison.preference.sentence}\n`);
-        if (comparison.carmaOrder) io.stdout(`  Best CARMA order: ${comparison.carmaOrder.sentence}\n`);
+        // How strongly, unless the verdict already said it in the same words (a comparison of CARMA orders alone).
+        const preference = comparison.preference;
+        if (preference && !comparison.verdict.includes(preference.sentence)) io.stdout(`  How strongly: ${preference.sentence}\n`);
         if (comparison.ranking.some((s) => s.evidenceMethod === "laplace"))
           io.stdout("  (laplace: importance sampling's k-hat was too high for that model; its ln Z is the Laplace approximation, error not estimated)\n");
       }
