@@ -6,7 +6,7 @@ import { timeUnitOf, valueUnitOf } from "./parameter-display.js";
 import type { PsdComparison } from "./psd-comparison.js";
 import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
-import { spectrumMarkers } from "./spectrum-figure.js";
+import { logAxis, spectrumMarkers } from "./spectrum-figure.js";
 import type { DataRows, LayerMember } from "./vega-lite-types.js";
 
 /** The raw periodogram is thinned evenly beyond this many frequencies (more than the figure has pixels). */
@@ -37,8 +37,8 @@ export function psdFigure(input: ReportInput): ReportFigure | undefined {
     .map((m) => ({ f: m.frequency, label: m.label }));
   if (markers.length > 0) datasets["markers"] = markers;
   const powerDomain = powerDomainOf(datasets);
-  const x = logChannel("f", `Frequency [1 / ${timeUnit}]`, frequencyDomain);
-  const y = (field: string) => logChannel(field, `One-sided PSD [${valueUnit}² ${timeUnit}]`, powerDomain);
+  const x = logAxis("f", `Frequency [1 / ${timeUnit}]`, frequencyDomain);
+  const y = (field: string) => logAxis(field, `One-sided PSD [${valueUnit}² ${timeUnit}]`, powerDomain);
   const entries = [labels.band95, labels.band68, labels.median, labels.periodogram, labels.binned, ...(psd.referenceDrw ? [labels.drw] : [])];
   const colors = [FIGURE_COLORS.modelBandOuter, FIGURE_COLORS.modelBandInner, FIGURE_COLORS.model, "#c4c4c4", "#444444", ...(psd.referenceDrw ? [DRW_COLOR] : [])];
   const color = (label: string) => ({ datum: label, scale: { domain: entries, range: colors }, legend: { title: null, orient: "top" as const, direction: "horizontal" as const, columns: 3 } });
@@ -124,18 +124,7 @@ function powerDomainOf(datasets: Record<string, DataRows>): [number, number] {
   return [low / 2, 2 * Math.max(bandHigh, binHigh, rawHigh)];
 }
 
-/** A quantitative channel on a logarithmic scale over a fixed domain. */
-function logChannel(field: string, title: string, domain: [number, number]) {
-  return {
-    field,
-    type: "quantitative" as const,
-    title,
-    scale: { type: "log" as const, domain, nice: false },
-    axis: { format: "~g", grid: true },
-  };
-}
-
-type LogChannel = ReturnType<typeof logChannel>;
+type LogChannel = ReturnType<typeof logAxis>;
 
 /** The measurement-noise level: a dotted horizontal line across the frequency domain, labelled at its left end. */
 function noiseLayer(level: number, x: LogChannel, y: LogChannel): LayerMember {

@@ -153,7 +153,8 @@ function addPeriodRows(rows: SpectrumRows, periods: PeriodMarks): void {
     .map((c) => ({ f: 1 / c.period, period: c.period, label: c.label }));
 }
 
-function logAxis(field: "f" | "period", title: string, domain: [number, number]) {
+/** A quantitative channel on a logarithmic scale over a fixed domain, with a grid (shared with psd-figure.ts). */
+export function logAxis(field: string, title: string, domain: [number, number]) {
   return {
     field,
     type: "quantitative" as const,

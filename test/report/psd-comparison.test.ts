@@ -7,6 +7,8 @@ import { binnedPeriodogram, oneSidedPsd, periodogramAsPsd, psdComparison, type P
 import { psdFigure } from "../../src/report/psd-figure.js";
 import { renderFigure, type RenderedFigure } from "../../src/report/render-figure.js";
 import { reportFigures } from "../../src/report/report-figures.js";
+import { spectrumComparison } from "../../src/report/spectrum-comparison.js";
+import { bestDampedRandomWalk } from "../../src/models/best-damped-random-walk.js";
 import { simpson } from "../helpers/quadrature.js";
 import { inventedReportInput } from "./invented-input.js";
 import { PNG_SIGNATURE, svgTexts } from "./svg-marks.js";
@@ -87,6 +89,23 @@ describe("the power spectrum on one scale", () => {
       expect(Number(comparison.upper68[i])).toBeLessThan(Number(comparison.upper95[i]));
     }
     expect(comparison.draws).toBe(41);
+  });
+});
+
+describe("which fits get the one-scale comparison", () => {
+  it("CARMA fits, against the best DRW of the same data; DRW fits without it; other models not", () => {
+    const base = inventedReportInput();
+    const gls = computePeriodogram(base.lightCurve);
+    const draws = [kernels.dampedRandomWalk({ sigma: 0.2, tau: 30 })];
+    const carma = spectrumComparison(base.lightCurve, { ...base.result, model: "carma", options: { ...base.result.options, order: "2,1" } }, gls, draws);
+    const best = bestDampedRandomWalk(base.lightCurve, base.result.seed);
+    expect(carma?.modelLabel).toBe("CARMA(2,1)");
+    expect(carma?.referenceDrw?.tau).toBe(best.tau);
+    expect(best.tau).toBeGreaterThan(0);
+    const drw = spectrumComparison(base.lightCurve, { ...base.result, model: "drw" }, gls, draws);
+    expect(drw?.modelLabel).toBe("DRW");
+    expect(drw?.referenceDrw).toBeUndefined();
+    expect(spectrumComparison(base.lightCurve, { ...base.result, model: "quasi-periodic" }, gls, draws)).toBeUndefined();
   });
 });
 
