@@ -409,6 +409,20 @@ static double not_positive_definite(size_t k, double pivot) {
     FOLD_PIVOT(pivot);                                                        \
   } while (0)
 
+/* p^T q, the process variance k(0), summed from 0 in index order as the TypeScript does. */
+static inline double stationary_variance(int r, const double *p, const double *q) {
+  double variance = 0;
+  for (int i = 0; i < r; i++) variance += p[i] * q[i];
+  return variance;
+}
+
+/* The state before the first point: S = 0, f = 0, u = 0. */
+static inline void zero_state(int r, double *s, double *f, double *u) {
+  memset(s, 0, sizeof(double) * (size_t)(r * r));
+  memset(f, 0, sizeof(double) * (size_t)r);
+  memset(u, 0, sizeof(double) * (size_t)r);
+}
+
 /* S += u u^T / D and f += u z / D for the previous point's gain u, pivot D and innovation z (absorb). */
 static inline void absorb_previous(int r, const double *u, double previous_inverse, double previous_z, double *s, double *f) {
   for (int i = 0; i < r; i++) {
@@ -445,13 +459,10 @@ static double general_recursion(const form_t *form, size_t n, const double *time
   const int r = form->dimension;
   const double *p = form->p;
   const double *q = form->q;
-  double variance = 0;
-  for (int i = 0; i < r; i++) variance += p[i] * q[i];
+  const double variance = stationary_variance(r, p, q);
   double s[MAX_STATE * MAX_STATE];
   double f[MAX_STATE], u[MAX_STATE], phi[MAX_STATE * 2];
-  memset(s, 0, sizeof(double) * (size_t)(r * r));
-  memset(f, 0, sizeof(double) * (size_t)r);
-  memset(u, 0, sizeof(double) * (size_t)r);
+  zero_state(r, s, f, u);
   double quadratic = 0, exponent = 0, product = 1, previous_inverse = 0, previous_z = 0;
   for (size_t k = 0; k < n; k++) {
     if (k > 0) {
@@ -653,12 +664,9 @@ static double forward_with_tape(const form_t *form, const tape_layout_t *t, doub
                                 const double *noise, const double *residual, double mean) {
   const int r = form->dimension;
   const double *p = form->p, *q = form->q;
-  double variance = 0;
-  for (int i = 0; i < r; i++) variance += p[i] * q[i];
+  const double variance = stationary_variance(r, p, q);
   double s[MAX_STATE * MAX_STATE], f[MAX_STATE], u[MAX_STATE], phi[MAX_STATE * 2];
-  memset(s, 0, sizeof(double) * (size_t)(r * r));
-  memset(f, 0, sizeof(double) * (size_t)r);
-  memset(u, 0, sizeof(double) * (size_t)r);
+  zero_state(r, s, f, u);
   double quadratic = 0, exponent = 0, product = 1, previous_inverse = 0, previous_z = 0;
   for (size_t k = 0; k < n; k++) {
     double *record = tape + k * (size_t)t->width;
