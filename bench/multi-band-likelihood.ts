@@ -43,7 +43,9 @@ function main(): void {
   const rounds = argument("rounds", 7);
   const batchSeconds = argument("batch", 0.3);
   const rows: string[][] = [];
-  for (const n of [360, 3600, 36000, 360000]) {
+  const sizesIndex = process.argv.indexOf("--sizes");
+  const sizes = sizesIndex >= 0 ? (process.argv[sizesIndex + 1] ?? "").split(",").map(Number) : [360, 3600, 36000, 360000];
+  for (const n of sizes) {
     const data = invented(n);
     const base = new GaussianProcess(kernels.dampedRandomWalk({ sigma: 0.2, tau: 200 }), data.time, { errors: data.errors });
     const bands = data.bandTimes.map((time, b) => ({ name: `b${b}`, time, values: data.bandValues[b], errors: data.bandErrors[b] }));

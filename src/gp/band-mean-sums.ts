@@ -2,6 +2,7 @@ import { FactorizationError } from "../linalg/factorization-error.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { projectState } from "../linalg/state-update.js";
 import { TransitionLayout } from "../linalg/transition-layout.js";
+import { initialScalars, RECURSION_CHUNK, recursionTotals, stateLength, unrolledRecursion, type BandScaling } from "../linalg/unrolled-recursion.js";
 import { LOG_TWO_PI } from "../numerics/gaussian-constants.js";
 
 /** The sums a multi-band likelihood with its band means integrated out needs. */
@@ -19,19 +20,50 @@ export interface BandMeanSums {
  * V^T K^-1 V and log det K for K = K0 + diag(noise) semiseparable, in one pass of the factorisation's
  * recursion (Foreman-Mackey et al. 2017, AJ 154, 220, eqs. 44-47) carried with B + 1 right-hand sides:
  * the forward substitution z_c = L^-1 v_c runs on every column at once, and v_c^T K^-1 v_d = sum_n
- * z_c,n z_d,n / D_n. O(N (R^2 + B R + B^2)).
+ * z_c,n z_d,n / D_n. O(N (R^2 + B R + B^2)). The data are scaled per band inside the loop, as in
+ * `bandScaledLogLikelihood`: r_k = (y_k - shift_b) inverse_b, noise_k = (v_k + extra_b) inverse_b^2,
+ * x_b = [band = b] inverse_b; the written-out recursion (unrolled-recursion.ts, `bandColumns`) where the
+ * layout has one, else a general loop.
  *
- * @param residual scaled residuals in joint order; @param band the band of each point;
- * @param inverseAmplitude 1 / a_b per band
+ * @param time sorted times (joint order); @param errorVariance squared errors; @param values the values;
+ * @param scaling band of each point and the per-band constants (`shift`: the means' prior centres)
  */
 export function bandMeanSums(
   form: SemiseparableForm,
   time: ArrayLike<number>,
-  noise: ArrayLike<number>,
-  residual: ArrayLike<number>,
-  band: Int32Array,
-  inverseAmplitude: Float64Array,
+  errorVariance: ArrayLike<number>,
+  values: ArrayLike<number>,
+  scaling: BandScaling,
+  options: { readonly unrolled?: boolean } = {},
 ): BandMeanSums {
+  const bands = scaling.inverse.length;
+  const advance = options.unrolled === false ? undefined : unrolledRecursion(form.blocks, { scaling: "bands", bandColumns: bands });
+  if (!advance) return generalBandMeanSums(form, time, errorVariance, values, scaling);
+  const n = time.length;
+  const r = form.observation.length;
+  const columns = bands + 1;
+  const state = new Float64Array(stateLength(r, false, bands));
+  const scalars = initialScalars();
+  const gram = new Float64Array(columns * columns);
+  const withGram = { ...scaling, gram };
+  for (let begin = 0; begin < n; begin += RECURSION_CHUNK) {
+    advance(form.blocks, form.observation, form.projection, state, scalars, time, errorVariance, values, 0, begin, Math.min(n, begin + RECURSION_CHUNK), undefined, withGram);
+  }
+  const totals = recursionTotals(scalars);
+  gram[0] = totals.quadratic;
+  for (let c = 0; c < columns; c++) for (let d = 0; d < c; d++) gram[c * columns + d] = gram[d * columns + c];
+  return { gram, logDeterminant: totals.logDeterminant };
+}
+
+/** {@link bandMeanSums} by a loop over typed arrays and `TransitionLayout`, for any blocks. */
+function generalBandMeanSums(
+  form: SemiseparableForm,
+  time: ArrayLike<number>,
+  errorVariance: ArrayLike<number>,
+  values: ArrayLike<number>,
+  scaling: BandScaling,
+): BandMeanSums {
+  const { band, inverse: inverseAmplitude, shift, extra } = scaling;
   const layout = new TransitionLayout(form);
   const r = layout.dimension;
   const p = form.observation;
@@ -65,13 +97,15 @@ export function bandMeanSums(
       for (let c = 0; c < columns; c++) layout.applyToVector(f, c * r);
     }
     projectState(s, f, p, q, u, 0, r, projection);
-    const pivot = noise[k] + variance - projection[0];
+    const b = band[k];
+    const w = inverseAmplitude[b];
+    const pivot = (errorVariance[k] + extra[b]) * w * w + variance - projection[0];
     if (!(pivot > 0 && pivot < Infinity)) throw new FactorizationError(k, pivot);
     previousInverse = 1 / pivot;
     for (let c = 0; c < columns; c++) {
       let pf = 0;
       for (let i = 0; i < r; i++) pf += p[i] * f[c * r + i];
-      const value = c === 0 ? residual[k] : band[k] === c - 1 ? inverseAmplitude[c - 1] : 0;
+      const value = c === 0 ? (values[k] - shift[b]) * w : b === c - 1 ? w : 0;
       z[c] = value - pf;
     }
     for (let c = 0; c < columns; c++) {

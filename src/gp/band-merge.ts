@@ -54,3 +54,64 @@ export function mergeBands(
   }
   return merged;
 }
+
+/**
+ * Brings a joint order up to new lags in place: every shifted time recomputed from its time before the
+ * shift (`unshifted`, one of the `carried` arrays, in joint order), then, where the new lags put points
+ * out of order, a stable insertion sort by (shifted time, band) that moves `carried` (values, errors, ...)
+ * along with `merge`. The result is the order {@link mergeBands} gives for these lags (ties to the band
+ * listed first, then file order), so a sampler's small lag steps cost O(N + moves) instead of a new
+ * O(N B) merge. Returns false, leaving an unsorted permutation, once more than `maxMoves` moves would
+ * be needed (then merge afresh).
+ */
+export function reshiftMerge(
+  merge: BandMerge,
+  unshifted: Float64Array,
+  lags: ArrayLike<number>,
+  carried: readonly Float64Array[],
+  maxMoves: number,
+): boolean {
+  const { time, band, source } = merge;
+  const total = time.length;
+  let unsorted = false;
+  for (let k = 0; k < total; k++) {
+    time[k] = unshifted[k] - lags[band[k]];
+    if (k > 0 && before(time[k], band[k], time[k - 1], band[k - 1])) unsorted = true;
+  }
+  if (!unsorted) return true;
+  const held = new Float64Array(carried.length);
+  let moves = 0;
+  for (let k = 1; k < total; k++) {
+    const t = time[k];
+    const b = band[k];
+    if (!before(t, b, time[k - 1], band[k - 1])) continue;
+    const s = source[k];
+    for (let c = 0; c < carried.length; c++) held[c] = carried[c][k];
+    let j = k;
+    while (j > 0 && before(t, b, time[j - 1], band[j - 1])) {
+      time[j] = time[j - 1];
+      band[j] = band[j - 1];
+      source[j] = source[j - 1];
+      for (let c = 0; c < carried.length; c++) carried[c][j] = carried[c][j - 1];
+      j--;
+      if (++moves > maxMoves) {
+        // Leave a permutation behind (the held point back in), unsorted: the caller merges afresh.
+        time[j] = t;
+        band[j] = b;
+        source[j] = s;
+        for (let c = 0; c < carried.length; c++) carried[c][j] = held[c];
+        return false;
+      }
+    }
+    time[j] = t;
+    band[j] = b;
+    source[j] = s;
+    for (let c = 0; c < carried.length; c++) carried[c][j] = held[c];
+  }
+  return true;
+}
+
+/** Whether point (t, b) comes before point (u, c) in the joint order: earlier, or at the same time in an earlier band. */
+function before(t: number, b: number, u: number, c: number): boolean {
+  return t < u || (t === u && b < c);
+}

@@ -1,9 +1,11 @@
 import type { Kernel } from "../kernels/kernel.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
+import { bandScaledLogLikelihood } from "../linalg/band-scaled-likelihood.js";
 import { semiseparableLogLikelihoodGradient } from "../linalg/semiseparable-gradient.js";
 import { semiseparableLogLikelihood } from "../linalg/semiseparable-likelihood.js";
 import { semiseparablePredict } from "../linalg/semiseparable-smoother.js";
-import { mergeBands, type BandMerge } from "./band-merge.js";
+import type { BandScaling } from "../linalg/unrolled-recursion.js";
+import { mergeBands, reshiftMerge, type BandMerge } from "./band-merge.js";
 import { bandMeanSums, integrateBandMeans, type BandMeanMarginal, type BandMeanPrior } from "./band-mean-sums.js";
 
 /** The observations of one band. */
@@ -69,20 +71,31 @@ interface CheckedBands {
 }
 
 /**
- * A joint order with the values and squared errors laid out in it, and scratch for the scaled residuals
- * and noise variances: without lags a sampler sees the same order at every step, so the work per call
- * is one pass that scales them.
+ * A joint order with the times (before the shift), values and squared errors laid out in it, the per-band
+ * constants the engine scales them with (`scaling`), and scratch for the scaled residuals and noise
+ * variances of the passes that need them as arrays (gradient, predictions, means integrated out). Every
+ * array is reused: a new lag vector repairs the order in place (`reshiftMerge`), or merges the bands
+ * again into the same buffers when it moved them too far.
  */
 interface JointOrder {
+  /** The lags `merge` was computed for. */
   readonly lags: Float64Array;
   readonly merge: BandMerge;
+  readonly rawTime: Float64Array;
   readonly errorVariance: Float64Array;
   readonly jointValues: Float64Array;
   readonly residual: Float64Array;
   readonly noise: Float64Array;
+  readonly scaling: BandScaling;
 }
 
 const isFiniteValue = (x: number): boolean => x - x === 0;
+
+/**
+ * A changed lag vector repairs the last joint order by insertion while that needs at most this many moves
+ * per point; beyond, a new B-way merge (O(N B)) is cheaper.
+ */
+const REPAIR_MOVES_PER_POINT = 2;
 
 /**
  * One latent Gaussian process f seen in several bands: band b observes m_b + a_b f(t - l_b) + noise, so
@@ -141,10 +154,27 @@ export class MultiBandProcess {
     return this.bands.names;
   }
 
-  /** The log-likelihood of every band's values. O(N R^2). */
+  /**
+   * The log-likelihood of every band's values. O(N R^2): one pass of the engine, which scales the
+   * residuals and noise variances per band inside its loop (`bandScaledLogLikelihood`); with lags that
+   * moved since the last call, one light pass that shifts the times and repairs their order
+   * (`reshiftMerge`).
+   */
   logLikelihood(): number {
-    const { merge, residual, noise } = this.scaled();
-    return semiseparableLogLikelihood(this.form, merge.time, noise, residual) - this.logAmplitudeSum();
+    const order = this.joint(this.lag);
+    const scaling = this.scalingIn(order, this.mean);
+    return bandScaledLogLikelihood(this.form, order.merge.time, order.errorVariance, order.jointValues, scaling) - this.logAmplitudeSum();
+  }
+
+  /** The order's per-band constants for this process: 1 / a_b, the given shift (the means), j_b^2. */
+  private scalingIn(order: JointOrder, shift: ArrayLike<number>): BandScaling {
+    const scaling = order.scaling;
+    for (let b = 0; b < this.amplitude.length; b++) {
+      scaling.inverse[b] = 1 / this.amplitude[b];
+      scaling.shift[b] = shift[b];
+      scaling.extra[b] = this.jitter[b] * this.jitter[b];
+    }
+    return scaling;
   }
 
   /**
@@ -200,18 +230,10 @@ export class MultiBandProcess {
   meanMarginal(priors: readonly BandMeanPrior[]): BandMeanMarginal {
     const count = this.bands.names.length;
     if (priors.length !== count) throw new RangeError(`MultiBandProcess: ${priors.length} mean priors for ${count} bands`);
-    const { merge, errorVariance, jointValues } = this.joint(this.lag);
-    const inverse = Float64Array.from(this.amplitude, (a) => 1 / a);
-    const residual = new Float64Array(merge.time.length);
-    const noise = new Float64Array(merge.time.length);
-    for (let k = 0; k < residual.length; k++) {
-      const b = merge.band[k];
-      const w = inverse[b];
-      residual[k] = (jointValues[k] - priors[b].mean) * w;
-      noise[k] = (errorVariance[k] + this.jitter[b] * this.jitter[b]) * w * w;
-    }
-    const sums = bandMeanSums(this.form, merge.time, noise, residual, merge.band, inverse);
-    return integrateBandMeans(sums, priors, 2 * this.logAmplitudeSum(), residual.length);
+    const order = this.joint(this.lag);
+    const scaling = this.scalingIn(order, Float64Array.from(priors, (prior) => prior.mean));
+    const sums = bandMeanSums(this.form, order.merge.time, order.errorVariance, order.jointValues, scaling);
+    return integrateBandMeans(sums, priors, 2 * this.logAmplitudeSum(), order.merge.time.length);
   }
 
   /** The process conditioned on every band's values; `at(band, times)` predicts a band's latent light curve. */
@@ -254,22 +276,42 @@ export class MultiBandProcess {
     return total;
   }
 
-  /** The joint order for these lags (cached: without lags it is computed once per set of bands). */
+  /**
+   * The joint order for these lags (cached: without lags it is computed once per set of bands; a lag
+   * step repairs the last order, see {@link JointOrder}).
+   */
   private joint(lag: Float64Array): JointOrder {
     const cached = this.bands.order;
     if (cached && sameValues(cached.lags, lag)) return cached;
-    const merge = mergeBands(this.bands.times, lag, this.bands.offsets);
+    const { times, offsets, errorVariance, values } = this.bands;
+    if (cached) {
+      const carried = [cached.rawTime, cached.errorVariance, cached.jointValues];
+      if (reshiftMerge(cached.merge, cached.rawTime, lag, carried, REPAIR_MOVES_PER_POINT * cached.rawTime.length)) {
+        cached.lags.set(lag);
+        return cached;
+      }
+    }
+    const merge = mergeBands(times, lag, offsets, cached?.merge);
     const total = merge.time.length;
-    const errorVariance = Float64Array.from(merge.source, (s) => this.bands.errorVariance[s]);
-    const jointValues = Float64Array.from(merge.source, (s) => this.bands.values[s]);
-    const order: JointOrder = {
-      lags: Float64Array.from(lag),
+    const count = times.length;
+    const order: JointOrder = cached ?? {
+      lags: new Float64Array(count),
       merge,
-      errorVariance,
-      jointValues,
+      rawTime: new Float64Array(total),
+      errorVariance: new Float64Array(total),
+      jointValues: new Float64Array(total),
       residual: new Float64Array(total),
       noise: new Float64Array(total),
+      scaling: { band: merge.band, inverse: new Float64Array(count), shift: new Float64Array(count), extra: new Float64Array(count) },
     };
+    order.lags.set(lag);
+    for (let k = 0; k < total; k++) {
+      const s = merge.source[k];
+      const b = merge.band[k];
+      order.rawTime[k] = times[b][s - offsets[b]];
+      order.errorVariance[k] = errorVariance[s];
+      order.jointValues[k] = values[s];
+    }
     this.bands.order = order;
     return order;
   }
@@ -282,11 +324,10 @@ export class MultiBandProcess {
     const order = this.joint(lag);
     const count = this.amplitude.length;
     const inverse = new Float64Array(count);
-    const shift = new Float64Array(count);
     const extra = new Float64Array(count);
+    const shift = this.mean;
     for (let b = 0; b < count; b++) {
       inverse[b] = 1 / this.amplitude[b];
-      shift[b] = this.mean[b];
       extra[b] = this.jitter[b] * this.jitter[b];
     }
     const { merge, errorVariance, jointValues, residual, noise } = order;

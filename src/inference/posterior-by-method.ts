@@ -3,6 +3,7 @@ import { countEvaluations, evaluationCost } from "./evaluation-counter.js";
 import { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
 import { importanceSample, type ImportanceSample, type ImportanceSamplingOptions } from "./importance-sampling.js";
 import { findMaximumPosterior, startingPoints } from "./maximum-posterior.js";
+import type { NelderMeadOptions } from "./nelder-mead.js";
 import type { ParameterSpace } from "./parameter-space.js";
 import { unconstrainedPosterior, type PhysicalLikelihood } from "./unconstrained-posterior.js";
 import { posteriorDraws, type PosteriorDraws } from "./posterior-draws.js";
@@ -33,6 +34,17 @@ export interface MethodPosteriorOptions extends Omit<PosteriorSamplingOptions, "
    */
   readonly method?: "importance" | "mcmc";
   readonly importance?: ImportanceSamplingOptions;
+  /**
+   * Most free parameters importance sampling is tried for (default {@link IMPORTANCE_MAX_DIMENSION}):
+   * a caller whose posterior is close to Gaussian in more dimensions (a joint multi-band fit: per-band
+   * amplitude ratios, well determined by the data) may raise it; k-hat and the ESS still decide.
+   */
+  readonly importanceMaxDimension?: number;
+  /**
+   * Settings of the Nelder-Mead mode search (targets without a gradient). The importance weights correct
+   * a mode found roughly, so a caller with an expensive likelihood may loosen the default tolerances.
+   */
+  readonly nelderMead?: NelderMeadOptions;
 }
 
 /** The diagnostics of a posterior computed by either method. Keys that do not apply to a method are null. */
@@ -94,17 +106,18 @@ export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLik
   const clock = options.clock ?? (() => performance.now());
   const startTime = clock();
   const method = options.method ?? (options.sampler !== undefined ? "mcmc" : "importance");
-  const { method: _method, importance: importanceOptions, ...samplingOptions } = options;
-  if (method === "mcmc" || space.dimension > IMPORTANCE_MAX_DIMENSION || space.dimension === 0) {
+  const { method: _method, importance: importanceOptions, importanceMaxDimension, nelderMead, ...samplingOptions } = options;
+  if (method === "mcmc" || space.dimension > (importanceMaxDimension ?? IMPORTANCE_MAX_DIMENSION) || space.dimension === 0) {
     return markovPosterior(samplePosterior(space, likelihood, samplingOptions));
   }
   const gradientCost = options.gradientCost ?? DEFAULT_GRADIENT_COST;
   const seed = options.seed;
   const optimiserTarget = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: false }));
   const starts = startingPoints(space, options.starts ?? 6, createRng(childSeed(seed, 0)), options.initial);
-  const found = findMaximumPosterior(optimiserTarget, { starts });
+  const search = nelderMead ? { nelderMead } : {};
+  const found = findMaximumPosterior(optimiserTarget, { starts, ...search });
   const target = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: true }));
-  const mode = findMaximumPosterior(target, { starts: [found.x] }).x;
+  const mode = findMaximumPosterior(target, { starts: [found.x], ...search }).x;
   const budget = options.maxEvaluations ?? 2e6;
   const spentBefore = evaluationCost(optimiserTarget.counts, gradientCost) + evaluationCost(target.counts, gradientCost);
   const remaining = budget - spentBefore;

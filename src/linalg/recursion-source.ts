@@ -36,6 +36,12 @@ export const SCALAR_SLOTS = {
 export const SCALAR_NAMES = ["previousInverse", "previousZ", "quadratic", "exponent", "product"] as const;
 export const COLUMN_SCALAR_NAMES = ["previousW", "columnQuadratic", "crossQuadratic"] as const;
 
+/**
+ * Per-point scaling read inside the loop (band-scaled-likelihood.ts): "none", or "bands": the residual
+ * (y_k - shift_b) inverse_b and the noise variance (v_k + extra_b) inverse_b^2 for the band b = band[k].
+ */
+export type PointScaling = "none" | "bands";
+
 /** What the source of one recursion is written for. */
 interface Writer {
   readonly kinds: readonly BlockKind[];
@@ -43,6 +49,9 @@ interface Writer {
   readonly starts: readonly number[];
   readonly r: number;
   readonly withColumn: boolean;
+  readonly scaling: PointScaling;
+  /** With "bands": how many band columns x_c = [band = c] / a_c the forward substitution also carries (0: none). */
+  readonly bandColumns: number;
   /** The gradient's tape layout, when the pass records one. */
   readonly tape: GradientTapeLayout | undefined;
   readonly constant: ConstantWriter;
@@ -63,6 +72,8 @@ export function recursionSource(
   kinds: readonly BlockKind[],
   withColumn = false,
   record = false,
+  scaling: PointScaling = "none",
+  bandColumns = 0,
 ): { body: string; constants: Float64Array } {
   const pool = constantPool("K");
   const sizes = kinds.map((kind) => BLOCK_SIZE[kind]);
@@ -74,7 +85,7 @@ export function recursionSource(
   }
   const lines: string[] = [];
   const tape = record ? new GradientTapeLayout(kinds.map(adjointKindOf), sizes, false) : undefined;
-  const writer: Writer = { kinds, sizes, starts, r, withColumn, tape, constant: pool.write, emit: (line) => void lines.push(line) };
+  const writer: Writer = { kinds, sizes, starts, r, withColumn, scaling, bandColumns, tape, constant: pool.write, emit: (line) => void lines.push(line) };
 
   emitPrologue(writer);
   // The pooled constants are declared here, before the loop, once the loop has been written.
@@ -118,7 +129,9 @@ function emitPrologue(w: Writer): void {
   emit(`const meanValue = mean * 1; const first = begin | 0; const last = end | 0;`);
   // A guard for callers: the arrays must cover the range.
   const tapeGuard = w.tape ? ` || tape.length < last * ${w.tape.width}` : "";
-  emit(`if (time.length < last || noiseVariance.length < last || residual.length < last${tapeGuard}) throw new RangeError("advance: arrays shorter than the range");`);
+  const bandGuard = w.scaling !== "none" ? " || bandOf.length < last" : "";
+  if (w.scaling !== "none") emit(`const bandOf = scaling.band; const inverseOf = scaling.inverse; const shiftOf = scaling.shift; const extraOf = scaling.extra;`);
+  emit(`if (time.length < last || noiseVariance.length < last || residual.length < last${tapeGuard}${bandGuard}) throw new RangeError("advance: arrays shorter than the range");`);
   // Scratch for the transitions that are called rather than written out.
   if (kinds.some((kind) => kind === "called1" || kind === "called2")) emit(`const phi = new Float64Array(${w.sizes.reduce((a, m) => a + m * m, 0)});`);
   for (const i of range(r)) emit(`const p${i} = p[${i}]; const q${i} = q[${i}];`);
@@ -130,7 +143,29 @@ function emitPrologue(w: Writer): void {
     for (const i of range(r)) emit(`let g${i} = state[${r * r + 2 * r + i}];`);
     COLUMN_SCALAR_NAMES.forEach((name) => emit(`let ${name} = scalars[${SCALAR_SLOTS[name]}];`));
   }
+  emitBandColumnsPrologue(w);
   emit(`let failedAt = -1; let failedPivot = 0;`);
+}
+
+const columnState = (c: number, i: number): string => `h${c}_${i}`;
+const gramName = (c: number, d: number): string => `gram${c}_${d}`;
+
+/**
+ * The band columns' state (after S, f and u in `state`: R values per column, then each column's last
+ * innovation), the columns' values a point of band c has (1 / a_c) and the running Gram sums (in
+ * `scaling.gram`, (C + 1) x (C + 1) row-major, column 0 the residual) read into locals.
+ */
+function emitBandColumnsPrologue(w: Writer): void {
+  const { emit, r } = w;
+  const columns = w.bandColumns;
+  if (columns === 0) return;
+  const base = r * r + 2 * r;
+  for (let c = 0; c < columns; c++) {
+    emit(`const columnValue${c} = inverseOf[${c}] * 1; let previousW${c} = state[${base + columns * r + c}];`);
+    for (const i of range(r)) emit(`let ${columnState(c, i)} = state[${base + c * r + i}];`);
+  }
+  emit(`const gram = scaling.gram;`);
+  for (let c = 0; c <= columns; c++) for (let d = c; d <= columns; d++) if (c + d > 0) emit(`let ${gramName(c, d)} = gram[${c * (columns + 1) + d}];`);
 }
 
 /** S <- S + u u^T / D ; f <- f + u z / D (row by row, as absorbPoint in state-update.ts). */
@@ -138,7 +173,8 @@ function emitAbsorb(w: Writer): void {
   for (const i of range(w.r)) {
     w.emit(`{ const ui = u${i} * previousInverse;`);
     for (const j of range(w.r)) w.emit(`${s(i, j)} += ui * u${j};`);
-    w.emit(`f${i} += ui * previousZ;${w.withColumn ? ` g${i} += ui * previousW;` : ""} }`);
+    const band = range(w.bandColumns).map((c) => ` ${columnState(c, i)} += ui * previousW${c};`).join("");
+    w.emit(`f${i} += ui * previousZ;${w.withColumn ? ` g${i} += ui * previousW;` : ""}${band} }`);
   }
 }
 
@@ -234,9 +270,10 @@ function emitVectorTransition(w: Writer, phiNames: readonly (readonly string[])[
   w.sizes.forEach((m, b) => {
     const i = w.starts[b];
     const A = phiNames[b];
-    for (const v of w.withColumn ? ["f", "g"] : ["f"]) {
-      if (m === 1) w.emit(`${v}${i} *= ${A[0]};`);
-      else w.emit(`{ const x0 = ${v}${i}; const x1 = ${v}${i + 1}; ${v}${i} = ${A[0]} * x0 + ${A[1]} * x1; ${v}${i + 1} = ${A[2]} * x0 + ${A[3]} * x1; }`);
+    const vectors = [(j: number) => `f${j}`, ...(w.withColumn ? [(j: number) => `g${j}`] : []), ...range(w.bandColumns).map((c) => (j: number) => columnState(c, j))];
+    for (const v of vectors) {
+      if (m === 1) w.emit(`${v(i)} *= ${A[0]};`);
+      else w.emit(`{ const x0 = ${v(i)}; const x1 = ${v(i + 1)}; ${v(i)} = ${A[0]} * x0 + ${A[1]} * x1; ${v(i + 1)} = ${A[2]} * x0 + ${A[3]} * x1; }`);
     }
   });
 }
@@ -254,18 +291,44 @@ function emitProjection(w: Writer): void {
   emit(`const pSp = ${range(r).map((i) => `p${i} * sp${i}`).join(" + ")};`);
   emit(`const pf = ${range(r).map((i) => `p${i} * f${i}`).join(" + ")};`);
   if (w.withColumn) emit(`const pg = ${range(r).map((i) => `p${i} * g${i}`).join(" + ")};`);
-  emit(`const pivot = noiseVariance[k] + variance - pSp;`);
-  emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
-  emit(`const z = (residual[k] - meanValue) - pf;`);
+  if (w.scaling === "none") {
+    emit(`const pivot = noiseVariance[k] + variance - pSp;`);
+    emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
+    emit(`const z = (residual[k] - meanValue) - pf;`);
+  } else {
+    // The same operations, in the same order, as scaling the residuals and noise variances first.
+    emit(`const bk = bandOf[k]; const wk = inverseOf[bk];`);
+    emit(`const pivot = (noiseVariance[k] + extraOf[bk]) * wk * wk + variance - pSp;`);
+    emit(`if (!(pivot > 0 && pivot < Infinity)) { failedAt = k; failedPivot = pivot; break; }`);
+    emit(`const z = (residual[k] - shiftOf[bk]) * wk - pf;`);
+  }
   emit(`previousInverse = 1 / pivot; previousZ = z; quadratic += z * z * previousInverse;`);
   if (w.withColumn) {
     emit(`const w = 1 - pg; columnQuadratic += w * w * previousInverse; crossQuadratic += z * w * previousInverse; previousW = w;`);
   }
+  emitBandColumnSums(w);
   if (w.tape) {
     const t = w.tape;
     emit(`${range(r).map((i) => `tape[tb + ${t.gain + i}] = u${i};`).join(" ")} tape[tb + ${t.inversePivot}] = previousInverse; tape[tb + ${t.innovation}] = z;`);
   }
   emit(absorbPivotSource("pivot", w.constant));
+}
+
+/**
+ * The band columns' innovations w_c = x_c - p^T h_c (x_c = 1 / a_c at a point of band c, else 0) and
+ * the Gram sums z w_c / D and w_c w_d / D (band-mean-sums.ts: the means integrated out).
+ */
+function emitBandColumnSums(w: Writer): void {
+  const { emit, r } = w;
+  const columns = w.bandColumns;
+  for (let c = 0; c < columns; c++) {
+    emit(`const innovation${c} = (bk === ${c} ? columnValue${c} : 0) - (${range(r).map((i) => `p${i} * ${columnState(c, i)}`).join(" + ")});`);
+  }
+  for (let c = 0; c < columns; c++) {
+    emit(`{ const wi = innovation${c} * previousInverse; ${gramName(0, c + 1)} += z * wi;`);
+    emit(range(columns).slice(c).map((d) => `${gramName(c + 1, d + 1)} += wi * innovation${d};`).join(" ") + " }");
+  }
+  for (let c = 0; c < columns; c++) emit(`previousW${c} = innovation${c};`);
 }
 
 /** The state and the running scalars stored back for the next chunk; a failed pivot thrown after the loop. */
@@ -277,6 +340,15 @@ function emitEpilogue(w: Writer): void {
   if (w.withColumn) {
     for (const i of range(r)) emit(`state[${r * r + 2 * r + i}] = g${i};`);
     COLUMN_SCALAR_NAMES.forEach((name) => emit(`scalars[${SCALAR_SLOTS[name]}] = ${name};`));
+  }
+  const columns = w.bandColumns;
+  if (columns > 0) {
+    const base = r * r + 2 * r;
+    for (let c = 0; c < columns; c++) {
+      emit(`state[${base + columns * r + c}] = previousW${c};`);
+      for (const i of range(r)) emit(`state[${base + c * r + i}] = ${columnState(c, i)};`);
+    }
+    for (let c = 0; c <= columns; c++) for (let d = c; d <= columns; d++) if (c + d > 0) emit(`gram[${c * (columns + 1) + d}] = ${gramName(c, d)};`);
   }
   emit(`if (failedAt >= 0) throw new FactorizationError(failedAt, failedPivot);`);
 }

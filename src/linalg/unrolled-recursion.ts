@@ -3,7 +3,7 @@ import { ExponentialTransition } from "./exponential-transition.js";
 import { FactorizationError } from "./factorization-error.js";
 import { OscillatorTransition } from "./oscillator-transition.js";
 import { logDeterminantOf } from "./pivot-product.js";
-import { COLUMN_SCALAR_NAMES, recursionSource, SCALAR_NAMES, SCALAR_SLOTS, type BlockKind } from "./recursion-source.js";
+import { COLUMN_SCALAR_NAMES, recursionSource, SCALAR_NAMES, SCALAR_SLOTS, type BlockKind, type PointScaling } from "./recursion-source.js";
 import type { SemiseparableForm } from "./semiseparable-form.js";
 import type { TransitionBlock } from "./transition-block.js";
 
@@ -33,10 +33,31 @@ export type UnrolledAdvance = (
   begin: number,
   end: number,
   tape?: Float64Array,
+  scaling?: BandScaling,
 ) => void;
+
+/**
+ * Per-band constants a scaled recursion reads at every point k, for its band b = band[k]: the residual
+ * (y_k - shift[b]) * inverse[b] and the noise variance (v_k + extra[b]) * inverse[b]^2
+ * (see band-scaled-likelihood.ts).
+ */
+export interface BandScaling {
+  readonly band: Int32Array;
+  readonly inverse: Float64Array;
+  readonly shift: Float64Array;
+  readonly extra: Float64Array;
+  /**
+   * With band columns: the running Gram sums of the columns [r, x_1 ... x_B], (B + 1) x (B + 1)
+   * row-major, upper triangle without [0][0] (that is the `quadratic` scalar), accumulated in place.
+   */
+  readonly gram?: Float64Array;
+}
 
 /** Largest state dimension written out (the code grows as R^2). */
 export const MAX_UNROLLED_DIMENSION = 10;
+
+/** Most band columns written out (the Gram sums grow as B^2; more bands take the general loop). */
+export const MAX_BAND_COLUMNS = 12;
 
 /**
  * Points per call of a per-point loop. Running the recursion in chunks lets V8 optimise the loop as an
@@ -45,9 +66,12 @@ export const MAX_UNROLLED_DIMENSION = 10;
  */
 export const RECURSION_CHUNK = 2048;
 
-/** Length of the `state` array of a recursion of dimension `r`: S (r x r), f, u and, with a constant column, g. */
-function stateLength(r: number, constantColumn: boolean): number {
-  return r * r + (constantColumn ? 3 : 2) * r;
+/**
+ * Length of the `state` array of a recursion of dimension `r`: S (r x r), f, u and, with a constant
+ * column, g; with band columns, R values and one innovation per column.
+ */
+export function stateLength(r: number, constantColumn: boolean, bandColumns = 0): number {
+  return r * r + (constantColumn ? 3 : 2) * r + bandColumns * (r + 1);
 }
 
 /** A fresh array of running scalars (the pivot product starts at 1). */
@@ -116,6 +140,8 @@ function blockKind(block: TransitionBlock): BlockKind | undefined {
 /**
  * A compiled recursion for these blocks, or undefined when the layout is not supported (a block larger
  * than 2 x 2, R above {@link MAX_UNROLLED_DIMENSION}) or code cannot be compiled here.
+ * With `scaling: "bands"`, the residuals and noise variances are scaled per band inside the loop
+ * ({@link BandScaling}, passed as the last argument).
  * `state` holds S (R x R, row-major), then f, then u (R each) between calls; `scalars` the five running
  * scalars in the order previousInverse, previousZ, quadratic, exponent, product (see pivot-product.ts).
  *
@@ -125,19 +151,22 @@ function blockKind(block: TransitionBlock): BlockKind | undefined {
  */
 export function unrolledRecursion(
   blocks: readonly TransitionBlock[],
-  options: { readonly constantColumn?: boolean; readonly record?: boolean } = {},
+  options: { readonly constantColumn?: boolean; readonly record?: boolean; readonly scaling?: PointScaling; readonly bandColumns?: number } = {},
 ): UnrolledAdvance | undefined {
   const kinds = blockKindsOf(blocks);
   if (!kinds) return undefined;
   const withColumn = options.constantColumn === true;
   const record = options.record === true;
-  const key = kinds.join(",") + (withColumn ? "+ones" : "") + (record ? "+tape" : "");
+  const scaling = options.scaling ?? "none";
+  const bandColumns = scaling === "bands" ? (options.bandColumns ?? 0) : 0;
+  if (bandColumns > MAX_BAND_COLUMNS) return undefined;
+  const key = kinds.join(",") + (withColumn ? "+ones" : "") + (record ? "+tape" : "") + (scaling === "none" ? "" : `+${scaling}${bandColumns}`);
   if (compiled.has(key)) return compiled.get(key);
   let advance: UnrolledAdvance | undefined;
   const dimension = blocks.reduce((r, b) => r + b.size, 0);
   if (dimension <= MAX_UNROLLED_DIMENSION) {
     try {
-      const { body, constants } = recursionSource(kinds, withColumn, record);
+      const { body, constants } = recursionSource(kinds, withColumn, record, scaling, bandColumns);
       // The tables arrive as one object and are unpacked into the closure's locals (no spread call).
       const factory = new Function(
         "FactorizationError",
@@ -146,7 +175,7 @@ export function unrolledRecursion(
         `const { ${EXPONENTIAL_TABLE_NAMES.join(", ")} } = tables;\nreturn function advance(${PARAMETERS}) {\n${body}\n};`,
       );
       advance = factory(FactorizationError, constants, EXPONENTIAL_TABLES) as UnrolledAdvance;
-      primeFeedback(advance, blocks, dimension, withColumn, record);
+      primeFeedback(advance, blocks, dimension, withColumn, record, scaling !== "none", bandColumns);
     } catch {
       advance = undefined; // no run-time compilation on this host
     }
@@ -169,16 +198,27 @@ const PRIMING_CALLS = 32;
  * point and twice the time (measured with --trace-opt/--trace-gc on the engine benchmark's light curves:
  * 1 scavenge against about 1100 per 2e7 points, 43 against 92 ns per point for R = 1).
  */
-function primeFeedback(advance: UnrolledAdvance, blocks: readonly TransitionBlock[], r: number, withColumn: boolean, record: boolean): void {
+function primeFeedback(
+  advance: UnrolledAdvance,
+  blocks: readonly TransitionBlock[],
+  r: number,
+  withColumn: boolean,
+  record: boolean,
+  scaled: boolean,
+  bandColumns: number,
+): void {
   const ones = new Float64Array(r).fill(1);
-  const state = new Float64Array(stateLength(r, withColumn));
+  const state = new Float64Array(stateLength(r, withColumn, bandColumns));
   const scalars = initialScalars();
   const none = new Float64Array(0);
   const tape = record ? none : undefined;
-  for (let call = 0; call < PRIMING_CALLS; call++) advance(blocks, ones, ones, state, scalars, none, none, none, 0.5, 0, 0, tape);
+  const perBand = new Float64Array(Math.max(1, bandColumns)).fill(1);
+  const gram = bandColumns > 0 ? new Float64Array((bandColumns + 1) ** 2) : undefined;
+  const scaling: BandScaling | undefined = scaled ? { band: new Int32Array(0), inverse: perBand, shift: perBand, extra: perBand, ...(gram ? { gram } : {}) } : undefined;
+  for (let call = 0; call < PRIMING_CALLS; call++) advance(blocks, ones, ones, state, scalars, none, none, none, 0.5, 0, 0, tape, scaling);
 }
 
 /** Compiled recursions by layout (a cache of pure functions of the layout: same input, same code). */
 const compiled = new Map<string, UnrolledAdvance | undefined>();
 
-const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, end, tape";
+const PARAMETERS = "blocks, p, q, state, scalars, time, noiseVariance, residual, mean, begin, end, tape, scaling";

@@ -1,11 +1,11 @@
-import { DEFAULT_SAMPLER, markovPosterior, samplePosterior, type PosteriorDraws, type PosteriorSample } from "../inference/index.js";
+import { DEFAULT_SAMPLER, posteriorByMethod, type MethodPosterior, type PosteriorDraws } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { combinedDiagnostics } from "./fit-diagnostics.js";
 import type { FitOptions } from "./fit-options.js";
 import { periodogramPeriod } from "./fit-period-search.js";
 import { DEFAULT_KEPT_DRAWS, thinnedSample } from "./fit-result-assembly.js";
 import { RESULT_FORMAT_VERSION, type FitResult } from "./fit-result.js";
-import { DEFAULT_FIT_BUDGET } from "./fit-sampling.js";
+import { DEFAULT_FIT_BUDGET, fitMethod } from "./fit-sampling.js";
 import { posteriorSummaries } from "./fit-summaries.js";
 import { fitWarnings } from "./fit-warnings.js";
 import { buildJointModel, jointLikelihood, jointSummary, referenceBandIndex, type JointModel } from "./joint-model.js";
@@ -31,16 +31,42 @@ export interface DetailedJointFit {
   readonly model: JointModel;
   readonly lightCurves: readonly LightCurve[];
   readonly draws: PosteriorDraws;
-  readonly run: PosteriorSample;
+  /** The posterior as computed (importance sampling or MCMC), before the band means were put back. */
+  readonly posterior: MethodPosterior;
 }
+
+/**
+ * Importance sampling is tried for joint posteriors of up to this many free parameters: six bands' DRW
+ * with lags (tau, sigma, five amplitude ratios, five lags). The amplitude ratios and lags are
+ * determined by the data nearly as Gaussians; k-hat and the ESS still decide, with the ensemble as the
+ * fallback.
+ */
+export const JOINT_IMPORTANCE_MAX_DIMENSION = 12;
+
+/**
+ * The joint mode search's Nelder-Mead tolerances: values within 1e-7 of max(1, |ln p|) (about 1e-4 in ln p
+ * for a few hundred points) and a simplex within 1e-3 along every axis of the unconstrained space. The
+ * importance weights correct a mode found this closely (the Laplace proposal is inflated twofold), and
+ * the library's tighter defaults cost most of the fit's evaluations in 7-12 dimensions.
+ */
+/**
+ * Starts of the joint mode search: the data-driven first guess and one prior draw. Each start of a
+ * Nelder-Mead search in 7-12 dimensions costs about 1500 evaluations, most of a joint fit's, and on the
+ * six-band quasars of bench/multi-band-fit.ts further starts found the same mode.
+ */
+const JOINT_STARTS = 2;
+
+const JOINT_MODE_SEARCH = { valueTolerance: 1e-7, sizeTolerance: 1e-3 };
 
 /**
  * Fits one shared process to every band at once (`buildJointModel`): the shared kernel's parameters,
  * per-band amplitudes, means, jitters and, with `lags`, lags. Stages: for periodic models the period
  * range from the joint sampling (`modelPeriodRange`) and the reference band's periodogram peak as the
- * first guess of the period (`periodogramPeriod`); one sampler run from
- * the first guess and five prior draws (`samplePosterior`); with the ensemble the band means are
- * integrated out and drawn back afterwards (`collapseJointMeans`), NUTS samples them with the rest;
+ * first guess of the period (`periodogramPeriod`); the posterior from the first guess and five prior
+ * draws by the fit's method (`posteriorByMethod`: for models without a period Pareto-smoothed importance
+ * sampling from the mode, with the walker ensemble when k-hat or the ESS fail, as `fitMethod` says for
+ * one band); except with NUTS the band means are integrated out and drawn back afterwards
+ * (`collapseJointMeans`), NUTS samples them with the rest;
  * summaries, diagnostics and warnings as for one band (`posteriorSummaries`, `combinedDiagnostics`,
  * `fitWarnings`), plus the lag warnings (`jointWarnings`).
  */
@@ -61,26 +87,30 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
   });
   const collapsed = (options.sampler ?? DEFAULT_SAMPLER) === "ensemble" ? collapseJointMeans(model, lightCurves) : undefined;
   const space = collapsed?.space ?? model.space;
-  const run = samplePosterior(space, collapsed?.likelihood ?? jointLikelihood(model, lightCurves), {
+  const posterior = posteriorByMethod(space, collapsed?.likelihood ?? jointLikelihood(model, lightCurves), {
     seed: options.seed,
     initial: Object.fromEntries(Object.entries(model.initialGuess).filter(([name]) => space.names.includes(name))),
-    starts: 6,
+    starts: JOINT_STARTS,
     maxEvaluations: options.maxEvaluations ?? DEFAULT_FIT_BUDGET,
     ...(options.sampler ? { sampler: options.sampler } : {}),
+    method: fitMethod(model, options),
+    importanceMaxDimension: JOINT_IMPORTANCE_MAX_DIMENSION,
+    nelderMead: JOINT_MODE_SEARCH,
+    ...(options.importance ? { importance: options.importance } : {}),
     ...(options.onProgress ? { onProgress: options.onProgress } : {}),
     ...(options.signal ? { signal: options.signal } : {}),
     clock,
   });
-  const sampled = markovPosterior(run).draws;
+  const sampled = posterior.draws;
   const draws = collapsed ? restoreBandMeans(model, collapsed, sampled, createRng(childSeed(options.seed, 200))) : sampled;
-  let maximumPosterior: Record<string, number> = { ...run.maximum };
+  let maximumPosterior: Record<string, number> = { ...posterior.maximum };
   if (collapsed) {
-    const means = collapsed.meanPosterior(collapsed.space.physicalFromRecord(run.maximum)).mean;
+    const means = collapsed.meanPosterior(collapsed.space.physicalFromRecord(posterior.maximum)).mean;
     model.bands.forEach((band, b) => (maximumPosterior[`mean.${band}`] = means[b]));
     maximumPosterior = Object.fromEntries(model.space.names.map((name) => [name, maximumPosterior[name]]));
   }
   const summaries = posteriorSummaries(draws, model.space.names, options.model, options.redshift);
-  const diagnostics = combinedDiagnostics([markovPosterior(run)], (clock() - start) / 1000);
+  const diagnostics = combinedDiagnostics([posterior], (clock() - start) / 1000);
   const referenceCurve = lightCurves[model.reference];
   const dropped = lightCurves.reduce((sum, lc) => sum + lc.provenance.dropped, 0);
   const provenance = referenceCurve.provenance;
@@ -136,7 +166,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
     maximumPosterior,
     ...(periodGuess !== undefined ? { periodogramPeriod: periodGuess } : {}),
     posteriorSample: thinnedSample(draws, options.keptDraws ?? DEFAULT_KEPT_DRAWS),
-    ...runRecords([markovPosterior(run)]),
+    ...runRecords([posterior]),
   };
-  return { result, model, lightCurves, draws, run };
+  return { result, model, lightCurves, draws, posterior };
 }

@@ -61,7 +61,7 @@ export function sampleStarts(
  * to it. `method: "importance"` tries it for any model (bench/samplers-rotation-times.ts measures it on
  * quasi-periodic fits); `method: "mcmc"`, or giving `sampler`, runs MCMC only.
  */
-export function fitMethod(model: LightCurveModel, options: FitOptions): "importance" | "mcmc" {
+export function fitMethod(model: Pick<LightCurveModel, "space">, options: FitOptions): "importance" | "mcmc" {
   const asked = options.method ?? (options.sampler !== undefined ? "mcmc" : "auto");
   if (asked === "auto") return model.space.names.includes("period") ? "mcmc" : "importance";
   return asked;

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { mergeBands } from "../../src/gp/band-merge.js";
+import { mergeBands, reshiftMerge } from "../../src/gp/band-merge.js";
 import { MultiBandProcess } from "../../src/gp/multi-band-process.js";
 import { kernels, type Kernel } from "../../src/kernels/index.js";
 import { createRng } from "../../src/random/rng.js";
@@ -121,6 +121,38 @@ describe("multi-band process against dense linear algebra", () => {
     expect(Array.from(merge.time)).toEqual([0, 0, 2, 2, 4]);
     expect(Array.from(merge.band)).toEqual([0, 1, 0, 1, 0]);
     expect(Array.from(merge.source)).toEqual([0, 3, 1, 4, 2]);
+  });
+
+  it("repairs its joint order in place as the lags move: the same order and likelihood as a new merge", () => {
+    // Reference: mergeBands from scratch (checked above) and a process built afresh for each lag vector.
+    const bands = threeBands("joint:reshift").map((b, k) => ({ name: "gri"[k], time: b.time, values: b.values, errors: b.errors }));
+    const kernel = kernels.dampedRandomWalk({ sigma: 0.3, tau: 80 });
+    const base = new MultiBandProcess(kernel, bands, parameters(false));
+    const offsets = [0, bands[0].time.length, bands[0].time.length + bands[1].time.length];
+    // Small steps (a few points swap), a jump of months (a new merge), back to zero, a tie with band 0.
+    const tie = bands[0].time[10] - bands[1].time[3];
+    for (const lag of [[0, 0.3, -0.2], [0, 0.9, -0.7], [0, 2.5, 1.1], [0, 120, -95], [0, 0, 0], [0, -tie, 0]]) {
+      const p = { ...parameters(false), lag };
+      const repaired = base.withParameters(kernel, p);
+      const fresh = new MultiBandProcess(kernel, bands, p);
+      expect(repaired.logLikelihood()).toBe(fresh.logLikelihood());
+      expect(repaired.logLikelihoodGradient({ lags: false }).value).toBe(fresh.logLikelihoodGradient({ lags: false }).value);
+    }
+    // The repair itself: in place, the merge's order, with the carried arrays moved along.
+    const times = bands.map((b) => b.time);
+    const start = mergeBands(times, [0, 0, 0], offsets);
+    const flat = Float64Array.from(times.flatMap((t) => Array.from(t)));
+    const unshifted = Float64Array.from(start.source, (s) => flat[s]);
+    const label = Float64Array.from(start.source, (s) => s + 0.5);
+    for (const lag of [[0, 0.4, -0.3], [0, -tie, 0], [0, 3, 2]]) {
+      expect(reshiftMerge(start, unshifted, lag, [unshifted, label], 1e9)).toBe(true);
+      const fresh = mergeBands(times, lag, offsets);
+      expect(Array.from(start.time)).toEqual(Array.from(fresh.time));
+      expect(Array.from(start.band)).toEqual(Array.from(fresh.band));
+      expect(Array.from(start.source)).toEqual(Array.from(fresh.source));
+      expect(Array.from(label)).toEqual(Array.from(fresh.source, (s) => s + 0.5));
+    }
+    expect(reshiftMerge(start, unshifted, [0, 300, -300], [unshifted, label], 10)).toBe(false); // too many moves
   });
 
   it("rejects bad band parameters with a message naming them", () => {
