@@ -132,11 +132,11 @@ export function quasiPeriodicLikelihood(time: Float64Array, value: Float64Array,
 
 /**
  * A spotted star of the invented survey's space stare: a quasi-periodic light curve of `n` points,
- * one every hour, rotation period 6.3 d.
+ * one every `intervalDays` (default an hour), rotation period 6.3 d.
  */
-export function quasiPeriodicFit(n = 1000, seed = 2025): SimulatedFit {
+export function quasiPeriodicFit(n = 1000, seed = 2025, intervalDays = 1 / 24): SimulatedFit {
   const rng = createRng(seed);
-  const all = continuousSpaceCadence({ start: 0, duration: (n * 1.1) / 24, interval: 1 / 24 }, rng);
+  const all = continuousSpaceCadence({ start: 0, duration: n * 1.1 * intervalDays, interval: intervalDays }, rng);
   const time = all.slice(0, n);
   const truth = { period: 6.3, decayTime: 24, harmonicWeight: 0.3, sigma: 0.01, mean: 1 };
   const error = Float64Array.from(time, () => 0.002);

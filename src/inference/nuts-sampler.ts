@@ -4,7 +4,8 @@ import { DualAveraging } from "./dual-averaging.js";
 import { hasGradient, type DifferentiablePosteriorTarget, type PosteriorTarget } from "./posterior-target.js";
 import type { MarkovSampler } from "./markov-sampler.js";
 import { nutsTransition, type PhasePoint } from "./nuts-transition.js";
-import { planWarmup, WindowSpread, type WarmupPlan } from "./warmup-schedule.js";
+import { nextInverseMass, WindowDraws, type AdaptedMass } from "./warmup-mass.js";
+import { planWarmup, type WarmupPlan } from "./warmup-schedule.js";
 
 /** Options of {@link createNutsSampler}. */
 export interface NutsSamplerOptions {
@@ -17,10 +18,10 @@ export interface NutsSamplerOptions {
   /** Step size to start from; by default found by the heuristic of Hoffman & Gelman 2014, algorithm 4. */
   readonly initialStepSize?: number;
   /**
-   * Diagonal of the inverse mass matrix before the first adaptation window (default all ones), for
-   * example the squared scales of a Laplace approximation at the mode. Parameters whose scales differ
-   * by orders of magnitude otherwise force tiny steps and 2^maxTreeDepth-step trajectories until the
-   * first window ends.
+   * Diagonal of the inverse mass matrix to start from (default all ones), for example the squared
+   * curvature scales at the mode; kept until a warm-up window contradicts it (`nextInverseMass` in warmup-mass.ts).
+   * Parameters whose scales differ by orders of magnitude otherwise force tiny steps and
+   * 2^maxTreeDepth-step trajectories until the windows have corrected the scales.
    */
   readonly initialInverseMass?: Float64Array;
   /** Where the mass-matrix windows lie (default {@link planWarmup} of `warmup`); benchmarks compare plans. */
@@ -31,9 +32,7 @@ interface ChainState {
   readonly rng: Rng;
   point: PhasePoint;
   stepSize: number;
-  inverseMass: Float64Array;
   readonly adaptation: DualAveraging;
-  readonly variance: WindowSpread;
 }
 
 /**
@@ -78,12 +77,14 @@ function initialStepSize(
 }
 
 /**
- * Several independent chains of the no-U-turn sampler (Hoffman & Gelman 2014, JMLR 15, 1593). Each
- * chain has its own generator (seeded `childSeed(seed, chain)`), its own step size tuned by dual
- * averaging to the target acceptance statistic, and its own diagonal mass matrix, re-estimated from the
- * chain's draws at the end of each warm-up window ({@link planWarmup}) and followed by a fresh step-size
- * search. After warm-up the step size is the dual-averaging mean and stays fixed, and every iteration is
- * kept.
+ * Several chains of the no-U-turn sampler (Hoffman & Gelman 2014, JMLR 15, 1593). Each chain has its
+ * own generator (seeded `childSeed(seed, chain)`) and its own step size tuned by dual averaging to the
+ * target acceptance statistic; the diagonal mass matrix is one for all chains, updated from the pooled
+ * draws of all chains at the end of each warm-up window ({@link planWarmup}; `nextInverseMass` in warmup-mass.ts),
+ * and a change that contradicts the previous one is followed by a fresh step-size search in every chain.
+ * After warm-up the step size is the dual-averaging mean and stays fixed, and every iteration is kept.
+ * `details()` reports, besides the adapted values, the leapfrog steps of the warm-up and how many
+ * windows restarted the step size (`stepSizeRestarts`).
  *
  * @param initial one starting point per chain, each with a finite log density
  */
@@ -99,6 +100,18 @@ export function createNutsSampler(
   const targetAcceptance = options.targetAcceptance ?? 0.8;
   const maxDepth = options.maxTreeDepth ?? 10;
   const plan = options.warmupPlan ?? planWarmup(warmup);
+  for (let w = 0; w < plan.windowEnds.length; w++) {
+    if (!(plan.windowStarts[w] < plan.windowEnds[w] && plan.windowEnds[w] < warmup)) {
+      throw new RangeError(`NUTS: warm-up window ${w} must end after it starts and before the last warm-up iteration`);
+    }
+  }
+  const startMass = options.initialInverseMass ? Float64Array.from(options.initialInverseMass) : new Float64Array(d).fill(1);
+  if (startMass.length !== d || !startMass.every((v) => v > 0 && Number.isFinite(v))) {
+    throw new RangeError(`NUTS: the initial inverse mass needs ${d} positive finite entries`);
+  }
+  // One mass matrix for all chains: each window's draws of all chains are pooled to update it.
+  let mass: AdaptedMass = { inverseMass: startMass, support: new Float64Array(d), restart: false };
+  const windowDraws = new WindowDraws(initial.length, d);
   const draws = new DrawStore(initial.length, d);
   const chains: ChainState[] = initial.map((q0, c) => {
     if (q0.length !== d) throw new RangeError(`NUTS: a starting point has ${q0.length} entries, expected ${d}`);
@@ -108,18 +121,12 @@ export function createNutsSampler(
     if (!Number.isFinite(logPosterior)) throw new RangeError(`NUTS: log density of chain ${c} at its start is ${logPosterior}`);
     const rng = createRng(childSeed(seed, c));
     const point: PhasePoint = { q, p: new Float64Array(d), gradient, logPosterior };
-    const inverseMass = options.initialInverseMass ? Float64Array.from(options.initialInverseMass) : new Float64Array(d).fill(1);
-    if (inverseMass.length !== d || !inverseMass.every((v) => v > 0 && Number.isFinite(v))) {
-      throw new RangeError(`NUTS: the initial inverse mass needs ${d} positive finite entries`);
-    }
-    const stepSize = options.initialStepSize ?? initialStepSize(target, point, inverseMass, rng);
+    const stepSize = options.initialStepSize ?? initialStepSize(target, point, startMass, rng);
     return {
       rng,
       point,
       stepSize,
-      inverseMass,
       adaptation: new DualAveraging(targetAcceptance, stepSize),
-      variance: new WindowSpread(d),
     };
   });
   const positions: Float64Array[] = chains.map((c) => c.point.q);
@@ -131,6 +138,8 @@ export function createNutsSampler(
   let depthSum = 0;
   let depthLimitHits = 0;
   let leapfrogSteps = 0;
+  let warmupLeapfrogSteps = 0;
+  let stepSizeRestarts = 0;
 
   return {
     kind: "nuts",
@@ -143,23 +152,16 @@ export function createNutsSampler(
     },
     iterate() {
       const inWarmup = iterations < warmup;
+      const window = inWarmup ? plan.windowEnds.findIndex((end, w) => iterations >= plan.windowStarts[w] && iterations < end) : -1;
       chains.forEach((chain, c) => {
-        const step = nutsTransition(target, chain.point, chain.stepSize, chain.inverseMass, chain.rng, maxDepth);
+        const step = nutsTransition(target, chain.point, chain.stepSize, mass.inverseMass, chain.rng, maxDepth);
         chain.point = step.point;
         leapfrogSteps += step.leapfrogSteps;
         if (inWarmup) {
+          warmupLeapfrogSteps += step.leapfrogSteps;
           if (step.divergent) warmupDivergences++;
           chain.stepSize = chain.adaptation.update(step.acceptance);
-          const window = plan.windowEnds.findIndex((end, w) => iterations >= plan.windowStarts[w] && iterations < end);
-          if (window >= 0) {
-            chain.variance.add(chain.point.q);
-            if (iterations === plan.windowEnds[window] - 1) {
-              chain.inverseMass = chain.variance.regularizedVariance(chain.inverseMass);
-              chain.variance.reset();
-              chain.stepSize = initialStepSize(target, chain.point, chain.inverseMass, chain.rng, chain.stepSize);
-              chain.adaptation.restart(chain.stepSize);
-            }
-          }
+          if (window >= 0) windowDraws.add(c, chain.point.q);
           if (iterations === warmup - 1) chain.stepSize = chain.adaptation.finalStep();
         } else {
           acceptanceSum += step.acceptance;
@@ -170,6 +172,17 @@ export function createNutsSampler(
         positions[c] = chain.point.q;
         logp[c] = chain.point.logPosterior;
       });
+      if (window >= 0 && iterations === plan.windowEnds[window] - 1) {
+        mass = nextInverseMass(mass, windowDraws.estimates());
+        windowDraws.reset();
+        if (mass.restart) {
+          stepSizeRestarts++;
+          for (const chain of chains) {
+            chain.stepSize = initialStepSize(target, chain.point, mass.inverseMass, chain.rng, chain.stepSize);
+            chain.adaptation.restart(chain.stepSize);
+          }
+        }
+      }
       iterations++;
       if (!inWarmup) draws.append(positions, logp);
     },
@@ -189,12 +202,14 @@ export function createNutsSampler(
         chains: chains.length,
         warmup,
         stepSizes: chains.map((c) => c.stepSize),
-        inverseMassDiagonals: chains.map((c) => Array.from(c.inverseMass)),
+        inverseMassDiagonals: chains.map(() => Array.from(mass.inverseMass)),
         divergences,
         warmupDivergences,
         meanTreeDepth: kept > 0 ? depthSum / kept : NaN,
         treeDepthLimitHits: depthLimitHits,
         leapfrogSteps,
+        warmupLeapfrogSteps,
+        stepSizeRestarts,
       };
     },
   };

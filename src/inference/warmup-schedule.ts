@@ -1,5 +1,3 @@
-import { sortedCopy, sortedQuantile } from "../numerics/order-statistics.js";
-
 /** What a warm-up iteration should do. */
 export interface WarmupPlan {
   /** Iterations at whose end the mass matrix is re-estimated from the window just finished. */
@@ -15,29 +13,39 @@ export const MIN_WARMUP_WINDOW = 20;
 export const WARMUP_WINDOW_GROWTH = 3;
 
 /**
- * Windowed warm-up for NUTS (the idea of adapting the step size by dual averaging while a diagonal mass
- * matrix is re-estimated from growing windows of draws: Hoffman & Gelman 2014, JMLR 15, 1593, sec. 3.2;
- * the constants are the project's own, derived below and checked against an oracle mass matrix in
- * bench/nuts-warmup-compare.ts).
+ * Where the mass-matrix windows of the NUTS warm-up lie. The warm-up as a whole is the project's own
+ * design (the idea of tuning the step size by dual averaging while a diagonal mass matrix is estimated
+ * from windows of draws is that of Hoffman & Gelman 2014, JMLR 15, 1593, sec. 3.2); its rules and why:
  *
- * The warm-up of W iterations has three stages:
- * 1. an opening of round(W / 8) iterations that adapt only the step size. Chains start at the mode, spread
- *    by its curvature, with that curvature as the first mass matrix, so they need only to settle into
- *    the typical set before their draws say anything about its shape;
- * 2. a middle span tiled exactly by k windows whose lengths grow geometrically by
- *    `WARMUP_WINDOW_GROWTH`, k being the largest number for which the first window still holds
- *    `MIN_WARMUP_WINDOW` draws. Each window ends with a new mass matrix and a fresh step-size
- *    search. Growth 3 rather than 2 halves the restarts (each costs the dual averaging some tens of
- *    iterations to settle) and gives the last window, whose estimate is the one kept, two thirds of the span;
- * 3. a closing of round(W / 10) iterations in which the step size settles for the final mass matrix.
+ * - Start from what the fit already knows. Chains start at the mode of the sampled density, spread by
+ *   its curvature, with the squared curvature scales as the inverse mass. For the light-curve models
+ *   that mass is already about as good as the true posterior variances (bench/nuts-warmup-compare.ts),
+ *   so the warm-up's first duty is not to make it worse.
+ * - One mass matrix for all chains, from the draws of all chains in a window ((`WindowDraws`, warmup-mass.ts)):
+ *   four times the draws of a chain alone, and the chains' disagreement counts against the estimate.
+ * - A window changes the mass only when it contradicts it (`nextInverseMass`, warmup-mass.ts): a coordinate with at
+ *   least `MIN_SPREAD_DRAWS` effective draws of its spread whose variance lies beyond two standard errors
+ *   and a factor 2 from the current value. Then the window's variances replace the mass matrix and the step
+ *   size is searched afresh; otherwise they only sharpen it, weighted by effective draws, and the step-size
+ *   adaptation runs on. The standard error comes from the window itself (autocorrelation, chains and
+ *   tails included), so a short, sticky or heavy-tailed window is trusted less.
+ * - The layout (this function) for W warm-up iterations: an opening of round(W / 8) iterations that tune
+ *   only the step size while the chains settle into the typical set; a middle span tiled exactly by k
+ *   windows growing geometrically by `WARMUP_WINDOW_GROWTH`, k the largest number for which the first
+ *   window still holds `MIN_WARMUP_WINDOW` iterations (of every chain); a closing of round(W / 8)
+ *   iterations in which the step size settles for the final mass matrix. Early short windows let a badly
+ *   scaled start (such as a unit mass across six decades of scale) be corrected in stages, each stage
+ *   letting the step size grow; the last window, two thirds of the span, gives the final estimate. Growth 3
+ *   rather than 2 means fewer windows and fewer restarts, each costing the dual averaging some tens of
+ *   iterations to settle.
  *
  * Fewer than 2 * MIN_WARMUP_WINDOW warm-up iterations: no mass-matrix window (step size only).
  *
- * @example planWarmup(500) // opening 63, windows [63, 93), [93, 182), [182, 450) of 30, 89, 268; closing 50
+ * @example planWarmup(500) // opening 63, windows [63, 92), [92, 178), [178, 437) of 29, 86, 259; closing 63
  */
 export function planWarmup(warmup: number): WarmupPlan {
   const opening = Math.round(warmup / 8);
-  const closing = Math.round(warmup / 10);
+  const closing = Math.round(warmup / 8);
   const span = warmup - opening - closing;
   if (warmup < 2 * MIN_WARMUP_WINDOW || span < MIN_WARMUP_WINDOW) return { windowStarts: [], windowEnds: [] };
   // Windows s, g s, g^2 s, ... sum to s (g^k - 1) / (g - 1) = span; the first must be >= MIN_WARMUP_WINDOW.
@@ -54,61 +62,4 @@ export function planWarmup(warmup: number): WarmupPlan {
     ends.push(w === count - 1 ? opening + span : opening + Math.round(covered));
   }
   return { windowStarts: starts, windowEnds: ends };
-}
-
-/** Weight, in draws, given to the previous mass matrix when a window's variances are estimated. */
-export const MASS_PRIOR_DRAWS = 10;
-
-/**
- * The spread of each coordinate over one warm-up window, for the diagonal mass matrix. The scale is the
- * interquartile range divided by 2 Phi^-1(3/4) = 1.3490 (the standard deviation for a normal
- * distribution; Hoaglin, Mosteller & Tukey 1983, Understanding Robust and Exploratory Data Analysis, from
- * memory), not the sample standard deviation: timescale posteriors of damped random walks have long
- * tails towards the baseline, and a mass matrix sized by the tail's variance makes steps too long for
- * the bulk, where the sampler spends its time.
- */
-export class WindowSpread {
-  private readonly columns: number[][];
-
-  constructor(dimension: number) {
-    this.columns = Array.from({ length: dimension }, () => []);
-  }
-
-  /** Vectors added since the last reset. */
-  get count(): number {
-    return this.columns[0]?.length ?? 0;
-  }
-
-  /** Adds one vector (for example a chain's position after an iteration). */
-  add(x: Float64Array): void {
-    for (let i = 0; i < this.columns.length; i++) this.columns[i].push(x[i]);
-  }
-
-  /**
-   * Squared robust scales shrunk towards `target` (the previous mass matrix, or the curvature at the
-   * mode) as the posterior mean of a variance under a conjugate scaled-inverse-chi-square prior centred
-   * on `target` with nu0 = {@link MASS_PRIOR_DRAWS} degrees of freedom (Gelman et al. 2013, Bayesian Data
-   * Analysis, 3rd ed., sec. 3.3, from memory): (nu0 target + (n - 1) s^2) / (nu0 + n - 1). A 20-draw
-   * window thus moves the estimate two thirds of the way to its own spread, and a short window cannot
-   * produce a near-singular mass matrix. Shrinking towards each parameter's own previous scale, not a
-   * constant, keeps the regularisation right for parameters of any magnitude.
-   */
-  regularizedVariance(target: Float64Array): Float64Array {
-    return Float64Array.from(this.columns, (column, i) => {
-      const dof = column.length - 1;
-      const s = interquartileScale(column);
-      return (MASS_PRIOR_DRAWS * target[i] + dof * s * s) / (MASS_PRIOR_DRAWS + dof);
-    });
-  }
-
-  /** Forgets every vector added, for the next adaptation window. */
-  reset(): void {
-    for (const column of this.columns) column.length = 0;
-  }
-}
-
-/** Interquartile range / 1.3490 of `values` (linear interpolation between order statistics). */
-function interquartileScale(values: readonly number[]): number {
-  const sorted = sortedCopy(values);
-  return (sortedQuantile(sorted, 0.75) - sortedQuantile(sorted, 0.25)) / 1.349;
 }
