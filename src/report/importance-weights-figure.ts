@@ -43,7 +43,7 @@ export function importanceWeightsFigure(input: ReportInput): ReportFigure | unde
       },
       {
         data: { name: "weights" },
-        mark: { type: "line", point: { size: 14 }, strokeWidth: 1.5 },
+        mark: { type: "line", strokeWidth: 1.5 },
         encoding: {
           x: { field: "rank", type: "quantitative", scale: { type: "log", domain: [1, draws], nice: false }, title: "Rank of the draw's weight (1: the largest)" },
           y: {

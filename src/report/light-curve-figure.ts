@@ -145,13 +145,14 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
   if (withErrors) {
     layers.push({
       data: { name: "data" },
-      mark: { type: "rule", strokeWidth: 0.8, opacity: 0.7 },
+      // Dense marks carry no ARIA label each (the figure has one): a label per point is a third of the SVG.
+      mark: { type: "rule", strokeWidth: 0.8, opacity: 0.7, aria: false },
       encoding: { x, y: { field: "lo", type: "quantitative" }, y2: { field: "hi" }, color: { datum: dataSeries } },
     });
   }
   layers.push({
     data: { name: "data" },
-    mark: { type: "point", filled: true, size: n > 2000 ? 6 : 14, opacity: 0.9 },
+    mark: { type: "point", filled: true, size: n > 2000 ? 6 : 14, opacity: 0.9, aria: false },
     encoding: { x, y: { field: "y", type: "quantitative" }, color: { datum: dataSeries } },
   });
   if (outlierRows.length > 0) {

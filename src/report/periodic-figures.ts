@@ -13,7 +13,7 @@ import { robustFlags, valueAxisRange } from "./value-axis-range.js";
 /** Phase bins of the folded model curve. */
 const PHASE_BINS = 20;
 /** At most this many folded points are drawn (evenly thinned beyond, as the caption says). */
-const MAX_POINTS_DRAWN = 5000;
+const MAX_POINTS_DRAWN = 3000;
 
 /**
  * The light curve folded at the posterior median period, phase = ((t - t0) / P) mod 1 with t0 the first
@@ -59,7 +59,7 @@ export function phaseFigure(input: ReportInput): ReportFigure | undefined {
     layer: [
       {
         data: { name: "points" },
-        mark: { type: "point", filled: true, size: points.length > 4000 ? 5 : 12, opacity: 0.6, color: FIGURE_COLORS.data, clip: true },
+        mark: { type: "point", filled: true, size: points.length > 4000 ? 5 : 12, opacity: 0.6, color: FIGURE_COLORS.data, clip: true, aria: false },
         encoding: { x, y: { ...y, field: "y", title: isMag ? "Magnitude [mag]" : "Flux [flux units]" } },
       },
       {

@@ -26,9 +26,10 @@ ${FIT_HELP}
 ${COLUMN_HELP}
 ${BAND_HELP}
 
-Example (an invented quasar of the Lanternfield Deep Survey):
+Examples (the invented objects of the Lanternfield Deep Survey in demo/):
   horologium fit demo/lds-j0412-2731-quasar.csv --model drw --redshift 1.62 --seed 7 --out quasar.json --report quasar-report
-  horologium fit lds-quasar-ugrizy.csv --model drw --lags --out joint.json
+  horologium fit demo/lds-v2291-spotted-star.csv --model quasi-periodic --robust --out star.json --report star-report
+  # a file with a band column: --bands joint --lags fits one process to every band, with per-band lags
 `;
 
 const OPTIONS = {

@@ -25,8 +25,7 @@ Options:
   -h, --help              this help
 
 Example:
-  horologium batch merge /scratch/lanternfield-drw/shard-*.csv --catalogue lanternfield/quasars \\
-    --out lanternfield-drw.csv
+  horologium batch merge demo-drw-shards/shard-*.csv --catalogue demo --out demo-drw.csv
 `;
 
 const MERGE_OPTIONS = {

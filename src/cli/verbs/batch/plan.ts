@@ -30,9 +30,9 @@ Options:
   and the fitting and column options of "horologium batch" (see horologium batch --help)
 
 Example:
-  horologium batch plan lanternfield/quasars --model drw --seed 7 --shards 40 \\
-    --cpus-per-task 4 --time-limit 04:00:00 --out-dir /scratch/lanternfield-drw
-  sbatch /scratch/lanternfield-drw/batch-job.sh
+  horologium batch plan demo --model drw --seed 7 --shards 2 \\
+    --cpus-per-task 4 --time-limit 04:00:00 --out-dir demo-drw-shards
+  sbatch demo-drw-shards/batch-job.sh
 `;
 
 const PLAN_OPTIONS = {

@@ -53,8 +53,8 @@ Sub-verbs (each has --help):
   plan                    write a Slurm job-array script that fits the catalogue in N shards
   merge                   join shard tables; report failed, duplicated and missing objects
 
-Example (an invented survey, 5000 quasar light curves, one CSV file each):
-  horologium batch lanternfield/quasars --model drw --seed 7 --out quasars-drw.csv
+Example (every light curve in demo/; a survey folder of 5000 files works the same way):
+  horologium batch demo --model drw --seed 7 --out demo-drw.csv
   # interrupted? the same command with --resume finishes it
 `;
 
