@@ -53,12 +53,14 @@ function simulated(k: number): LightCurve {
 function main(): void {
   const curves = argument("curves", 20);
   const first = argument("first", 0);
-  const rows: string[][] = [];
   const chosen = new Map<string, number>();
   const inside = { 68: new Map<string, number>(), 95: new Map<string, number>() };
   const names = Object.keys(TRUTH);
   const started = performance.now();
   let points = 0;
+  const header = ["curve", "N", "preferred order", "runner-up: ln B ± s.e. (scale)", "rank of (2,1)", ...names.map((n) => `${n} (${TRUTH[n]}) median (interval holding the truth)`), "(2,1) fit"];
+  // The table row by row as the curves finish (a long run can be read, or stopped, part-way).
+  console.log(markdownTable(header, []));
   for (let k = first; k < first + curves; k++) {
     const lightCurve = simulated(k);
     points += lightCurve.time.length;
@@ -78,7 +80,7 @@ function main(): void {
       if (in95) inside[95].set(name, (inside[95].get(name) ?? 0) + 1);
       return `${formatSignificant(summary.median)} ${in68 ? "(68)" : in95 ? "(95)" : "(out)"}`;
     });
-    rows.push([
+    const row = [
       String(k),
       String(lightCurve.time.length),
       best?.label ?? "-",
@@ -86,15 +88,10 @@ function main(): void {
       String(rank),
       ...medians,
       fit.diagnostics.converged ? fit.diagnostics.method : "not converged",
-    ]);
+    ];
+    console.log(`| ${row.join(" | ")} |`);
     console.error(`curve ${k}: ${best?.label} (carma(2,1) rank ${rank}), ${((performance.now() - started) / 1000).toFixed(0)} s so far`);
   }
-  console.log(
-    markdownTable(
-      ["curve", "N", "preferred order", "runner-up: ln B ± s.e. (scale)", "rank of (2,1)", ...names.map((n) => `${n} (${TRUTH[n]}) median (interval holding the truth)`), "(2,1) fit"],
-      rows,
-    ),
-  );
   console.log(`\nOrders chosen over ${curves} light curves (mean ${Math.round(points / curves)} points):`);
   console.log(markdownTable(["order", "chosen"], [...chosen.entries()].sort((a, b) => b[1] - a[1]).map(([order, count]) => [order, String(count)])));
   console.log(`\nTruth inside the CARMA(2,1) posterior's central intervals (of ${curves}; binomial expectation 68% -> ${(0.68 * curves).toFixed(1)}, 95% -> ${(0.95 * curves).toFixed(1)}):`);

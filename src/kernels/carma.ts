@@ -155,7 +155,7 @@ export class CarmaKernel extends Kernel {
     const r = observation.length;
     const base = this.parameterValues;
     let projectionGradient: Float64Array | undefined;
-    // The projection's derivatives cost 4 (count - 1) Lyapunov solves, about 40 times the value's: formed on
+    // The projection's derivatives cost 4 (count - 1) Lyapunov solves where the value costs one: formed on
     // first use (a gradient), so that value-only evaluations (importance draws, evidence) do not pay them.
     const gradientOfProjection = (): Float64Array => {
       if (projectionGradient) return projectionGradient;

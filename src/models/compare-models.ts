@@ -1,6 +1,6 @@
-import { findMaximumPosterior, unconstrainedPosterior, startingPoints } from "../inference/index.js";
+import { findMaximumPosterior, unconstrainedPosterior, startingPoints, type PosteriorTarget } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
-import { childSeed, createRng } from "../random/rng.js";
+import { childSeed, createRng, type Rng } from "../random/rng.js";
 import { summarizeLightCurve } from "./data-summary.js";
 import { bayesFactorPreference, twoLogBayesFactorText, type EvidencePreference } from "./evidence-scale.js";
 import { importanceLogEvidence, type EvidenceEstimate } from "./importance-evidence.js";
@@ -61,8 +61,8 @@ export interface ModelComparison {
  * Z = integral L(theta) pi(theta) dtheta, estimated by importance sampling from a Student-t at the
  * maximum a posteriori with the Laplace covariance ({@link importanceLogEvidence}: unbiased, with a Monte
  * Carlo standard error), the Laplace approximation (MacKay 2003, ch. 28) where the importance ratios'
- * k-hat says the estimate cannot be trusted. The evidence is the natural criterion for Gaussian processes: the likelihood
- * already integrates over the latent light curve, and the integral over the parameters penalises the extra
+ * k-hat says the estimate cannot be trusted. The evidence is the natural criterion for Gaussian
+ * processes: the likelihood already integrates over the latent light curve, and the integral over the parameters penalises the extra
  * freedom of a periodic kernel, which the maximum likelihood alone would always reward. Differences are
  * read on the scale of Kass & Raftery 1995 (JASA 90, 773; {@link bayesFactorPreference}), with the
  * standard error of ln B. The BIC is reported beside it for reference.
@@ -157,9 +157,9 @@ function preferenceOf(standings: readonly ModelStanding[]): EvidencePreference {
  * while k-hat is too high); the Laplace value (no stated error) when that fails.
  */
 function evidenceAt(
-  target: Parameters<typeof importanceLogEvidence>[0],
+  target: PosteriorTarget,
   mode: Float64Array,
-  rng: Parameters<typeof importanceLogEvidence>[2],
+  rng: Rng,
   symmetries: readonly (readonly number[])[],
   laplace: number,
 ): Pick<ModelStanding, "logEvidence" | "logEvidenceError" | "evidenceMethod" | "evidenceParetoShape"> {
