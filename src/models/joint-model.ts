@@ -9,9 +9,9 @@ import {
   type PhysicalLikelihood,
 } from "../inference/index.js";
 import type { Kernel } from "../kernels/index.js";
-import { FactorizationError } from "../linalg/factorization-error.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { medianOf } from "../numerics/order-statistics.js";
+import { isImpossibleParameters } from "./impossible-parameters.js";
 import { summarizeLightCurve, type DataSummary } from "./data-summary.js";
 import { buildModel, type ModelName, type ModelStructure } from "./light-curve-model.js";
 
@@ -197,7 +197,7 @@ export function jointLikelihood(model: JointModel, lightCurves: readonly LightCu
     return base.withParameters(model.kernelAt(physical), model.bandParametersAt(physical));
   };
   const impossible = (error: unknown): number => {
-    if (error instanceof FactorizationError) return -Infinity;
+    if (isImpossibleParameters(error)) return -Infinity;
     throw error;
   };
   return {
