@@ -1,13 +1,12 @@
 import { readFileSync } from "node:fs";
-import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
+import { readFile, writeFile } from "node:fs/promises";
 import { builtinModules } from "node:module";
-import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { build, type Plugin } from "vite";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { computePeriodogram, fitLightCurve, parseLightCurveBytes, type FitResult } from "../src/browser.js";
-import { launchChromium, skipWithoutChromium, watchPage, type HeadlessBrowser } from "./helpers/headless-chromium.js";
-import { serveFolder, type StaticServer } from "./helpers/static-server.js";
+import { skipWithoutChromium, watchPage } from "./helpers/headless-chromium.js";
+import { servedChromium, type ServedChromium } from "./helpers/served-chromium.js";
 
 const ROOT = new URL("../", import.meta.url).pathname;
 const packageJson = JSON.parse(readFileSync(join(ROOT, "package.json"), "utf8")) as {
@@ -48,40 +47,36 @@ describe("the package's browser entry", () => {
 });
 
 describe.skipIf(skipWithoutChromium)("the library bundled for the browser, in headless Chromium", () => {
-  let dir = "";
-  let server: StaticServer;
-  let chromium: HeadlessBrowser;
+  let served: ServedChromium;
 
   beforeAll(async () => {
-    dir = await mkdtemp(join(tmpdir(), "horologium-bundle-"));
-    await build({
-      configFile: false,
-      logLevel: "silent",
-      plugins: [noNodeBuiltins],
-      build: {
-        outDir: dir,
-        emptyOutDir: true,
-        target: "es2022",
-        lib: { entry: join(ROOT, "src/browser.ts"), formats: ["es"], fileName: () => "horologium.js" },
-      },
+    served = await servedChromium("horologium-bundle-", async (dir) => {
+      await build({
+        configFile: false,
+        logLevel: "silent",
+        plugins: [noNodeBuiltins],
+        build: {
+          outDir: dir,
+          emptyOutDir: true,
+          target: "es2022",
+          lib: { entry: join(ROOT, "src/browser.ts"), formats: ["es"], fileName: () => "horologium.js" },
+        },
+      });
+      await writeFile(join(dir, "index.html"), "<!DOCTYPE html><html><head><link rel=\"icon\" href=\"data:,\"></head><body></body></html>\n");
+      return dir;
     });
-    await writeFile(join(dir, "index.html"), "<!DOCTYPE html><html><head><link rel=\"icon\" href=\"data:,\"></head><body></body></html>\n");
-    server = await serveFolder(dir);
-    chromium = await launchChromium();
   });
 
   afterAll(async () => {
-    await chromium?.close();
-    await server?.close();
-    if (dir) await rm(dir, { recursive: true, force: true });
+    await served?.close();
   });
 
   it("bundles with no Node built-in and fits a light curve as Node does", async () => {
-    const size = (await readFile(join(dir, "horologium.js"))).length;
+    const size = (await readFile(join(served.dir, "horologium.js"))).length;
     expect(size).toBeGreaterThan(100_000);
-    const page = await chromium.context.newPage();
-    const watch = watchPage(page, server.origin);
-    await page.goto(`${server.origin}/index.html`);
+    const page = await served.chromium.context.newPage();
+    const watch = watchPage(page, served.server.origin);
+    await page.goto(`${served.server.origin}/index.html`);
     const csv = smallCsv();
     const lags = [0, 0.5, 3, 40, 200, 1000];
     // A string, so that the test runner's module transform leaves the page's dynamic import alone.

@@ -247,7 +247,7 @@ describe("trace figure", () => {
     const rows = datasets(figure.spec)["trace0_0"];
     // Reference: the trace itself (4 series x 300 steps), drawn in log10 when tau spans a decade, else as is.
     expect(rows).toHaveLength(4 * 300);
-    const drifting = rows.filter((r) => r["series"] === "walker 3");
+    const drifting = rows.filter((r) => (r as Record<string, unknown>)["series"] === "walker 3"); // series are labels
     expect(drifting[drifting.length - 1]["step"]).toBe(897);
     const svg = await renderSvg(figure);
     const texts = svgTexts(svg);

@@ -1,11 +1,10 @@
-import { mkdtemp, readFile, rm, writeFile } from "node:fs/promises";
-import { tmpdir } from "node:os";
+import { readFile, writeFile } from "node:fs/promises";
 import { join } from "node:path";
 import type { Page } from "playwright-core";
 import { build } from "vite";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
-import { launchChromium, skipWithoutChromium, watchPage, type HeadlessBrowser, type PageWatch } from "../helpers/headless-chromium.js";
-import { serveFolder, type StaticServer } from "../helpers/static-server.js";
+import { skipWithoutChromium, watchPage, type PageWatch } from "../helpers/headless-chromium.js";
+import { servedChromium, type ServedChromium } from "../helpers/served-chromium.js";
 
 /**
  * The browser page end to end: built with the project's Vite configuration (as `npm run build:web`
@@ -22,16 +21,15 @@ async function smallLightCurve(): Promise<string> {
 }
 
 describe.skipIf(skipWithoutChromium)("the browser page", () => {
-  let dir = "";
-  let server: StaticServer;
-  let chromium: HeadlessBrowser;
+  let served: ServedChromium;
 
   beforeAll(async () => {
-    dir = await mkdtemp(join(tmpdir(), "horologium-web-"));
-    const site = join(dir, "site");
-    await build({ configFile: join(ROOT, "web/vite.config.ts"), logLevel: "silent", build: { outDir: site, emptyOutDir: true } });
-    server = await serveFolder(site);
-    chromium = await launchChromium();
+    served = await servedChromium("horologium-web-", async (dir) => {
+      const site = join(dir, "site");
+      await build({ configFile: join(ROOT, "web/vite.config.ts"), logLevel: "silent", build: { outDir: site, emptyOutDir: true } });
+      return site;
+    });
+    const dir = served.dir;
     const csv = await smallLightCurve();
     await writeFile(join(dir, "lds-j0412-small.csv"), csv);
     await writeFile(join(dir, "unnamed-columns.csv"), csv.replace("time,mag,mag_err", "epoch,brightness,unc"));
@@ -39,20 +37,18 @@ describe.skipIf(skipWithoutChromium)("the browser page", () => {
   });
 
   afterAll(async () => {
-    await chromium?.close();
-    await server?.close();
-    if (dir) await rm(dir, { recursive: true, force: true });
+    await served?.close();
   });
 
   async function openPage(): Promise<{ page: Page; watch: PageWatch }> {
-    const page = await chromium.context.newPage();
-    const watch = watchPage(page, server.origin);
-    await page.goto(`${server.origin}/index.html`, { waitUntil: "load" });
+    const page = await served.chromium.context.newPage();
+    const watch = watchPage(page, served.server.origin);
+    await page.goto(`${served.server.origin}/index.html`, { waitUntil: "load" });
     return { page, watch };
   }
 
   async function fit(page: Page, file: string, model = "drw"): Promise<string> {
-    await page.setInputFiles('input[type="file"]', join(dir, file));
+    await page.setInputFiles('input[type="file"]', join(served.dir, file));
     await page.selectOption('select[name="model"]', model);
     await page.locator("details summary").click();
     await page.fill('input[name="max-evaluations"]', "30000");
