@@ -1,11 +1,24 @@
 /**
- * Measures what a log-likelihood gradient costs in log-likelihood evaluations, for the models of the
- * sampler benchmark, through the same adapters the samplers use (a Gaussian process is built per call).
+ * Measures what a log-likelihood gradient costs in log-likelihood evaluations, on the sampler
+ * benchmark's simulated light curves (bench/samplers-gp-models.ts), through three adapters:
+ * - "model": `modelLikelihood` of src/models, what NUTS and L-BFGS call in a fit (inputs checked once,
+ *   `withKernel` per call, the gradient tape reused);
+ * - "mean integrated out": the same model with the constant mean integrated out (`collapseMean`), what
+ *   the optimiser and importance sampling or the ensemble of a fit call;
+ * - "new process per call": the benchmark's own adapter, which builds a GaussianProcess per call (inputs
+ *   copied and checked, a fresh tape each time).
  * Value and gradient calls alternate in short blocks and the ratio is the median over blocks, so a
- * shared, busy machine biases neither side. The inference layer's DEFAULT_GRADIENT_COST comes from here.
+ * shared, busy machine biases neither side. The inference layer's DEFAULT_GRADIENT_COST comes from the
+ * first two.
  *
  * Run: npx tsx bench/samplers-gradient-cost.ts [blocks]
  */
+import { loadavg } from "node:os";
+import type { PhysicalLikelihood } from "../src/inference/unconstrained-posterior.js";
+import type { LightCurve } from "../src/lightcurve/light-curve.js";
+import { summarizeLightCurve } from "../src/models/data-summary.js";
+import { buildModel, modelLikelihood, type ModelName } from "../src/models/light-curve-model.js";
+import { collapseMean } from "../src/models/mean-marginal.js";
 import { dampedRandomWalkFit, quasiPeriodicFit, type SimulatedFit } from "./samplers-gp-models.js";
 
 function median(values: number[]): number {
@@ -14,13 +27,11 @@ function median(values: number[]): number {
   return s.length % 2 ? s[m] : 0.5 * (s[m - 1] + s[m]);
 }
 
-function measure(fit: SimulatedFit, blocks: number): { value: number; gradient: number; ratio: number } {
-  const x = fit.space.physicalFromRecord(fit.truth);
+function measure(like: PhysicalLikelihood, x: Float64Array, n: number, blocks: number): { value: number; gradient: number; ratio: number } {
   const g = new Float64Array(x.length);
-  const like = fit.likelihood;
   const gradientFn = like.logLikelihoodAndGradient!;
   // Enough calls per block for a few milliseconds of work.
-  const perBlock = Math.max(5, Math.round(20000 / fit.time.length));
+  const perBlock = Math.max(5, Math.round(20000 / n));
   let sink = 0;
   for (let k = 0; k < 3 * perBlock; k++) sink += like.logLikelihood(x) + gradientFn(x, g);
   const valueTimes: number[] = [];
@@ -42,10 +53,35 @@ function measure(fit: SimulatedFit, blocks: number): { value: number; gradient: 
 }
 
 const blocks = Number(process.argv[2] ?? 40);
-console.log("model                          value (ms)  value+gradient (ms)  gradient cost (value evaluations)");
-for (const fit of [dampedRandomWalkFit(250), quasiPeriodicFit(1000)]) {
-  const r = measure(fit, blocks);
-  console.log(
-    `${fit.label.padEnd(30)} ${r.value.toFixed(4).padStart(10)}  ${r.gradient.toFixed(4).padStart(19)}  ${r.ratio.toFixed(2).padStart(10)}`,
-  );
+console.log(`load average at start: ${loadavg().map((v) => v.toFixed(2)).join(" ")}`);
+console.log("| model | adapter | value (ms) | value + gradient (ms) | gradient cost (value evaluations) |");
+console.log("| --- | --- | --- | --- | --- |");
+const cases: Array<[SimulatedFit, ModelName]> = [
+  [dampedRandomWalkFit(250), "drw"],
+  [quasiPeriodicFit(1000), "quasi-periodic"],
+];
+for (const [fit, name] of cases) {
+  const lightCurve: LightCurve = {
+    time: fit.time,
+    value: fit.value,
+    error: fit.error,
+    unit: "mag",
+    provenance: { source: "simulated", timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: false },
+  };
+  const model = buildModel(name, summarizeLightCurve(lightCurve));
+  const collapsed = collapseMean(model, lightCurve)!;
+  const truth = fit.space.physicalFromRecord(fit.truth);
+  const modelX = model.space.physicalFromRecord(Object.fromEntries(model.space.names.map((n) => [n, fit.truth[n] ?? model.initialGuess[n]!])));
+  const collapsedX = collapsed.space.physicalFromRecord(Object.fromEntries(collapsed.space.names.map((n) => [n, fit.truth[n] ?? model.initialGuess[n]!])));
+  const adapters: Array<[string, PhysicalLikelihood, Float64Array]> = [
+    ["model", modelLikelihood(model, lightCurve), modelX],
+    ["mean integrated out", collapsed.likelihood, collapsedX],
+    ["new process per call", fit.likelihood, truth],
+  ];
+  for (const [adapter, like, x] of adapters) {
+    if (!like.logLikelihoodAndGradient) continue;
+    const r = measure(like, x, fit.time.length, blocks);
+    console.log(`| ${fit.label} | ${adapter} | ${r.value.toFixed(4)} | ${r.gradient.toFixed(4)} | ${r.ratio.toFixed(2)} |`);
+  }
 }
+console.log(`load average at end: ${loadavg().map((v) => v.toFixed(2)).join(" ")}`);

@@ -79,6 +79,13 @@ export interface BatchSummary extends BatchProgress {
 
 const EXAMPLES = 10;
 
+/**
+ * Objects read ahead per worker, waiting for a free worker: with none, each worker idled while the
+ * next light curve was read and parsed (about a millisecond per object with the tests' stand-in fit,
+ * bench/README.md "Batch throughput"); memory holds this many more light curves per worker.
+ */
+const QUEUED_PER_WORKER = 1;
+
 /** The identity recorded in the journal: a run resumes only with the same values. */
 export function runIdentity(options: BatchRunOptions): RunIdentity {
   return {
@@ -97,8 +104,8 @@ export function runIdentity(options: BatchRunOptions): RunIdentity {
 /**
  * Fits every object of a shard of a catalogue on a pool of worker threads and writes the results table.
  *
- * Objects are read one at a time, and the next is read only when a worker is free, so memory holds a
- * few light curves whatever the size of the catalogue (plus the set of ids, for resuming and for
+ * Objects are read one at a time, and the next is read only when a worker is free or about to be
+ * (one object per worker waits in the queue), so memory holds a few light curves whatever the size of the catalogue (plus the set of ids, for resuming and for
  * duplicate checks). Each result row is appended to the journal as soon as it arrives (and flushed to
  * storage in the background); a CSV table is appended to alongside, a Parquet table is written from
  * the journal at the end (both atomically rebuilt from the journal whenever needed). With mode
@@ -182,8 +189,10 @@ function recordRow(sinks: RowSinks, tally: RunTally, row: ResultRow): void {
 
 /**
  * Stage 2: every object of the catalogue in this shard, not seen before in the catalogue and not already
- * in the journal, fitted on the pool (at most one fit per worker in flight) and recorded as it ends;
- * objects without a light curve are recorded as failed. Rethrows the first error of the pool itself.
+ * in the journal, fitted on the pool and recorded as it ends; objects without a light curve are
+ * recorded as failed. Besides the fit running on each worker, one more object per worker is read and
+ * waiting in the pool's queue ({@link QUEUED_PER_WORKER}), so a worker that finishes starts its next fit at once
+ * instead of waiting for the catalogue to be read. Rethrows the first error of the pool itself.
  */
 async function fitEveryObject(options: BatchRunOptions, pool: FitPool, done: Set<string>, tally: RunTally, record: (row: ResultRow) => void): Promise<void> {
   const seen = new Set<string>();
@@ -222,7 +231,7 @@ async function fitEveryObject(options: BatchRunOptions, pool: FitPool, done: Set
       })
       .finally(() => inFlight.delete(task));
     inFlight.add(task);
-    if (inFlight.size >= pool.size) await Promise.race(inFlight);
+    if (inFlight.size >= (1 + QUEUED_PER_WORKER) * pool.size) await Promise.race(inFlight);
   }
   await Promise.all(inFlight);
   if (fatal) throw fatal;

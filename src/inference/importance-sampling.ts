@@ -1,9 +1,10 @@
 import type { Rng } from "../random/rng.js";
 import type { PosteriorTarget } from "./posterior-target.js";
 import { modeCovariance } from "./mode-covariance.js";
-import { paretoShapeThreshold, paretoSmoothedWeights, type SmoothedWeights } from "./pareto-smoothed-weights.js";
+import { paretoShapeThreshold, type SmoothedWeights } from "./pareto-smoothed-weights.js";
 import { profileProposal, type ImportanceProposal, type ProfileProposalOptions } from "./profile-proposal.js";
-import { studentTProposal, type StudentTProposal } from "./student-t-proposal.js";
+import { proposalMixture, weightedMomentProposal } from "./proposal-mixture.js";
+import { studentTProposal } from "./student-t-proposal.js";
 
 /** Options of {@link importanceSample}. */
 export interface ImportanceSamplingOptions {
@@ -41,9 +42,10 @@ export interface ImportanceSamplingOptions {
 export interface ImportanceRound {
   /**
    * "laplace" (a t at the mode with the curvature, the pilot), "profile" (following the ridge of a
-   * two-dimensional target, {@link profileProposal}) or "weighted-moments" (refitted to the weighted draws before it).
+   * two-dimensional target, {@link profileProposal}), "weighted-moments" (refitted to the weighted draws
+   * before it) or "defensive" (the wide component of a mode mixture, modeMixtureSample).
    */
-  readonly proposal: "laplace" | "profile" | "weighted-moments";
+  readonly proposal: "laplace" | "profile" | "weighted-moments" | "defensive";
   /** Draws taken from this component. */
   readonly draws: number;
   /** k-hat and ESS of all draws so far, after this component's draws were added. */
@@ -105,12 +107,6 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
   const inflation = options.pilotInflation ?? 2;
   const maxRefits = options.refits ?? 4;
   const rounds: ImportanceRound[] = [];
-  const components: ImportanceProposal[] = [];
-  const componentDraws: number[] = [];
-  const points: Float64Array[] = [];
-  const logDensity: number[] = [];
-  // ln q_j of every draw under every component, kept so that adding a component costs one pass.
-  const componentLogDensity: number[][] = [];
   const empty = (reason: string): ImportanceSample => ({
     accepted: false,
     reason,
@@ -125,40 +121,14 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
 
   const covariance = modeCovariance(target, mode);
   if (covariance === undefined) return empty("the log density is not curved downwards in every direction at the mode");
-  const addComponent = (proposal: ImportanceProposal) => {
-    components.push(proposal);
-    componentDraws.push(0);
-    componentLogDensity.push(points.map((x) => proposal.logDensity(x)));
-  };
-  const drawFrom = (j: number, count: number) => {
-    const proposal = components[j];
-    for (let s = 0; s < count; s++) {
-      const x = new Float64Array(d);
-      proposal.draw(rng, x);
-      const logP = target.logPosterior(x);
-      points.push(x);
-      logDensity.push(Number.isNaN(logP) ? -Infinity : logP);
-      components.forEach((c, i) => componentLogDensity[i].push(c.logDensity(x)));
-    }
-    componentDraws[j] = componentDraws[j] + count;
-  };
-  const smooth = (): SmoothedWeights => {
-    const total = points.length;
-    const logShares = componentDraws.map((n) => Math.log(n / total));
-    const logRatios = new Float64Array(total);
-    for (let s = 0; s < total; s++) {
-      let largest = -Infinity;
-      for (let j = 0; j < components.length; j++) largest = Math.max(largest, logShares[j] + componentLogDensity[j][s]);
-      let sum = 0;
-      for (let j = 0; j < components.length; j++) sum += Math.exp(logShares[j] + componentLogDensity[j][s] - largest);
-      logRatios[s] = logDensity[s] - (largest + Math.log(sum));
-    }
-    return paretoSmoothedWeights(logRatios);
-  };
+  const mixture = proposalMixture(target, rng);
+  const { points, componentDraws } = mixture;
+  const drawFrom = mixture.drawFrom;
+  const smooth = mixture.smooth;
   const record = (kind: ImportanceRound["proposal"], draws: number, smoothed: SmoothedWeights) =>
     rounds.push({ proposal: kind, draws, paretoShape: smoothed.paretoShape, effectiveSampleSize: smoothed.effectiveSampleSize });
 
-  addComponent(studentTProposal(mode, covariance.map((c) => inflation * c), nu));
+  mixture.add(studentTProposal(mode, covariance.map((c) => inflation * c), nu));
   const drawUntilEss = (j: number) => {
     // More draws from component j while k-hat is fine and the ESS short: the ESS grows about in
     // proportion to the draws, so ask for 10% more than that predicts.
@@ -176,7 +146,7 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
     // The pilot stays in the mixture as a defensive component (Hesterberg 1995, Technometrics 37, 185):
     // its heavier tails bound the weights wherever the profile proposal is thin.
     drawFrom(0, Math.max(100, Math.round(pilotDraws / 3)));
-    addComponent(ridge);
+    mixture.add(ridge);
     drawFrom(1, Math.max(100, Math.round(options.profileDraws ?? 700)));
     smoothed = drawUntilEss(1);
     record("laplace", componentDraws[0], smoothed);
@@ -190,8 +160,7 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
   for (let refits = 0; refits < maxRefits && !holds(smoothed) && points.length < maxDraws; refits++) {
     const refitted = weightedMomentProposal(points, smoothed.weights, nu);
     if (refitted === undefined) break;
-    addComponent(refitted);
-    const j = components.length - 1;
+    const j = mixture.add(refitted);
     drawFrom(j, Math.min(mainDraws, maxDraws - points.length));
     smoothed = drawUntilEss(j);
     record("weighted-moments", componentDraws[j], smoothed);
@@ -199,7 +168,7 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
   const shapeThreshold = threshold(points.length);
   const result = {
     points,
-    logPosterior: Float64Array.from(logDensity),
+    logPosterior: Float64Array.from(mixture.logPosterior),
     weights: smoothed.weights,
     paretoShape: smoothed.paretoShape,
     shapeThreshold,
@@ -228,26 +197,4 @@ function profileFromCovariance(target: PosteriorTarget, mode: Float64Array, cova
   const conditional = Math.sqrt(covariance[b * 2 + b] - covariance[a * 2 + b] ** 2 / covariance[a * 2 + a]);
   if (!(marginal > 0 && conditional > 0)) return undefined;
   return profileProposal(target, mode, marginal, conditional, options)?.proposal;
-}
-
-/** A Student-t with the weighted mean and covariance of the draws, or undefined when that covariance is singular. */
-function weightedMomentProposal(points: readonly Float64Array[], weights: Float64Array, nu: number): StudentTProposal | undefined {
-  const d = points[0].length;
-  const mean = new Float64Array(d);
-  points.forEach((x, s) => {
-    for (let i = 0; i < d; i++) mean[i] = mean[i] + weights[s] * x[i];
-  });
-  const covariance = new Float64Array(d * d);
-  points.forEach((x, s) => {
-    for (let i = 0; i < d; i++) {
-      for (let j = 0; j <= i; j++) covariance[i * d + j] = covariance[i * d + j] + weights[s] * (x[i] - mean[i]) * (x[j] - mean[j]);
-    }
-  });
-  for (let i = 0; i < d; i++) for (let j = 0; j < i; j++) covariance[j * d + i] = covariance[i * d + j];
-  try {
-    return studentTProposal(mean, covariance, nu);
-  } catch (error) {
-    if (error instanceof RangeError) return undefined;
-    throw error;
-  }
 }

@@ -92,6 +92,8 @@ export {
   type MethodPosteriorOptions,
   type MethodDiagnostics,
 } from "./posterior-by-method.js";
+export { modeMixturePosterior, type ModeMixtureAttempt, type ModeMixturePosteriorOptions } from "./mode-mixture-posterior.js";
+export { modeMixtureSample, type ModeMixtureOptions, type ModeMixtureSample } from "./mode-mixture-sampling.js";
 export { importanceSample, type ImportanceSample, type ImportanceSamplingOptions, type ImportanceRound } from "./importance-sampling.js";
 export { paretoSmoothedWeights, paretoShapeThreshold, type SmoothedWeights } from "./pareto-smoothed-weights.js";
 export { fitGeneralizedPareto, generalizedParetoQuantile } from "./generalized-pareto-fit.js";

@@ -146,11 +146,21 @@ export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLik
       },
     };
   }
-  const importanceFigures = {
-    paretoK: importance.paretoShape,
-    paretoKThreshold: importance.shapeThreshold,
-    importanceDraws: importance.points.length,
-  };
+  return importancePosterior(space, maximum, importance, spent, (clock() - startTime) / 1000, seed);
+}
+
+/**
+ * An accepted importance sample as a {@link MethodPosterior}: the draws resampled systematically by their
+ * smoothed weights (child seed 5 of `seed`), the diagnostics of the weights, and `evaluations` charged.
+ */
+export function importancePosterior(
+  space: ParameterSpace,
+  maximum: Readonly<Record<string, number>>,
+  importance: ImportanceSample,
+  evaluations: number,
+  seconds: number,
+  seed: string | number,
+): MethodPosterior {
   const picks = systematicResample(importance.weights, importance.points.length, createRng(childSeed(seed, 5)));
   return {
     method: "importance",
@@ -165,12 +175,14 @@ export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLik
       essMin: importance.effectiveSampleSize,
       autocorrelationTime: null,
       acceptance: null,
-      likelihoodEvaluations: spent,
-      seconds: (clock() - startTime) / 1000,
+      likelihoodEvaluations: evaluations,
+      seconds,
       keptDraws: picks.length,
       method: "importance",
       stopReason: "converged",
-      ...importanceFigures,
+      paretoK: importance.paretoShape,
+      paretoKThreshold: importance.shapeThreshold,
+      importanceDraws: importance.points.length,
     },
   };
 }

@@ -57,11 +57,12 @@ export function fitLightCurve(lightCurve: LightCurve, options: FitOptions): FitR
  * 3. robust noise (`fit-robust-stage.ts`): with `robust`, Student-t weights folded into the errors;
  * 4. modes (`fit-mode-plan.ts`): the period modes at P, P/2 and 2P weighted by their Laplace evidence;
  *    every mode with more than 1% of the probability gets a sampler start;
- * 5. sampling (`fit-sampling.ts`): the posterior from each start by Pareto-smoothed importance
- *    sampling, or by MCMC until converged or out of budget when its diagnostics fail (or a sampler is
- *    asked for); except with NUTS the constant mean is integrated out (`collapseMean`), which removes
- *    the funnel between timescale and mean;
- * 6. pooling (`fit-pooling.ts`): the runs' draws in proportion to their modes' probabilities, so a
+ * 5. sampling (`fit-sampling.ts`): the posterior by Pareto-smoothed importance sampling (for a
+ *    periodic model one sample from a mixture with a component at every mode found, whose weights
+ *    share the draws among the modes), or, when its diagnostics fail (or a sampler is asked for), by
+ *    MCMC from each start until converged or out of budget; except with NUTS the constant mean is
+ *    integrated out (`collapseMean`), which removes the funnel between timescale and mean;
+ * 6. pooling (`fit-pooling.ts`): MCMC runs' draws in proportion to their modes' probabilities, so a
  *    multimodal posterior is reported as such;
  * 7. mean restoration (`fit-mean-restoration.ts`): the mean drawn back from its conditional posterior;
  * 8. summaries (`fit-summaries.ts`): parameters and derived quantities, and the modes the pooled draws
@@ -92,9 +93,9 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   const likelihood = modelLikelihood(model, conditioning);
   const plan = planModes(model, likelihood, periodGuess, conditioning.time);
   timer.lap("modes");
-  const { runs, collapsed } = sampleStarts(model, conditioning, likelihood, plan, options, clock);
+  const { runs, weights, collapsed } = sampleStarts(model, conditioning, likelihood, plan, options, clock);
   timer.lap("sampling");
-  const pooled = pooledDraws(runs.map((run) => run.draws), plan.weights);
+  const pooled = pooledDraws(runs.map((run) => run.draws), weights);
   const kept = thinnedDraws(pooled, summaryDrawLimit(summary.n));
   timer.lap("pooling");
   const { draws, maximumPosterior } = restoredPosterior(model, collapsed, kept, runs[0].maximum, options.seed);

@@ -22,10 +22,10 @@ export interface FitOptions {
   /** Student-t noise with per-point outlier probabilities instead of Gaussian noise (needs an error column). */
   readonly robust?: boolean;
   /**
-   * "auto" (the default unless `sampler` is given): "importance" for models without a period (the damped
-   * random walk), "mcmc" for periodic ones (fitMethod in fit-sampling.ts says why). "importance":
-   * Pareto-smoothed importance sampling from a proposal fitted at the mode, with MCMC when its
-   * diagnostics fail. "mcmc": the MCMC sampler only (the default when `sampler` is given).
+   * "auto" (the default unless `sampler` is given) and "importance": Pareto-smoothed importance sampling
+   * from a proposal fitted at the mode (for periodic models, a mixture with a component at every period
+   * mode found; fitMethod in fit-sampling.ts), with MCMC when its diagnostics fail. "mcmc": the MCMC
+   * sampler only (the default when `sampler` is given).
    */
   readonly method?: "auto" | "importance" | "mcmc";
   /** Settings of the importance sampler (draws, proposals, thresholds); the defaults suit most fits. */

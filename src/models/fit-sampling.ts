@@ -1,4 +1,4 @@
-import { DEFAULT_SAMPLER, posteriorByMethod, type MethodPosterior, type PhysicalLikelihood } from "../inference/index.js";
+import { DEFAULT_SAMPLER, modeMixturePosterior, posteriorByMethod, type MethodPosterior, type ModeMixtureAttempt, type PhysicalLikelihood } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { childSeed } from "../random/rng.js";
 import type { FitOptions } from "./fit-options.js";
@@ -9,6 +9,8 @@ import { collapseMean, type CollapsedMeanModel } from "./mean-marginal.js";
 /** The posterior of each start of the {@link ModePlan}, by whichever method computed it. */
 export interface SamplingOutcome {
   readonly runs: readonly MethodPosterior[];
+  /** Share of the pooled draws each run contributes (sums to 1). */
+  readonly weights: readonly number[];
   /** The model with its mean integrated out, when the runs sampled it so (draws lack the mean). */
   readonly collapsed?: CollapsedMeanModel;
 }
@@ -17,11 +19,15 @@ export interface SamplingOutcome {
 export const DEFAULT_FIT_BUDGET = 2e6;
 
 /**
- * The sampling stage of a fit: the posterior from each start of the plan by {@link posteriorByMethod}
- * (Pareto-smoothed importance sampling, with the MCMC sampler when its diagnostics fail; MCMC only when
- * `sampler` or `method: "mcmc"` is given), the budget shared equally. Importance sampling and the
- * ensemble work with the mean integrated out (mean-marginal.ts); NUTS, which needs a gradient, samples
- * the mean with the rest. One start keeps the fit's seed; several get child seeds 100, 101, ...
+ * The sampling stage of a fit. By default (importance sampling, {@link fitMethod}) a periodic model whose
+ * modes were found gets one importance sample from a mixture with a component at every mode of the plan
+ * ({@link modeMixturePosterior}: P, P/2, 2P and the daily aliases, the weights sharing the draws among
+ * them by posterior mass); any other model gets it from its mode ({@link posteriorByMethod}). When the
+ * diagnostics (k-hat, ESS) fail, or with `sampler` or `method: "mcmc"`, the MCMC sampler runs from each
+ * start of the plan, the budget (less what importance sampling spent) shared equally, and the runs are
+ * pooled by the plan's weights. Importance sampling and the ensemble work with the mean integrated out
+ * (mean-marginal.ts); NUTS, which needs a gradient, samples the mean with the rest. One start keeps
+ * the fit's seed; several get child seeds 100, 101, ...
  */
 export function sampleStarts(
   model: LightCurveModel,
@@ -34,35 +40,68 @@ export function sampleStarts(
   const budget = options.maxEvaluations ?? DEFAULT_FIT_BUDGET;
   const collapsed = (options.sampler ?? DEFAULT_SAMPLER) === "ensemble" ? collapseMean(model, conditioning) : undefined;
   const space = collapsed?.space ?? model.space;
+  const sampledLikelihood = collapsed?.likelihood ?? likelihood;
   const sampledOnly = (record: Readonly<Record<string, number>>): Record<string, number> =>
     Object.fromEntries(Object.entries(record).filter(([name]) => space.names.includes(name)));
+  const method = fitMethod(model, options, true);
+  let attempt: ModeMixtureAttempt | undefined;
+  if (method === "importance" && plan.modes.length > 0) {
+    attempt = modeMixturePosterior(space, sampledLikelihood, {
+      seed: options.seed,
+      starts: plan.modes.map((m) => sampledOnly(m.parameters)),
+      maxEvaluations: budget,
+      ...(options.importance ? { importance: options.importance } : {}),
+      clock,
+    });
+    if (attempt.posterior) return { runs: [attempt.posterior], weights: [1], ...(collapsed ? { collapsed } : {}) };
+  }
+  const spent = attempt?.evaluations ?? 0;
   const runs = plan.starts.map((initial, k) =>
-    posteriorByMethod(space, collapsed?.likelihood ?? likelihood, {
+    posteriorByMethod(space, sampledLikelihood, {
       seed: plan.starts.length === 1 ? options.seed : childSeed(options.seed, 100 + k),
       initial: sampledOnly(initial),
       starts: plan.startsAtModes ? 1 : 6,
-      maxEvaluations: budget / plan.starts.length,
+      maxEvaluations: (budget - spent) / plan.starts.length,
       ...(options.sampler ? { sampler: options.sampler } : {}),
-      method: fitMethod(model, options),
+      method: attempt ? "mcmc" : method,
       ...(options.importance ? { importance: options.importance } : {}),
       ...(options.onProgress ? { onProgress: options.onProgress } : {}),
       ...(options.signal ? { signal: options.signal } : {}),
       clock,
     }),
   );
-  return { runs, ...(collapsed ? { collapsed } : {}) };
+  return { runs: attempt ? withFallback(runs, attempt) : runs, weights: plan.weights, ...(collapsed ? { collapsed } : {}) };
+}
+
+/** The MCMC runs after a failed mode-mixture attempt: the first charged with its evaluations, each saying why it ran. */
+function withFallback(runs: readonly MethodPosterior[], attempt: ModeMixtureAttempt): MethodPosterior[] {
+  const figures = {
+    paretoK: attempt.sample.paretoShape,
+    paretoKThreshold: attempt.sample.shapeThreshold,
+    importanceDraws: attempt.sample.points.length,
+    importanceFallback: attempt.reason ?? "importance sampling failed",
+  };
+  return runs.map((run, k) => ({
+    ...run,
+    diagnostics: {
+      ...run.diagnostics,
+      ...figures,
+      likelihoodEvaluations: run.diagnostics.likelihoodEvaluations + (k === 0 ? attempt.evaluations : 0),
+    },
+  }));
 }
 
 /**
- * Whether a fit tries importance sampling first. `method: "auto"` (the default) does for models without
- * a period (the damped random walk) and not for periodic ones: a period posterior can have modes the
- * mode search did not find (aliases, and broad modes of a short coherence time), and a proposal centred
- * on one mode never draws from another, which k-hat cannot see; the walkers of the ensemble can cross
- * to it. `method: "importance"` tries it for any model (bench/samplers-rotation-times.ts measures it on
- * quasi-periodic fits); `method: "mcmc"`, or giving `sampler`, runs MCMC only.
+ * Whether a fit tries importance sampling first. `method: "importance"` does for any model, and
+ * `method: "auto"` (the default) for models without a period and, when the caller draws from a mixture
+ * with a component at each period mode the mode search found (`modeMixture`: {@link sampleStarts} does,
+ * P, P/2, 2P and the daily aliases of three periodogram peaks; fit-mode-plan.ts), for periodic ones too.
+ * A proposal centred on one period mode never draws from another, and k-hat cannot see what no
+ * component is near, so a caller without the mixture keeps MCMC for periodic models under "auto".
+ * `method: "mcmc"`, or giving `sampler`, runs MCMC only.
  */
-export function fitMethod(model: Pick<LightCurveModel, "space">, options: FitOptions): "importance" | "mcmc" {
+export function fitMethod(model: Pick<LightCurveModel, "space">, options: FitOptions, modeMixture = false): "importance" | "mcmc" {
   const asked = options.method ?? (options.sampler !== undefined ? "mcmc" : "auto");
-  if (asked === "auto") return model.space.names.includes("period") ? "mcmc" : "importance";
-  return asked;
+  if (asked !== "auto") return asked;
+  return modeMixture || !model.space.names.includes("period") ? "importance" : "mcmc";
 }
