@@ -13,7 +13,7 @@
  * fit resolves by its search over P, P/2 and 2P (models/period-modes.ts), not the sampler.
  *
  * "fit" (the default) calibrates the path of a quasi-periodic fit (models/fit-light-curve.ts) with the
- * calibration priors: the period modes at P, P/2 and 2P of the periodogram's peak (fit-mode-plan.ts),
+ * calibration priors: the period modes at P, P/2 and 2P of the periodogram's three highest peaks (fit-mode-plan.ts),
  * the mean integrated out, the posterior by the fit's default method (importance sampling from a
  * mixture with a component per mode, MCMC when its diagnostics fail; fit-sampling.ts), the mean drawn
  * back. "nuts" and "ensemble" run that sampler from the periodogram's peak on the full space.
@@ -30,6 +30,7 @@ import type { LightCurve } from "../src/lightcurve/light-curve.js";
 import { summarizeLightCurve } from "../src/models/data-summary.js";
 import { restoredPosterior } from "../src/models/fit-mean-restoration.js";
 import { planModes } from "../src/models/fit-mode-plan.js";
+import { SEARCHED_PEAKS } from "../src/models/fit-period-search.js";
 import { pooledDraws } from "../src/models/fit-pooling.js";
 import { sampleStarts } from "../src/models/fit-sampling.js";
 import { buildModel, modelLikelihood } from "../src/models/light-curve-model.js";
@@ -75,8 +76,8 @@ for (let r = 0; r < replicates; r++) {
   const latent = new GaussianProcess(kernel, time, { mean: mean! }).priorDraw(rng);
   const error = Float64Array.from(time, () => errorLevel);
   const value = Float64Array.from(latent, (v, i) => v + error[i] * rng.normal());
-  const peak = computePeriodogram({ time, value, error }, { minimumFrequency: 1 / 15, maximumFrequency: 1 / 2, peaks: 1 }).peaks[0];
-  const guess = peak?.period ?? 5;
+  const peaks = computePeriodogram({ time, value, error }, { minimumFrequency: 1 / 15, maximumFrequency: 1 / 2, peaks: SEARCHED_PEAKS }).peaks.map((p) => p.period);
+  const guess = peaks[0] ?? 5;
   const initial = { period: guess, decayTime: Math.min(3 * guess, 140), harmonicWeight: 0.25, sigma: 0.02, mean: 1 };
   const replicateSeed = childSeed(seed, 100000 + r);
   let draws: PosteriorDraws;
@@ -84,7 +85,7 @@ for (let r = 0; r < replicates; r++) {
   let stopReason: string;
   if (sampler === "fit") {
     const lightCurve: LightCurve = { time, value, error, unit: "flux", provenance: { source: `replicate ${r}`, timeColumn: "t", valueColumn: "f", errorColumn: "e", dropped: 0, sorted: false } };
-    const fit = fitPathDraws(lightCurve, guess, initial, replicateSeed);
+    const fit = fitPathDraws(lightCurve, guess, peaks.slice(1), initial, replicateSeed);
     ({ draws, converged: fitConverged, stopReason } = fit);
     methods[fit.method] = (methods[fit.method] ?? 0) + 1;
   } else {
@@ -123,13 +124,13 @@ function report(done: number, print: (line: string) => void): boolean {
  * model's parameter order (sigma, period, decayTime, harmonicWeight, mean), and the calibration's first
  * guess (inside those priors) for the mode search.
  */
-function fitPathDraws(lightCurve: LightCurve, guess: number, initial: Readonly<Record<string, number>>, fitSeed: string) {
+function fitPathDraws(lightCurve: LightCurve, guess: number, otherPeaks: readonly number[], initial: Readonly<Record<string, number>>, fitSeed: string) {
   const built = buildModel("quasi-periodic", summarizeLightCurve(lightCurve), { periodGuess: guess, periodRange: { shortest: 2, longest: 15 } });
   const byName = new Map(space.free.map((p) => [p.name, p.prior]));
   const fitSpace = createParameterSpace(built.space.names.map((name) => ({ name, prior: byName.get(name)! })));
   const model = { ...built, space: fitSpace, initialGuess: initial };
   const likelihood = modelLikelihood(model, lightCurve);
-  const plan = planModes(model, likelihood, guess, lightCurve.time);
+  const plan = planModes(model, likelihood, guess, lightCurve.time, otherPeaks);
   const clock = () => performance.now();
   const { runs, weights, collapsed } = sampleStarts(model, lightCurve, likelihood, plan, { model: "quasi-periodic", seed: fitSeed, maxEvaluations: 2e6 }, clock);
   const pooled = pooledDraws(runs.map((run) => run.draws), weights);

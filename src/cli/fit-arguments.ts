@@ -50,9 +50,10 @@ export const FIT_HELP = `  --model NAME            ${FAMILY_MODEL_HELP},
   --jitter                fit a white-noise term even when there is an error column
   --robust                Student-t noise: down-weights outliers and reports each point's outlier
                           probability (needs an error column)
-  --method auto|importance|mcmc  importance: importance sampling from a proposal fitted at the
-                          mode, MCMC when its diagnostics (k-hat, ESS) fail; mcmc: MCMC only; auto
-                          (default without --sampler): importance for drw, mcmc for periodic models
+  --method auto|importance|mcmc  importance (= auto, the default without --sampler): importance
+                          sampling from a proposal fitted at the mode (periodic models: one
+                          component per period mode), MCMC when its diagnostics (k-hat, ESS) fail;
+                          mcmc: MCMC only
   --sampler nuts|ensemble the MCMC sampler (default ${DEFAULT_SAMPLER}, the cheaper per effective draw
                           on these models); giving it implies --method mcmc
   --max-evaluations N     budget in log-likelihood evaluations, a positive integer (default 2e6);

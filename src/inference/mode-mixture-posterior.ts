@@ -4,7 +4,7 @@ import { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
 import { findMaximumPosterior } from "./maximum-posterior.js";
 import { modeMixtureSample, type ModeMixtureOptions, type ModeMixtureSample } from "./mode-mixture-sampling.js";
 import type { ParameterSpace } from "./parameter-space.js";
-import { importancePosterior, type MethodPosterior } from "./posterior-by-method.js";
+import { importancePosterior, MINIMUM_IMPORTANCE_BUDGET, type MethodPosterior } from "./posterior-by-method.js";
 import { unconstrainedPosterior, type PhysicalLikelihood } from "./unconstrained-posterior.js";
 
 /** Options of {@link modeMixturePosterior}. */
@@ -55,10 +55,12 @@ export function modeMixturePosterior(space: ParameterSpace, likelihood: Physical
     .map((m) => m.x);
   const best = found.reduce((a, b) => (b.logPosterior > a.logPosterior ? b : a));
   const remaining = (options.maxEvaluations ?? 2e6) - spent();
-  const sample = modeMixtureSample(target, modes, createRng(childSeed(options.seed, 4)), {
-    ...options.importance,
-    maxDraws: Math.max(0, Math.min(options.importance?.maxDraws ?? 8000, remaining)),
-  });
+  const rng = createRng(childSeed(options.seed, 4));
+  // Too little budget left for a useful importance sample: no draws, and the caller's sampler stops on the budget.
+  const sample =
+    remaining >= MINIMUM_IMPORTANCE_BUDGET
+      ? modeMixtureSample(target, modes, rng, { ...options.importance, maxDraws: Math.min(options.importance?.maxDraws ?? 8000, remaining) })
+      : { ...modeMixtureSample(target, [], rng), reason: `${Math.round(remaining)} evaluations left after the optimisation, too few to try importance sampling` };
   const evaluations = spent();
   if (!sample.accepted) return { sample, evaluations, reason: sample.reason ?? "importance sampling failed" };
   const maximum = space.recordFromPhysical(space.toPhysical(best.x));

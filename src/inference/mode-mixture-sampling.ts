@@ -1,5 +1,5 @@
 import type { Rng } from "../random/rng.js";
-import { importanceSample, type ImportanceRound, type ImportanceSample, type ImportanceSamplingOptions } from "./importance-sampling.js";
+import { importanceSample, refitInflation, type ImportanceRound, type ImportanceSample, type ImportanceSamplingOptions } from "./importance-sampling.js";
 import { modeCovariance } from "./mode-covariance.js";
 import { paretoShapeThreshold, type SmoothedWeights } from "./pareto-smoothed-weights.js";
 import type { PosteriorTarget } from "./posterior-target.js";
@@ -8,7 +8,7 @@ import { studentTProposal } from "./student-t-proposal.js";
 
 /** Options of {@link modeMixtureSample} (the names and defaults of {@link ImportanceSamplingOptions} where they share a meaning). */
 export interface ModeMixtureOptions
-  extends Pick<ImportanceSamplingOptions, "maxDraws" | "minimumEss" | "degreesOfFreedom" | "pilotInflation" | "shapeThreshold"> {
+  extends Pick<ImportanceSamplingOptions, "maxDraws" | "minimumEss" | "degreesOfFreedom" | "pilotInflation" | "shapeThreshold" | "refitInflation"> {
   /** Draws from each mode's Laplace component, the pilot round (default max(200, 50 d) in d dimensions). */
   readonly pilotDraws?: number;
   /** Draws from the refitted components of one round, shared by the modes in proportion to their mass (default max(400, 150 d)). */
@@ -45,8 +45,8 @@ export interface ModeMixtureSample extends ImportanceSample {
  *    ({@link proposalMixture}); the mass of mode k is sum_s w_s r_sk with r_sk the responsibility of
  *    mode k's components for draw s;
  * 4. while k-hat exceeds its threshold (or the ESS its minimum), a round of refitted components: for each
- *    mode with at least `minimumModeShare` of the mass, a t with the weighted moments of the draws it is
- *    responsible for (w_s r_sk; adaptive mixture importance sampling, Cappe et al. 2008, Stat. Comput.
+ *    mode with at least `minimumModeShare` of the mass, a t with the weighted mean and (times
+ *    `refitInflation`) covariance of the draws it is responsible for (w_s r_sk; adaptive mixture importance sampling, Cappe et al. 2008, Stat. Comput.
  *    18, 447, from memory), `draws` shared among the modes by mass; then, while k-hat holds and only the
  *    ESS is short, more draws from each mode's latest component in the same proportion.
  * The weights then measure how the posterior mass splits among the modes, which no Laplace evidence
@@ -140,7 +140,7 @@ export function modeMixtureSample(target: PosteriorTarget, modes: readonly Float
     const added: number[] = [];
     members.forEach((group, k) => {
       if (masses[k] < minimumShare) return;
-      const proposal = weightedMomentProposal(points, smoothed.weights, nu, mixture.responsibility(group));
+      const proposal = weightedMomentProposal(points, smoothed.weights, nu, mixture.responsibility(group), refitInflation(d, options));
       if (proposal === undefined) return;
       const j = mixture.add(proposal);
       group.push(j);

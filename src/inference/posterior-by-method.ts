@@ -23,7 +23,7 @@ export type PosteriorMethod = "importance" | SamplerKind;
 export const IMPORTANCE_MAX_DIMENSION = 6;
 
 /** Importance sampling is not tried with fewer evaluations than this left after the optimisation (an ESS of 400 needs more draws). */
-const MINIMUM_IMPORTANCE_BUDGET = 600;
+export const MINIMUM_IMPORTANCE_BUDGET = 600;
 
 /** Options of {@link posteriorByMethod}. */
 export interface MethodPosteriorOptions extends Omit<PosteriorSamplingOptions, "maximum"> {

@@ -97,10 +97,17 @@ export function proposalMixture(target: PosteriorTarget, rng: Rng): ProposalMixt
 }
 
 /**
- * A Student-t with the weighted mean and covariance of the draws (weights `weights[s] * factor[s]`,
- * renormalised; `factor` defaults to 1), or undefined when the weights vanish or that covariance is singular.
+ * A Student-t with the weighted mean and `inflation` times the weighted covariance of the draws (weights
+ * `weights[s] * factor[s]`, renormalised; `factor` defaults to 1), or undefined when the weights vanish or
+ * that covariance is singular.
  */
-export function weightedMomentProposal(points: readonly Float64Array[], weights: ArrayLike<number>, nu: number, factor?: ArrayLike<number>): StudentTProposal | undefined {
+export function weightedMomentProposal(
+  points: readonly Float64Array[],
+  weights: ArrayLike<number>,
+  nu: number,
+  factor?: ArrayLike<number>,
+  inflation = 1,
+): StudentTProposal | undefined {
   const d = points[0].length;
   const w = Float64Array.from(weights, (v, s) => v * (factor ? factor[s] : 1));
   let sum = 0;
@@ -120,7 +127,7 @@ export function weightedMomentProposal(points: readonly Float64Array[], weights:
   });
   for (let i = 0; i < d; i++) for (let j = 0; j < i; j++) covariance[j * d + i] = covariance[i * d + j];
   try {
-    return studentTProposal(mean, covariance, nu);
+    return studentTProposal(mean, inflation === 1 ? covariance : covariance.map((c) => inflation * c), nu);
   } catch (error) {
     if (error instanceof RangeError) return undefined;
     throw error;

@@ -6,7 +6,7 @@ import { combinedDiagnostics, requireKeptDraws } from "./fit-diagnostics.js";
 import { restoredPosterior } from "./fit-mean-restoration.js";
 import { planModes } from "./fit-mode-plan.js";
 import type { FitOptions } from "./fit-options.js";
-import { periodogramPeriod } from "./fit-period-search.js";
+import { periodogramPeaks } from "./fit-period-search.js";
 import { pooledDraws, summaryDrawLimit, thinnedDraws } from "./fit-pooling.js";
 import { assembleFitResult } from "./fit-result-assembly.js";
 import type { FitResult } from "./fit-result.js";
@@ -51,12 +51,13 @@ export function fitLightCurve(lightCurve: LightCurve, options: FitOptions): FitR
  *    values, fewer points than parameters) end in an InputError; the period range (`period-range.ts`)
  *    from the cadence, or the user's limits;
  * 1. periodogram (`fit-period-search.ts`): for periodic models, the highest generalised Lomb-Scargle
- *    peak (Zechmeister & Kurster 2009) in the period range as the first guess of the period (with
- *    `robust`, gross outliers down-weighted by their residuals about a running median, `periodSearchCurve`);
+ *    peak (Zechmeister & Kurster 2009) in the period range as the first guess of the period, and the
+ *    next two highest as further starts of the mode search (with `robust`, gross outliers down-weighted
+ *    by their residuals about a running median, `periodSearchCurve`);
  * 2. model (`buildModel`): priors from the data's own scales;
  * 3. robust noise (`fit-robust-stage.ts`): with `robust`, Student-t weights folded into the errors;
- * 4. modes (`fit-mode-plan.ts`): the period modes at P, P/2 and 2P weighted by their Laplace evidence;
- *    every mode with more than 1% of the probability gets a sampler start;
+ * 4. modes (`fit-mode-plan.ts`): the period modes at P, P/2 and 2P of each of those peaks, weighted by
+ *    their Laplace evidence; every mode with more than 1% of the probability gets a sampler start;
  * 5. sampling (`fit-sampling.ts`): the posterior by Pareto-smoothed importance sampling (for a
  *    periodic model one sample from a mixture with a component at every mode found, whose weights
  *    share the draws among the modes), or, when its diagnostics fail (or a sampler is asked for), by
@@ -78,7 +79,8 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   requireVariableData(lightCurve, summary, options.model);
   const range = modelPeriodRange(options.model, summary, options, lightCurve.provenance.source);
   timer.lap("data summary");
-  const periodGuess = range ? periodogramPeriod(periodSearchCurve(lightCurve, options.robust === true), range) : undefined;
+  const peaks = range ? periodogramPeaks(periodSearchCurve(lightCurve, options.robust === true), range) : [];
+  const periodGuess = peaks[0];
   timer.lap("periodogram");
   const model = buildModel(options.model, summary, {
     ...(options.background ? { background: options.background } : {}),
@@ -91,7 +93,7 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
   const { conditioning, robust } = noiseConditioning(model, lightCurve, options.robust === true);
   timer.lap("robust noise");
   const likelihood = modelLikelihood(model, conditioning);
-  const plan = planModes(model, likelihood, periodGuess, conditioning.time);
+  const plan = planModes(model, likelihood, periodGuess, conditioning.time, peaks.slice(1));
   timer.lap("modes");
   const { runs, weights, collapsed } = sampleStarts(model, conditioning, likelihood, plan, options, clock);
   timer.lap("sampling");

@@ -20,7 +20,8 @@ export interface ModePlan {
 /**
  * The modes stage of a fit: for a periodic model with a period guess, the period modes at P, P/2 and 2P
  * (and the daily aliases 1 / |1/P +- 1 per day| when the sampling has a one-day window,
- * {@link hasDailyWindow}) weighted by their Laplace evidence ({@link findPeriodModes}); every mode with at least
+ * {@link hasDailyWindow}) of the guess and of each of `otherPeaks` (further periodogram peaks), weighted
+ * by their Laplace evidence ({@link findPeriodModes}); every mode with at least
  * {@link MODE_THRESHOLD} of the probability is sampled, with a share of the pooled draws proportional
  * to its probability. Otherwise one start at the model's first guess.
  */
@@ -29,9 +30,10 @@ export function planModes(
   likelihood: PhysicalLikelihood,
   periodGuess: number | undefined,
   time: ArrayLike<number>,
+  otherPeaks: readonly number[] = [],
 ): ModePlan {
   const modes = periodGuess !== undefined && model.initialGuess.period !== undefined
-    ? findPeriodModes(model, likelihood, model.initialGuess.period, hasDailyWindow(time) ? [1] : [])
+    ? findPeriodModes(model, likelihood, model.initialGuess.period, hasDailyWindow(time) ? [1] : [], otherPeaks)
     : [];
   const sampled = modes.filter((m) => m.probability >= MODE_THRESHOLD);
   if (sampled.length === 0) return { modes, starts: [model.initialGuess], weights: [1], startsAtModes: false };

@@ -18,21 +18,32 @@ export interface PeriodMode {
  * 2P (a spotted star with two spot groups shows half its period; common practice) and, for each
  * frequency f_a of `aliasFrequencies` (1 per day for ground data observed nightly), the aliases
  * 1 / |1/P +- f_a| that the sampling's window puts beside the true peak (VanderPlas 2018, ApJS 236, 16,
- * sect. 6); by maximising from each, merging maxima within 2% in period, and weighting each by its
- * Laplace evidence. Returns the modes most probable first.
+ * sect. 6); the same for each period of `otherPeaks` (further periodogram peaks, which a trend or an
+ * alias can put below the true period's); by maximising from each, merging maxima within 2% in period,
+ * and weighting each by its Laplace evidence. Returns the modes most probable first.
  */
 export function findPeriodModes(
   model: LightCurveModel,
   likelihood: PhysicalLikelihood,
   periodGuess: number,
   aliasFrequencies: readonly number[] = [],
+  otherPeaks: readonly number[] = [],
 ): PeriodMode[] {
   const space = model.space;
   const target = unconstrainedPosterior(space, likelihood, { jacobian: true });
   const periodIndex = space.names.indexOf("period");
   const prior = space.free.find((p) => p.name === "period")!.prior;
-  const aliases = aliasFrequencies.flatMap((f) => [1 / Math.abs(1 / periodGuess + f), 1 / Math.abs(1 / periodGuess - f)]);
-  const candidates = [periodGuess, periodGuess / 2, periodGuess * 2, ...aliases].filter((p) => Number.isFinite(p) && p > prior.lower && p < prior.upper);
+  const aroundPeak = (peak: number) => [
+    peak,
+    peak / 2,
+    peak * 2,
+    ...aliasFrequencies.flatMap((f) => [1 / Math.abs(1 / peak + f), 1 / Math.abs(1 / peak - f)]),
+  ];
+  const candidates: number[] = [];
+  for (const p of [periodGuess, ...otherPeaks].flatMap(aroundPeak)) {
+    // A candidate within 2% of one already listed would only find the same maximum again.
+    if (Number.isFinite(p) && p > prior.lower && p < prior.upper && !candidates.some((c) => Math.abs(p / c - 1) < 0.02)) candidates.push(p);
+  }
   const found: { period: number; logPosterior: number; logEvidence: number; x: Float64Array }[] = [];
   for (const period of candidates) {
     const start = space.toUnconstrained(space.physicalFromRecord({ ...model.initialGuess, period }));
