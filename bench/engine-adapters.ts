@@ -1,9 +1,8 @@
 import { summarizeLightCurve } from "../src/models/data-summary.js";
 import { buildModel, modelLikelihood, type ModelName } from "../src/models/light-curve-model.js";
-import type { LightCurve } from "../src/lightcurve/light-curve.js";
 import { timePair } from "./engine-companions.js";
 import type { TimingSettings } from "./engine-likelihood.js";
-import { dampedRandomWalkFit, quasiPeriodicFit, type SimulatedFit } from "./samplers-gp-models.js";
+import { adapterCases } from "./samplers-gp-models.js";
 
 /** The gradient's cost through the model adapters that NUTS and L-BFGS use (src/models). */
 export interface AdapterRow {
@@ -23,18 +22,7 @@ export interface AdapterRow {
  * takes (the light curve's inputs checked once, `withKernel` per call, the tape reused).
  */
 export function measureAdapters(settings: TimingSettings): AdapterRow[] {
-  const cases: Array<[SimulatedFit, ModelName]> = [
-    [dampedRandomWalkFit(250), "drw"],
-    [quasiPeriodicFit(1000), "quasi-periodic"],
-  ];
-  return cases.map(([fit, name]) => {
-    const lightCurve: LightCurve = {
-      time: fit.time,
-      value: fit.value,
-      error: fit.error,
-      unit: "mag",
-      provenance: { source: "simulated", timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: false },
-    };
+  return adapterCases().map(({ fit, model: name, lightCurve }) => {
     const model = buildModel(name, summarizeLightCurve(lightCurve));
     const likelihood = modelLikelihood(model, lightCurve);
     const x = model.space.physicalFromRecord(model.initialGuess);

@@ -11,6 +11,8 @@ import { createParameterSpace, type ParameterSpace } from "../src/inference/para
 import type { PhysicalLikelihood } from "../src/inference/unconstrained-posterior.js";
 import { logUniformPrior, normalPrior, uniformPrior } from "../src/inference/priors.js";
 import { createRng, type Rng } from "../src/random/rng.js";
+import type { LightCurve } from "../src/lightcurve/light-curve.js";
+import type { ModelName } from "../src/models/light-curve-model.js";
 
 /** A model, its data and the parameter values the data were drawn from. */
 export interface SimulatedFit {
@@ -156,4 +158,34 @@ export function quasiPeriodicFit(n = 1000, seed = 2025, intervalDays = 1 / 24): 
     truth,
     initial: { period: 6, decayTime: 10, harmonicWeight: 0.5, sigma: 0.01, mean: 1 },
   };
+}
+
+/** One case of the adapter measurements: a simulated fit, its data as a light curve, and the model of src/models that fits it. */
+export interface AdapterCase {
+  readonly fit: SimulatedFit;
+  readonly model: ModelName;
+  readonly lightCurve: LightCurve;
+}
+
+/**
+ * The cases on which the models' likelihood adapters are timed (bench/engine-adapters.ts,
+ * bench/samplers-gradient-cost.ts): the damped random walk of 250 points and the quasi-periodic light
+ * curve of 1000 points, as light curves in magnitudes.
+ */
+export function adapterCases(): AdapterCase[] {
+  const cases: Array<[SimulatedFit, ModelName]> = [
+    [dampedRandomWalkFit(250), "drw"],
+    [quasiPeriodicFit(1000), "quasi-periodic"],
+  ];
+  return cases.map(([fit, model]) => ({
+    fit,
+    model,
+    lightCurve: {
+      time: fit.time,
+      value: fit.value,
+      error: fit.error,
+      unit: "mag",
+      provenance: { source: "simulated", timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: false },
+    },
+  }));
 }

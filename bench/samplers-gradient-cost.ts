@@ -16,11 +16,10 @@
  */
 import { loadavg } from "node:os";
 import type { PhysicalLikelihood } from "../src/inference/unconstrained-posterior.js";
-import type { LightCurve } from "../src/lightcurve/light-curve.js";
 import { summarizeLightCurve } from "../src/models/data-summary.js";
-import { buildModel, modelLikelihood, type ModelName } from "../src/models/light-curve-model.js";
+import { buildModel, modelLikelihood } from "../src/models/light-curve-model.js";
 import { collapseMean } from "../src/models/mean-marginal.js";
-import { dampedRandomWalkFit, quasiPeriodicFit, type SimulatedFit } from "./samplers-gp-models.js";
+import { adapterCases } from "./samplers-gp-models.js";
 
 function median(values: number[]): number {
   const s = values.slice().sort((a, b) => a - b);
@@ -63,18 +62,7 @@ const blocks = Number(process.argv[2] ?? 40);
 console.log(`load average at start: ${loadavg().map((v) => v.toFixed(2)).join(" ")}`);
 console.log("| model | adapter | value (CPU ms) | value + gradient (CPU ms) | gradient cost (value evaluations) |");
 console.log("| --- | --- | --- | --- | --- |");
-const cases: Array<[SimulatedFit, ModelName]> = [
-  [dampedRandomWalkFit(250), "drw"],
-  [quasiPeriodicFit(1000), "quasi-periodic"],
-];
-for (const [fit, name] of cases) {
-  const lightCurve: LightCurve = {
-    time: fit.time,
-    value: fit.value,
-    error: fit.error,
-    unit: "mag",
-    provenance: { source: "simulated", timeColumn: "time", valueColumn: "mag", errorColumn: "mag_err", dropped: 0, sorted: false },
-  };
+for (const { fit, model: name, lightCurve } of adapterCases()) {
   const model = buildModel(name, summarizeLightCurve(lightCurve));
   const collapsed = collapseMean(model, lightCurve)!;
   const truth = fit.space.physicalFromRecord(fit.truth);
