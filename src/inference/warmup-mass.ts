@@ -1,6 +1,6 @@
 import { effectiveSampleSize } from "./effective-sample-size.js";
 
-/** Fewest effective draws of a coordinate's squared deviations for a window to move that coordinate's mass. */
+/** Fewest effective draws of a coordinate's squared deviations for a window to have a say about that coordinate. */
 export const MIN_SPREAD_DRAWS = 20;
 
 /** Standard errors by which a window's spread must differ from the current inverse mass to replace it. */
@@ -41,16 +41,16 @@ export class WindowDraws {
   /**
    * Per coordinate: the variance v of the pooled draws about their common mean (between-chain differences
    * are part of the spread), and the standard error of ln v from the squared deviations y = (x - mean)^2,
-   * whose mean v is: se(ln v) = sd(y) / (v sqrt(n_eff)), n_eff the effective sample size of y over the
+   * whose mean v is: se(ln v) = se(v) / v = sd(y) / (v sqrt(n_eff)) (delta method), n_eff the effective sample size of y over the
    * chains (Vehtari et al. 2021, Bayesian Analysis 16, 667, eq. 10-11). For normal draws sd(y) = sqrt(2) v
    * and se(ln v) = sqrt(2 / n_eff) (common practice); heavy tails and slowly moving chains make it larger,
    * so the rule in {@link nextInverseMass} trusts such a window less.
    */
   estimates(): WindowSpreadEstimate[] {
     return this.columns.map((chains) => {
-      let n = 0;
+      const n = chains.reduce((total, chain) => total + chain.length, 0);
       let sum = 0;
-      for (const chain of chains) for (const v of chain) (n++, (sum += v));
+      for (const chain of chains) for (const v of chain) sum += v;
       const mean = sum / n;
       const squares = chains.map((chain) => Float64Array.from(chain, (v) => (v - mean) * (v - mean)));
       let sumSquares = 0;

@@ -6,8 +6,14 @@ export interface WarmupPlan {
   readonly windowStarts: readonly number[];
 }
 
-/** Shortest mass-matrix window: a variance from n draws has a relative error of about sqrt(2 / n), 32% at 20. */
-export const MIN_WARMUP_WINDOW = 20;
+/**
+ * Shortest mass-matrix window, in iterations of every chain. With 4 chains, 40 iterations are 160 draws:
+ * enough for each coordinate's spread to reach the 20 effective draws a window needs to have a say
+ * (`MIN_SPREAD_DRAWS` in warmup-mass.ts) at autocorrelation times up to about 8. Windows of 20 often
+ * supported only some coordinates of the damped random walk, whose mass matrix then mixed curvature and
+ * window variances (measured in bench/nuts-warmup-compare.ts).
+ */
+export const MIN_WARMUP_WINDOW = 40;
 
 /** Factor by which each mass-matrix window is longer than the one before it. */
 export const WARMUP_WINDOW_GROWTH = 3;
@@ -33,15 +39,15 @@ export const WARMUP_WINDOW_GROWTH = 3;
  *   only the step size while the chains settle into the typical set; a middle span tiled exactly by k
  *   windows growing geometrically by `WARMUP_WINDOW_GROWTH`, k the largest number for which the first
  *   window still holds `MIN_WARMUP_WINDOW` iterations (of every chain); a closing of round(W / 8)
- *   iterations in which the step size settles for the final mass matrix. Early short windows let a badly
- *   scaled start (such as a unit mass across six decades of scale) be corrected in stages, each stage
- *   letting the step size grow; the last window, two thirds of the span, gives the final estimate. Growth 3
- *   rather than 2 means fewer windows and fewer restarts, each costing the dual averaging some tens of
- *   iterations to settle.
+ *   iterations in which the step size settles for the final mass matrix. The default W = 500 gives two
+ *   windows, W >= 694 three. More than one window lets a badly scaled start (such as a unit mass across
+ *   six decades of scale) be corrected in stages, each letting the step size grow; the last window, at
+ *   least two thirds of the span, gives the final estimate. Growth 3 rather than 2 means fewer, longer
+ *   windows and fewer restarts, each costing the dual averaging some tens of iterations to settle.
  *
  * Fewer than 2 * MIN_WARMUP_WINDOW warm-up iterations: no mass-matrix window (step size only).
  *
- * @example planWarmup(500) // opening 63, windows [63, 92), [92, 178), [178, 437) of 29, 86, 259; closing 63
+ * @example planWarmup(500) // opening 63, windows [63, 157), [157, 437) of 94 and 280; closing 63
  */
 export function planWarmup(warmup: number): WarmupPlan {
   const opening = Math.round(warmup / 8);

@@ -5,13 +5,12 @@ import { MIN_WARMUP_WINDOW, planWarmup, WARMUP_WINDOW_GROWTH } from "../../src/i
 import { createRng } from "../../src/random/rng.js";
 
 describe("warm-up plan (the schedule documented at planWarmup)", () => {
-  it("500 iterations: opening 63, windows of 29, 86, 259 tiling [63, 437), closing 63 (worked by hand)", () => {
-    // span = 500 - 63 - 63 = 374; windows s, 3s, 9s with 13 s = 374 give s = 28.8 >= 20 (ends at
-    // 63 + 28.8 = 91.8 and 63 + 4 s = 178.1, rounded), while four windows (40 s = 374, s = 9.4) would fall
-    // below the 20-iteration minimum.
-    const plan = planWarmup(500);
-    expect(plan.windowStarts).toEqual([63, 92, 178]);
-    expect(plan.windowEnds).toEqual([92, 178, 437]);
+  it("500 iterations: opening 63, windows of 94 and 280 tiling [63, 437), closing 63; 700: three windows (worked by hand)", () => {
+    // span = 500 - 63 - 63 = 374; windows s, 3s with 4 s = 374 give s = 93.5 >= 40 (end 156.5, rounded
+    // half up), while three windows (13 s = 374, s = 28.8) would fall below the 40-iteration minimum.
+    expect(planWarmup(500)).toEqual({ windowStarts: [63, 157], windowEnds: [157, 437] });
+    // 700: span 700 - 88 - 88 = 524, 13 s = 524 gives s = 40.3 >= 40: ends 88 + 40.3, 88 + 4 s, 612.
+    expect(planWarmup(700)).toEqual({ windowStarts: [88, 128, 249], windowEnds: [128, 249, 612] });
   });
 
   it("windows tile the middle span exactly, grow about threefold and never drop below MIN_WARMUP_WINDOW", () => {
