@@ -152,7 +152,7 @@ export function createNutsSampler(
     },
     iterate() {
       const inWarmup = iterations < warmup;
-      const window = inWarmup ? plan.windowEnds.findIndex((end, w) => iterations >= plan.windowStarts[w] && iterations < end) : -1;
+      const openWindow = inWarmup ? plan.windowEnds.findIndex((end, w) => iterations >= plan.windowStarts[w] && iterations < end) : -1;
       chains.forEach((chain, c) => {
         const step = nutsTransition(target, chain.point, chain.stepSize, mass.inverseMass, chain.rng, maxDepth);
         chain.point = step.point;
@@ -161,7 +161,7 @@ export function createNutsSampler(
           warmupLeapfrogSteps += step.leapfrogSteps;
           if (step.divergent) warmupDivergences++;
           chain.stepSize = chain.adaptation.update(step.acceptance);
-          if (window >= 0) windowDraws.add(c, chain.point.q);
+          if (openWindow >= 0) windowDraws.add(c, chain.point.q);
           if (iterations === warmup - 1) chain.stepSize = chain.adaptation.finalStep();
         } else {
           acceptanceSum += step.acceptance;
@@ -172,7 +172,7 @@ export function createNutsSampler(
         positions[c] = chain.point.q;
         logp[c] = chain.point.logPosterior;
       });
-      if (window >= 0 && iterations === plan.windowEnds[window] - 1) {
+      if (openWindow >= 0 && iterations === plan.windowEnds[openWindow] - 1) {
         mass = nextInverseMass(mass, windowDraws.estimates());
         windowDraws.reset();
         if (mass.restart) {
