@@ -52,6 +52,8 @@ export type { FitOptions } from "./models/fit-options.js";
 export { RESULT_FORMAT_VERSION, type FitResult, type ParameterSummary, type FitDiagnostics, type FitDataSummary } from "./models/fit-result.js";
 export type { FitParameterSummary, DerivedSummary, FitChoices, RobustNoiseSummary, PriorDescription } from "./models/fit-result.js";
 export type { PeriodModeSummary, StoredPosteriorSample, JointBandsSummary } from "./models/fit-result.js";
+export type { RobustFlaggedPoint, RobustWeightSummary, StoredImportanceWeights } from "./models/fit-result.js";
+export type { EvidencePreference, EvidenceStrength } from "./models/evidence-scale.js";
 export { parseFitResult } from "./models/parse-fit-result.js";
 export type { KernelTerm } from "./models/kernel-term.js";
 export type { ModelStanding } from "./models/compare-models.js";

@@ -19,7 +19,7 @@ export interface ModelStanding {
   readonly label: string;
   /**
    * ln evidence (marginal likelihood) of the model: by importance sampling at the mode
-   * ({@link importanceLogEvidence}) when its diagnostic holds, else the Laplace approximation.
+   * (`importanceLogEvidence`) when its diagnostic holds, else the Laplace approximation.
    */
   readonly logEvidence: number;
   /** Monte Carlo standard error of `logEvidence`; null for the Laplace approximation (no stated error). */
@@ -59,12 +59,12 @@ export interface ModelComparison {
 /**
  * Ranks Gaussian-process models of one light curve by their Bayesian evidence (marginal likelihood)
  * Z = integral L(theta) pi(theta) dtheta, estimated by importance sampling from a Student-t at the
- * maximum a posteriori with the Laplace covariance ({@link importanceLogEvidence}: unbiased, with a Monte
+ * maximum a posteriori with the Laplace covariance (`importanceLogEvidence`: unbiased, with a Monte
  * Carlo standard error), the Laplace approximation (MacKay 2003, ch. 28) where the importance ratios'
  * k-hat says the estimate cannot be trusted. The evidence is the natural criterion for Gaussian
  * processes: the likelihood already integrates over the latent light curve, and the integral over the parameters penalises the extra
  * freedom of a periodic kernel, which the maximum likelihood alone would always reward. Differences are
- * read on the scale of Kass & Raftery 1995 (JASA 90, 773; {@link bayesFactorPreference}), with the
+ * read on the scale of Kass & Raftery 1995 (JASA 90, 773; `bayesFactorPreference`), with the
  * standard error of ln B. The BIC is reported beside it for reference.
  */
 export function compareModels(

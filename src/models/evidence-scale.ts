@@ -19,7 +19,7 @@ export interface EvidencePreference {
   readonly standardError: number | null;
   /** 2 ln B, the quantity the scale is read on. */
   readonly twoLogBayesFactor: number;
-  /** The word for 2 ln B on the scale (see {@link strengthOfEvidence}). */
+  /** The word for 2 ln B on the scale (see `strengthOfEvidence`). */
   readonly strength: EvidenceStrength;
   /** Words of the scale that 2 ln B +- 2 standard errors reaches (one entry when the error cannot change the reading). */
   readonly strengthRange: readonly EvidenceStrength[];

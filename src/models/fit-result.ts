@@ -154,7 +154,7 @@ export interface RobustNoiseSummary {
   readonly weightSummary: RobustWeightSummary;
   /**
    * The likely outliers (outlier probability above 1/2) in the order of the light curve; when there are
-   * more than {@link MAX_FLAGGED_POINTS_STORED}, the most probable that many (`likelyOutliers` counts all).
+   * more than `MAX_FLAGGED_POINTS_STORED`, the most probable that many (`likelyOutliers` counts all).
    */
   readonly flagged: readonly RobustFlaggedPoint[];
 }

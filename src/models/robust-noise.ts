@@ -20,7 +20,7 @@ export interface RobustNoise {
   readonly outlierProbability: Float64Array;
   /**
    * The physical parameters (by name) at which the weights were computed, the maximum a posteriori of EM's
-   * last M-step: with the light curve they determine every weight ({@link robustWeightsAt}), so a result
+   * last M-step: with the light curve they determine every weight (`robustWeightsAt`), so a result
    * stores them instead of N weights.
    */
   readonly parameters: Readonly<Record<string, number>>;
