@@ -13,6 +13,7 @@ import { modelPeriodRange } from "./period-range.js";
 import { carmaOrderOf, orderText } from "./carma-model.js";
 import { collapseJointMeans, restoreBandMeans } from "./joint-mean-marginal.js";
 import { jointWarnings } from "./joint-warnings.js";
+import { lagScanGuess } from "./joint-lag-scan.js";
 import { childSeed, createRng } from "../random/rng.js";
 import { runRecords } from "./fit-run-records.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
@@ -62,8 +63,8 @@ const JOINT_MODE_SEARCH = { valueTolerance: 1e-7, sizeTolerance: 1e-3 };
  * Fits one shared process to every band at once (`buildJointModel`): the shared kernel's parameters,
  * per-band amplitudes, means, jitters and, with `lags`, lags. Stages: for periodic models the period
  * range from the joint sampling (`modelPeriodRange`) and the reference band's periodogram peak as the
- * first guess of the period (`periodogramPeriod`); the posterior from the first guess and five prior
- * draws by the fit's method (`posteriorByMethod`: for models without a period Pareto-smoothed importance
+ * first guess of the period (`periodogramPeriod`); with lags, each lag's first guess from a scan across
+ * its prior (`lagScanGuess`); the posterior from the first guess and a prior draw by the fit's method (`posteriorByMethod`: for models without a period Pareto-smoothed importance
  * sampling from the mode, with the walker ensemble when k-hat or the ESS fail, as `fitMethod` says for
  * one band); except with NUTS the band means are integrated out and drawn back afterwards
  * (`collapseJointMeans`), NUTS samples them with the rest;
@@ -89,7 +90,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
   const space = collapsed?.space ?? model.space;
   const posterior = posteriorByMethod(space, collapsed?.likelihood ?? jointLikelihood(model, lightCurves), {
     seed: options.seed,
-    initial: Object.fromEntries(Object.entries(model.initialGuess).filter(([name]) => space.names.includes(name))),
+    initial: Object.fromEntries(Object.entries({ ...model.initialGuess, ...lagScanGuess(model, lightCurves) }).filter(([name]) => space.names.includes(name))),
     starts: JOINT_STARTS,
     maxEvaluations: options.maxEvaluations ?? DEFAULT_FIT_BUDGET,
     ...(options.sampler ? { sampler: options.sampler } : {}),

@@ -2,6 +2,7 @@ import { describe, expect, it } from "vitest";
 import { kernels } from "../../src/kernels/index.js";
 import { seasonalGroundCadence } from "../../src/lightcurve/cadence.js";
 import { buildJointModel, jointLikelihood } from "../../src/models/joint-model.js";
+import { lagScanGuess } from "../../src/models/joint-lag-scan.js";
 import { jointWarnings } from "../../src/models/joint-warnings.js";
 import { simulateInterleavedBands } from "../../src/models/simulated-bands.js";
 import { createRng } from "../../src/random/rng.js";
@@ -49,6 +50,13 @@ describe("inter-band lags", () => {
       expect(Math.max(...inside) - Math.min(...inside)).toBeLessThan(4);
     });
   }
+
+  it("the lag scan's first guesses lie within a day of the true lags", () => {
+    const guess = lagScanGuess(model, lightCurves);
+    expect(Math.abs((guess["lag.r"] ?? NaN) - truth.lags[1])).toBeLessThan(1);
+    expect(Math.abs((guess["lag.i"] ?? NaN) - truth.lags[2])).toBeLessThan(1);
+    expect(guess["lag.g"]).toBeUndefined(); // the reference band's lag is fixed at 0
+  });
 
   it("says when a lag is not resolved", () => {
     const wide = { median: 0, mean: 0, sd: 10, "q2.5": -20, q16: -0.8 * model.lagRange, q84: 0.8 * model.lagRange, "q97.5": 20 };
