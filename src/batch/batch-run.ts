@@ -216,13 +216,14 @@ async function fitEveryObject(options: BatchRunOptions, pool: FitPool, done: Set
       continue;
     }
     const seed = objectSeed(options.seed, id);
-    if (!object.lightCurve) {
+    const lightCurves = object.bands ?? (object.lightCurve ? [object.lightCurve] : []);
+    if (lightCurves.length === 0) {
       record(failedRow(id, seed, options.model, object.problem ?? "no light curve"));
       continue;
     }
     const fitOptions = { ...options.fitOptions, model: options.model, background: options.background, seed };
     const task: Promise<void> = pool
-      .fit(id, object.lightCurve, fitOptions)
+      .fit(id, lightCurves, fitOptions)
       .then((outcome: FitOutcome) =>
         record(outcome.kind === "ok" ? withWarnings(outcome.row, object.warnings) : failedRow(id, seed, options.model, outcome.reason)),
       )

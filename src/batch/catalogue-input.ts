@@ -42,8 +42,9 @@ export function objectIdFromFileName(name: string): string {
  * file name without extension, listed in sorted order) or, with `idColumn`, one delimited-text table
  * holding every object, its rows grouped by id (streamed by the catalogue reader of src/lightcurve).
  * Nothing is read until the objects are iterated; then about one light curve at a time is in memory.
- * An object that cannot be read, or that has several bands when none was chosen, comes with the
- * reader's one-line reason instead of a light curve, so it is recorded as failed and the run goes on;
+ * An object with several bands comes with all of them (`bands`) unless `--band` chose one; an object
+ * that cannot be read comes with the reader's one-line reason instead of a light curve, so it is
+ * recorded as failed and the run goes on;
  * a problem of the table as a whole (no such file, unknown column, ids not grouped) is an InputError.
  */
 export async function openCatalogue(path: string, options: CatalogueReadOptions): Promise<Catalogue> {
@@ -103,7 +104,7 @@ async function* folderObjects(folder: string, options: CatalogueReadOptions): As
   }
 }
 
-/** One object's light curve from what a reader returned, or the reason there is not exactly one. */
+/** One object's light curve (or its bands) from what a reader returned, or the reason there is none. */
 function singleLightCurve(
   id: string,
   source: string,
@@ -111,9 +112,10 @@ function singleLightCurve(
   warnings: readonly string[],
   options: LightCurveReadOptions,
 ): CatalogueObject {
-  if (lightCurves.length === 1) return { id, lightCurve: lightCurves[0], warnings };
+  const [first] = lightCurves;
+  if (lightCurves.length === 1 && first) return { id, lightCurve: first, warnings };
   if (lightCurves.length === 0) return { id, problem: `${source}: no light curve` };
+  if (options.band === undefined) return { id, bands: lightCurves, warnings };
   const bands = lightCurves.map((lc) => lc.band ?? "?").join(", ");
-  const hint = options.band === undefined ? "; choose one with --band" : "";
-  return { id, problem: `${source}: ${lightCurves.length} bands (${bands})${hint}` };
+  return { id, problem: `${source}: ${lightCurves.length} bands (${bands})` };
 }

@@ -82,11 +82,11 @@ export class FitPool {
    * Fits one object on the next free worker. Resolves with the outcome (a failure of the object is an
    * outcome, not a rejection); rejects only when the pool itself can no longer work.
    */
-  fit(objectId: string, lightCurve: LightCurve, options: FitRequest["options"]): Promise<FitOutcome> {
+  fit(objectId: string, lightCurves: readonly LightCurve[], options: FitRequest["options"]): Promise<FitOutcome> {
     if (this.closed) return Promise.reject(new Error("the fit pool is closed"));
     if (this.fatal) return Promise.reject(this.fatal);
     return new Promise<FitOutcome>((resolve, reject) => {
-      this.queue.push({ request: { kind: "fit", objectId, lightCurve, options }, resolve, reject });
+      this.queue.push({ request: { kind: "fit", objectId, lightCurves, options }, resolve, reject });
       this.dispatch();
     });
   }

@@ -5,7 +5,8 @@ import type { ResultRow } from "./result-row.js";
 export interface FitWorkerData {
   /**
    * URL of an ES module exporting `fitLightCurve(lightCurve, options)` (returning a FitResult or a
-   * promise of one); undefined means the project's own fit, `models/fit-light-curve.js`.
+   * promise of one) and, for objects with several bands, `fitBands(lightCurves, options)` (a FitResult
+   * or per-band results); undefined means the project's own fits, `models/fit-band-set.js`.
    */
   readonly fitModule?: string;
 }
@@ -14,7 +15,8 @@ export interface FitWorkerData {
 export interface FitRequest {
   readonly kind: "fit";
   readonly objectId: string;
-  readonly lightCurve: LightCurve;
+  /** The object's light curve, or every band's when it has several (then `fitBands` fits them). */
+  readonly lightCurves: readonly LightCurve[];
   /** The fit options, with the object's own seed already in `seed`. */
   readonly options: Readonly<Record<string, unknown>> & { readonly seed: number };
 }

@@ -35,21 +35,47 @@ export function okRow(objectId: string, seed: number, fit: FitResult): ResultRow
     model: fit.model,
     seed,
   };
-  for (const key of DATA_KEYS) row[`data.${key}`] = fit.data[key];
+  addFitColumns(row, fit, "");
+  row.warnings = JSON.stringify(fit.warnings.map(singleLine));
+  return row;
+}
+
+/**
+ * The row of an object whose bands were fitted each on its own: the leading columns (the model of the
+ * first band), then every column of {@link okRow} for each band with the band's name after the
+ * parameter or key (`tau.g.median`, `data.n.g`, `diagnostics.converged.g`), `diagnostics.converged`
+ * true when every band's fit converged, and the warnings of all bands, each prefixed by its band.
+ *
+ * @example perBandRow("lf-0001", 7, { g: fitG, r: fitR })["tau.r.median"] === fitR.parameters.tau.median
+ */
+export function perBandRow(objectId: string, seed: number, perBand: Readonly<Record<string, FitResult>>): ResultRow {
+  const fits = Object.entries(perBand);
+  const row: Record<string, ResultCell> = { object_id: objectId, status: "ok", reason: null, model: fits[0]?.[1].model ?? null, seed };
+  const warnings: string[] = [];
+  for (const [band, fit] of fits) {
+    addFitColumns(row, fit, `.${band}`);
+    for (const w of fit.warnings) warnings.push(`${band}: ${singleLine(w)}`);
+  }
+  row["diagnostics.converged"] = fits.every(([, fit]) => fit.diagnostics.converged);
+  row.warnings = JSON.stringify(warnings);
+  return row;
+}
+
+/** The data, summary and diagnostics cells of a fit, `suffix` after each parameter or key ("" or ".<band>"). */
+function addFitColumns(row: Record<string, ResultCell>, fit: FitResult, suffix: string): void {
+  for (const key of DATA_KEYS) row[`data.${key}${suffix}`] = fit.data[key];
   for (const [name, summary] of [...Object.entries(fit.parameters), ...Object.entries(fit.derived)]) {
     for (const [statistic, value] of Object.entries(summary)) {
-      if (typeof value === "number") row[`${name}.${statistic}`] = value;
+      if (typeof value === "number") row[`${name}${suffix}.${statistic}`] = value;
       else if (isInterval(value)) {
-        row[`${name}.${statistic}.lower`] = value[0];
-        row[`${name}.${statistic}.upper`] = value[1];
+        row[`${name}${suffix}.${statistic}.lower`] = value[0];
+        row[`${name}${suffix}.${statistic}.upper`] = value[1];
       }
     }
   }
   for (const [key, value] of Object.entries(fit.diagnostics)) {
-    if (typeof value === "number" || typeof value === "boolean" || typeof value === "string") row[`diagnostics.${key}`] = value;
+    if (typeof value === "number" || typeof value === "boolean" || typeof value === "string") row[`diagnostics.${key}${suffix}`] = value;
   }
-  row.warnings = JSON.stringify(fit.warnings.map(singleLine));
-  return row;
 }
 
 /** The row of an object that could not be fitted: the leading columns, with the reason on one line. */

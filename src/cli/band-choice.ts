@@ -31,6 +31,29 @@ export const BAND_HELP = `Several bands (a band column, recognised by name or gi
   --lags                  joint (implied): also a lag per band relative to the reference band (lag.<band>)
   --reference-band NAME   joint (implied): the band with amplitude 1 and lag 0 (default: the most points)`;
 
+/** The band rule of a catalogue, whose objects differ in their bands: the options checked, each object's fit applies them (`fitBands`). */
+export interface CatalogueBandRule {
+  readonly bands?: "joint" | "separate";
+  readonly lags?: true;
+  readonly referenceBand?: string;
+}
+
+/**
+ * The band options of `batch`, checked as far as they can be before any object is read: `--bands` is
+ * joint or separate, and `--lags` / `--reference-band` do not go with `--bands separate`. An object with
+ * one band is fitted on its own whatever they say; a reference band an object lacks fails that object.
+ */
+export function catalogueBandRule(values: VerbArguments["values"]): CatalogueBandRule {
+  const bands = textOption(values, "bands");
+  if (bands !== undefined && bands !== "joint" && bands !== "separate")
+    throw new UsageError(`--bands must be joint or separate, got "${bands}"`);
+  const lags = values.lags === true;
+  const referenceBand = textOption(values, "reference-band");
+  if ((lags || referenceBand !== undefined) && bands === "separate")
+    throw new UsageError(`--${lags ? "lags" : "reference-band"} needs the joint model of several bands, not --bands separate`);
+  return { ...(bands !== undefined ? { bands } : {}), ...(lags ? { lags: true } : {}), ...(referenceBand !== undefined ? { referenceBand } : {}) };
+}
+
 /** The band rule for these light curves and options (usage errors for options that do not apply). */
 export function bandChoice(values: VerbArguments["values"], lightCurves: readonly LightCurve[]): BandChoice {
   const bands = textOption(values, "bands");

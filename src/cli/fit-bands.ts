@@ -1,4 +1,3 @@
-import { RESULT_FORMAT_VERSION, type FitResult } from "../models/fit-result.js";
 import { fitJointDetailed, type DetailedJointFit } from "../models/fit-joint.js";
 import type { FitOptions } from "../models/fit-options.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
@@ -7,16 +6,7 @@ import type { BandChoice } from "./band-choice.js";
 import { fitSummaryText } from "./fit-summary-text.js";
 import { samplerProgressBar } from "./progress-bar.js";
 
-/** The JSON of `--bands separate`: one result per band, by band name (an object, never a list). */
-export interface PerBandResults {
-  readonly formatVersion: number;
-  readonly perBand: Readonly<Record<string, FitResult>>;
-}
-
-/** Wraps per-band results into the one JSON object of `--bands separate`. */
-export function perBandResults(results: readonly FitResult[]): PerBandResults {
-  return { formatVersion: RESULT_FORMAT_VERSION, perBand: Object.fromEntries(results.map((r) => [r.data.band ?? "", r])) };
-}
+export { perBandResults, type PerBandResults } from "../models/per-band-results.js";
 
 /** The joint fit of every band with a progress bar and the summary on stderr. */
 export function fitJointWithProgress(

@@ -5,6 +5,7 @@ import type { ResultsFormat } from "../../../batch/batch-run.js";
 import type { CatalogueReadOptions } from "../../../batch/catalogue-input.js";
 import { UsageError } from "../../../errors/usage-error.js";
 import type { ModelName } from "../../../models/light-curve-model.js";
+import { BAND_OPTIONS, catalogueBandRule, type CatalogueBandRule } from "../../band-choice.js";
 import type { CliIo } from "../../cli-io.js";
 import { FIT_OPTIONS, fitArgumentList, fitArguments, type FitArguments } from "../../fit-arguments.js";
 import { lightCurveReadOptions } from "../../read-input.js";
@@ -17,6 +18,7 @@ export const CATALOGUE_FIT_OPTIONS = {
   "id-col": { type: "string" },
   timeout: { type: "string" },
   "fit-module": { type: "string" },
+  ...BAND_OPTIONS,
 } as const;
 
 /** The help lines of the catalogue options beyond those of every fit (FIT_HELP, COLUMN_HELP). */
@@ -24,7 +26,11 @@ export const CATALOGUE_HELP = `  --id-col NAME           the object-id column, w
   --timeout SECONDS       give up on an object after this long (recorded as failed)
   --fit-module FILE       fit with fitLightCurve(lightCurve, options) exported by this ES module
                           instead of Horologium's own (for custom models; it must return a complete
-                          fit result, docs/architecture.md)`;
+                          fit result, docs/architecture.md)
+Objects with several bands (a band column): each band on its own by default (columns <name>.<band>.*,
+  for example tau.g.median), or with --bands joint one shared process (amplitude.<band>.*, mean.<band>.*,
+  with --lags lag.<band>.*); --band NAME fits only that band of every object.
+  --bands joint|separate  --lags  --reference-band NAME   as for fit`;
 
 /** What to fit and how, validated: shared by the run and the plan. */
 export interface CatalogueFitChoice {
@@ -33,6 +39,8 @@ export interface CatalogueFitChoice {
   readonly timeoutSeconds?: number;
   /** URL of the fit module, when one was given. */
   readonly fitModule?: string;
+  /** The multi-band rule for objects with several bands. */
+  readonly bandRule: CatalogueBandRule;
   /** The same choices as command-line arguments, for job scripts. */
   readonly arguments: readonly string[];
 }
@@ -48,8 +56,9 @@ export function catalogueFitChoice(values: VerbArguments["values"], io: CliIo): 
   const timeoutSeconds = numberOption(values, "timeout");
   if (timeoutSeconds !== undefined && !(timeoutSeconds > 0)) throw new UsageError(`--timeout must be a positive number of seconds, got ${timeoutSeconds}`);
   const modulePath = textOption(values, "fit-module");
+  const bandRule = catalogueBandRule(values);
   const list = fitArgumentList(fit);
-  for (const name of ["id-col", ...Object.keys(COLUMN_OPTIONS), "timeout"]) {
+  for (const name of ["id-col", ...Object.keys(COLUMN_OPTIONS), "timeout", ...Object.keys(BAND_OPTIONS)]) {
     const value = values[name];
     if (typeof value === "string") list.push(`--${name}`, value);
     else if (value === true) list.push(`--${name}`);
@@ -60,6 +69,7 @@ export function catalogueFitChoice(values: VerbArguments["values"], io: CliIo): 
     read,
     ...(timeoutSeconds !== undefined ? { timeoutSeconds } : {}),
     ...(modulePath !== undefined ? { fitModule: pathToFileURL(resolve(io.cwd, modulePath)).href } : {}),
+    bandRule,
     arguments: list,
   };
 }
@@ -68,9 +78,9 @@ export function catalogueFitChoice(values: VerbArguments["values"], io: CliIo): 
  * The fit options handed to every object's fit as they are (the model, background and seed go
  * separately); a CARMA order travels as its text "p,q" and is read back by the worker's fit.
  */
-export function perObjectFitOptions(fit: FitArguments): Record<string, string | number | boolean> {
+export function perObjectFitOptions(fit: FitArguments, bandRule: CatalogueBandRule = {}): Record<string, string | number | boolean> {
   const { model: _model, background: _background, seed: _seed, order, ...rest } = fit;
-  return { ...rest, ...(order !== undefined ? { order: orderText(carmaOrderOf(order)) } : {}) };
+  return { ...rest, ...(order !== undefined ? { order: orderText(carmaOrderOf(order)) } : {}), ...bandRule };
 }
 
 /** The format of a results table from its file name. */

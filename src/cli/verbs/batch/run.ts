@@ -115,7 +115,7 @@ export const fitCatalogue = withParsedArguments(RUN_OPTIONS, RUN_HELP, async ({ 
       model: choice.fit.model,
       ...(choice.fit.background !== undefined ? { background: choice.fit.background } : {}),
       seed: choice.fit.seed,
-      fitOptions: perObjectFitOptions(choice.fit),
+      fitOptions: perObjectFitOptions(choice.fit, choice.bandRule),
       shard,
       workers,
       ...(choice.fitModule !== undefined ? { fitModule: choice.fitModule } : {}),
