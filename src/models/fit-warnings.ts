@@ -19,6 +19,18 @@ export interface WarningInputs {
 }
 
 const fmt = (x: number) => (Math.abs(x) >= 1e4 || Math.abs(x) < 1e-2 ? x.toExponential(2) : x.toPrecision(3));
+/** A time in the input unit, days for the trade's light curves (the unit every console line names). */
+const days = (x: number) => `${fmt(x)} d`;
+
+/**
+ * A parameter's value with its unit: times (timescales, periods, decay times, lags) in days, amplitudes in the
+ * light curve's unit, dimensionless ones bare.
+ */
+function withUnit(name: string, value: number, lightCurve: LightCurve): string {
+  if (/tau|period|decay|lag|time/i.test(name)) return days(value);
+  if (/sigma|jitter|amplitude/i.test(name)) return `${fmt(value)} ${lightCurve.unit}`;
+  return fmt(value);
+}
 
 /**
  * Plain-language warnings about what the data do and do not constrain:
@@ -53,13 +65,13 @@ export function fitWarnings(inputs: WarningInputs): string[] {
     const tau = parameters.tau.median;
     if (summary.baseline < 10 * tau) {
       warnings.push(
-        `The baseline (${fmt(summary.baseline)}) is shorter than 10 tau (tau = ${fmt(tau)}): damped-random-walk timescales ` +
+        `The baseline (${days(summary.baseline)}) is shorter than 10 tau (tau = ${days(tau)}): damped-random-walk timescales ` +
           `this long relative to the baseline are biased (Kozlowski 2017, A&A 597, A128).`,
       );
     }
     if (tau < summary.medianCadence) {
       warnings.push(
-        `tau (${fmt(tau)}) is shorter than the median cadence (${fmt(summary.medianCadence)}): the sampling does not resolve the timescale.`,
+        `tau (${days(tau)}) is shorter than the median cadence (${days(summary.medianCadence)}): the sampling does not resolve the timescale.`,
       );
     }
   }
@@ -68,14 +80,14 @@ export function fitWarnings(inputs: WarningInputs): string[] {
     if (!s || p.prior.family !== "log-uniform") continue;
     const logRange = Math.log(p.prior.upper / p.prior.lower);
     if (Math.log(p.prior.upper / s["q97.5"]) < 0.02 * logRange && Math.log(s["q2.5"] / p.prior.lower) > 0.1 * logRange) {
-      warnings.push(`${p.name} runs into the upper end of its prior (${fmt(p.prior.upper)}): the data give only a lower limit (${p.name} > ${fmt(s["q2.5"])} with 97.5% probability).`);
+      warnings.push(`${p.name} runs into the upper end of its prior (${withUnit(p.name, p.prior.upper, lightCurve)}): the data give only a lower limit (${p.name} > ${withUnit(p.name, s["q2.5"], lightCurve)} with 97.5% probability).`);
     } else if (Math.log(s["q2.5"] / p.prior.lower) < 0.02 * logRange && Math.log(p.prior.upper / s["q97.5"]) > 0.1 * logRange) {
-      warnings.push(`${p.name} runs into the lower end of its prior (${fmt(p.prior.lower)}): the data give only an upper limit (${p.name} < ${fmt(s["q97.5"])} with 97.5% probability).`);
+      warnings.push(`${p.name} runs into the lower end of its prior (${withUnit(p.name, p.prior.lower, lightCurve)}): the data give only an upper limit (${p.name} < ${withUnit(p.name, s["q97.5"], lightCurve)} with 97.5% probability).`);
     }
   }
   const significant = modes.filter((m) => m.probability >= 0.01);
   if (significant.length > 1) {
-    const list = significant.map((m) => `${fmt(m.period)} (${(100 * m.probability).toFixed(0)}% of the draws)`).join(", ");
+    const list = significant.map((m) => `${days(m.period)} (${(100 * m.probability).toFixed(0)}% of the draws)`).join(", ");
     warnings.push(
       `The data cannot decide between several periods: ${list}. The summaries pool them; quote the period with its modes ` +
         "(periodModes), not as one number.",
@@ -85,8 +97,8 @@ export function fitWarnings(inputs: WarningInputs): string[] {
   const period = parameters.period;
   if (dominant && period && Math.abs(dominant.median / period.median - 1) > 0.05) {
     warnings.push(
-      `Most of the variance repeats every ${fmt(dominant.median)} (dominantPeriod, 95%: ${fmt(dominant["q2.5"])} to ${fmt(dominant["q97.5"])}), ` +
-        `half the fitted period ${fmt(period.median)}: the harmonic carries more of the signal than the fundamental ` +
+      `Most of the variance repeats every ${days(dominant.median)} (dominantPeriod, 95%: ${fmt(dominant["q2.5"])} to ${days(dominant["q97.5"])}), ` +
+        `half the fitted period ${days(period.median)}: the harmonic carries more of the signal than the fundamental ` +
         `(harmonicWeight ${fmt(parameters.harmonicWeight?.median ?? NaN)}). Quote dominantPeriod as the photometric period; ` +
         "period is the repeat of the whole pattern, which the data may not distinguish from it.",
     );
