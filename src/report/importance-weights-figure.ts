@@ -5,6 +5,8 @@ import type { ReportFigure } from "./report-figure.js";
 import type { ReportInput } from "./report-input.js";
 import type { DataRows } from "./vega-lite-types.js";
 
+/** The largest weights drawn as dots besides the line (the result stores the 50 largest each). */
+const LARGEST_WEIGHTS_DOTTED = 50;
 /** The bottom of the weight axis, in equal shares: smaller weights are drawn at this edge. */
 const SMALLEST_WEIGHT_DRAWN = 1e-3;
 
@@ -29,6 +31,14 @@ export function importanceWeightsFigure(input: ReportInput): ReportFigure | unde
   const largest = rows.reduce((m, row) => Math.max(m, row.w), 1);
   const draws = runs.reduce((m, run) => Math.max(m, run.draws), 2);
   const clipped = runs.some((run) => run.scaledWeights.some((w) => w < SMALLEST_WEIGHT_DRAWN));
+  const x = { field: "rank", type: "quantitative" as const, scale: { type: "log" as const, domain: [1, draws], nice: false }, title: "Rank of the draw's weight (1: the largest)" };
+  const y = {
+    field: "w",
+    type: "quantitative" as const,
+    scale: { type: "log" as const, domain: [SMALLEST_WEIGHT_DRAWN, Math.max(2, largest * 1.5)], nice: false },
+    title: "Weight × number of draws",
+  };
+  const color = runs.length > 1 ? { field: "run", type: "nominal" as const, legend: { title: null, orient: "top" as const } } : { value: FIGURE_COLORS.model };
   const spec: TopLevelSpec = {
     $schema: "https://vega.github.io/schema/vega-lite/v6.json",
     config: figureConfig(),
@@ -42,18 +52,16 @@ export function importanceWeightsFigure(input: ReportInput): ReportFigure | unde
         encoding: { y: { field: "equal", type: "quantitative" } },
       },
       {
+        // The largest weights, each stored, as dots: the head that k-hat measures.
+        data: { name: "weights" },
+        transform: [{ filter: `datum.rank <= ${LARGEST_WEIGHTS_DOTTED}` }],
+        mark: { type: "point", filled: true, size: 16, aria: false },
+        encoding: { x, y, color },
+      },
+      {
         data: { name: "weights" },
         mark: { type: "line", strokeWidth: 1.5 },
-        encoding: {
-          x: { field: "rank", type: "quantitative", scale: { type: "log", domain: [1, draws], nice: false }, title: "Rank of the draw's weight (1: the largest)" },
-          y: {
-            field: "w",
-            type: "quantitative",
-            scale: { type: "log", domain: [SMALLEST_WEIGHT_DRAWN, Math.max(2, largest * 1.5)], nice: false },
-            title: "Weight × number of draws",
-          },
-          color: runs.length > 1 ? { field: "run", type: "nominal", legend: { title: null, orient: "top" } } : { value: FIGURE_COLORS.model },
-        },
+        encoding: { x, y, color },
       },
     ],
   };
@@ -63,7 +71,7 @@ export function importanceWeightsFigure(input: ReportInput): ReportFigure | unde
     return `${lead}k-hat ${k} (threshold ${run.paretoKThreshold.toFixed(2)}), ESS ${Math.round(run.effectiveSampleSize)} of ${run.draws} draws, the largest weight ${formatSignificant(run.scaledWeights[0] ?? NaN, 3)} times an equal share`;
   });
   const thinned =
-    (runs.some((run) => run.ranks.length < run.draws) ? " The 50 largest weights are drawn each, the rest at evenly spaced ranks." : "") +
+    (runs.some((run) => run.ranks.length < run.draws) ? ` The ${LARGEST_WEIGHTS_DOTTED} largest weights are drawn each (dots), the rest at evenly spaced ranks.` : "") +
     (clipped ? ` Weights below ${SMALLEST_WEIGHT_DRAWN} of an equal share (draws far in the proposal's tails) are drawn at the bottom edge.` : "");
   return {
     id: "importance-weights",
