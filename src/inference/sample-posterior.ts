@@ -19,7 +19,7 @@ export type SamplerKind = "nuts" | "ensemble";
 
 /**
  * The sampler used when none is asked for: the walker ensemble. bench/samplers-compare.ts runs both to
- * convergence from the same mode, counting a gradient as DEFAULT_GRADIENT_COST (4) log-likelihood
+ * convergence from the same mode, counting a gradient as DEFAULT_GRADIENT_COST (3) log-likelihood
  * evaluations. Measured on a shared 2-core machine:
  * - damped random walk, 250 points (seeds 1000-1002): ensemble 72 evaluations per effective sample,
  *   91k evaluations and 8 s per converged fit; NUTS 1100 per effective sample, 465k and 50 s per fit;

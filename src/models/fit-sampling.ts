@@ -73,7 +73,7 @@ export function sampleStarts(
   return { runs: attempt ? withFallback(runs, attempt) : runs, weights: plan.weights, ...(collapsed ? { collapsed } : {}) };
 }
 
-/** The MCMC runs after a failed mode-mixture attempt: the first charged with its evaluations, each saying why it ran. */
+/** The MCMC runs after a failed mode-mixture attempt: the first charged with its evaluations and saying why the runs were needed. */
 function withFallback(runs: readonly MethodPosterior[], attempt: ModeMixtureAttempt): MethodPosterior[] {
   const figures = {
     paretoK: attempt.sample.paretoShape,
@@ -81,14 +81,9 @@ function withFallback(runs: readonly MethodPosterior[], attempt: ModeMixtureAtte
     importanceDraws: attempt.sample.points.length,
     importanceFallback: attempt.reason ?? "importance sampling failed",
   };
-  return runs.map((run, k) => ({
-    ...run,
-    diagnostics: {
-      ...run.diagnostics,
-      ...figures,
-      likelihoodEvaluations: run.diagnostics.likelihoodEvaluations + (k === 0 ? attempt.evaluations : 0),
-    },
-  }));
+  return runs.map((run, k) =>
+    k === 0 ? { ...run, diagnostics: { ...run.diagnostics, ...figures, likelihoodEvaluations: run.diagnostics.likelihoodEvaluations + attempt.evaluations } } : run,
+  );
 }
 
 /**
