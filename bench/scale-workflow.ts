@@ -35,9 +35,10 @@ const CADENCE_DAYS = 2 / 1440;
 /** One (model, N) in this process: prints one JSON line of stage seconds and peak memory. */
 async function measureOne(model: ModelName, n: number, seed: number): Promise<void> {
   const stages: { stage: string; seconds: number; peakMb: number }[] = [];
-  let last = performance.now();
+  const wallStart = performance.now();
+  let last = cpuMilliseconds();
   const lap = (stage: string, seconds?: number) => {
-    const now = performance.now();
+    const now = cpuMilliseconds();
     stages.push({ stage, seconds: seconds ?? (now - last) / 1000, peakMb: process.resourceUsage().maxRSS / 1024 });
     last = now;
   };
@@ -57,8 +58,8 @@ async function measureOne(model: ModelName, n: number, seed: number): Promise<vo
   lap("write CSV");
   const lightCurve = (await readLightCurves(join(dir, "lc.csv"))).lightCurves[0];
   lap("read CSV");
-  const fit = fitLightCurveDetailed(lightCurve, { model, seed });
-  last = performance.now();
+  const fit = fitLightCurveDetailed(lightCurve, { model, seed, clock: cpuMilliseconds });
+  last = cpuMilliseconds();
   for (const [stage, seconds] of Object.entries(fit.stageSeconds)) lap(`fit: ${stage}`, seconds);
   const input = reportInputFromFit(fit.conditioning, fit.result, fit.model);
   await writeReport(input, join(dir, "report"));
@@ -69,7 +70,14 @@ async function measureOne(model: ModelName, n: number, seed: number): Promise<vo
   lap("predict");
   rmSync(dir, { recursive: true, force: true });
   const d = fit.result.diagnostics;
-  console.log(JSON.stringify({ model, n, stages, converged: d.converged, rhatMax: d.rhatMax, essMin: d.essMin, evaluations: d.likelihoodEvaluations }));
+  const wallSeconds = (performance.now() - wallStart) / 1000;
+  console.log(JSON.stringify({ model, n, stages, wallSeconds, converged: d.converged, method: d.method, rhatMax: d.rhatMax, essMin: d.essMin, paretoK: d.paretoK ?? null, evaluations: d.likelihoodEvaluations }));
+}
+
+/** CPU time of this process (user + system), milliseconds: the figure that a shared machine's load does not inflate. */
+function cpuMilliseconds(): number {
+  const { user, system } = process.cpuUsage();
+  return (user + system) / 1000;
 }
 
 async function main(): Promise<void> {
@@ -78,7 +86,7 @@ async function main(): Promise<void> {
   const seed = Number(values.seed ?? 1);
   if (values.one !== undefined) return measureOne(model, Number(values.one), seed);
   const sizes = (values.sizes ?? "1e3,1e4,1e5,1e6").split(",").map(Number);
-  const rows: { n: number; stages: { stage: string; seconds: number; peakMb: number }[]; converged: boolean; rhatMax: number; essMin: number }[] = [];
+  const rows: MeasuredRow[] = [];
   for (const n of sizes) {
     const child = spawnSync(process.execPath, ["--max-old-space-size=4096", fileURLToPath(import.meta.url), "--one", String(n), "--model", model, "--seed", String(seed)], {
       encoding: "utf8",
@@ -90,10 +98,10 @@ async function main(): Promise<void> {
       continue;
     }
     rows.push(JSON.parse(line));
-    console.error(`N = ${n} done`);
+    console.error(`N = ${n} done: ${line}`);
   }
   const stageNames = rows[0]?.stages.map((s) => s.stage) ?? [];
-  console.log(`Model ${model}: seconds (peak resident MB) per stage\n`);
+  console.log(`Model ${model}: CPU seconds (peak resident MB) per stage\n`);
   console.log(`| stage | ${rows.map((r) => `N = ${r.n.toExponential(0)}`).join(" | ")} |`);
   console.log(`| --- | ${rows.map(() => "---").join(" | ")} |`);
   for (const stage of stageNames) {
@@ -104,8 +112,28 @@ async function main(): Promise<void> {
     console.log(`| ${stage} | ${cells.join(" | ")} |`);
   }
   const total = rows.map((r) => r.stages.filter((s) => s.stage !== "simulate").reduce((sum, s) => sum + s.seconds, 0).toFixed(0));
-  console.log(`| total (without simulate) | ${total.join(" | ")} |`);
-  console.log(`| converged (R-hat max, ESS min) | ${rows.map((r) => `${r.converged ? "yes" : "no"} (${r.rhatMax.toFixed(3)}, ${Math.round(r.essMin)})`).join(" | ")} |`);
+  console.log(`| total CPU (without simulate) | ${total.join(" | ")} |`);
+  console.log(`| wall seconds (with simulate) | ${rows.map((r) => r.wallSeconds.toFixed(0)).join(" | ")} |`);
+  console.log(`| likelihood evaluations | ${rows.map((r) => String(Math.round(r.evaluations))).join(" | ")} |`);
+  console.log(`| converged (method: R-hat or k-hat, ESS) | ${rows.map(convergenceCell).join(" | ")} |`);
+}
+
+/** What one child process measured. */
+interface MeasuredRow {
+  readonly n: number;
+  readonly stages: readonly { stage: string; seconds: number; peakMb: number }[];
+  readonly wallSeconds: number;
+  readonly converged: boolean;
+  readonly method: string;
+  readonly rhatMax: number | null;
+  readonly paretoK: number | null;
+  readonly essMin: number;
+  readonly evaluations: number;
+}
+
+function convergenceCell(row: MeasuredRow): string {
+  const figure = row.rhatMax !== null ? `R-hat ${row.rhatMax.toFixed(3)}` : `k-hat ${(row.paretoK ?? NaN).toFixed(2)}`;
+  return `${row.converged ? "yes" : "no"} (${row.method}: ${figure}, ESS ${Math.round(row.essMin)})`;
 }
 
 await main();
