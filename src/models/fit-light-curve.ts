@@ -120,6 +120,7 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     maximumPosterior,
     draws,
     runs,
+    candidates: plan.modes,
   });
   timer.lap("result");
   return { result, model, summary, draws, runs, modes: plan.modes, conditioning, stageSeconds: timer.seconds, ...(robust ? { robust } : {}) };

@@ -31,6 +31,8 @@ export interface ResultParts {
   readonly draws: PosteriorDraws;
   /** The posterior of each start, for the traces of MCMC runs and the weights of importance-sampled ones. */
   readonly runs: readonly MethodPosterior[];
+  /** The candidate period modes the fit weighed before sampling (`planModes`), when it searched for them. */
+  readonly candidates?: readonly { readonly period: number; readonly probability: number }[];
 }
 
 /** Number of posterior draws kept in the result when the options do not say (`keptDraws`). */
@@ -82,6 +84,7 @@ export function assembleFitResult(parts: ResultParts): FitResult {
     priors: Object.fromEntries(model.space.free.map((p) => [p.name, { family: p.prior.family, settings: p.prior.settings }])),
     maximumPosterior: parts.maximumPosterior,
     ...(modes.length > 0 ? { periodModes: modes.map((m) => ({ period: m.period, probability: m.probability })) } : {}),
+    ...(parts.candidates && parts.candidates.length > 0 ? { periodCandidates: parts.candidates.map((m) => ({ period: m.period, probability: m.probability })) } : {}),
     ...(parts.periodogramPeriod !== undefined ? { periodogramPeriod: parts.periodogramPeriod } : {}),
     posteriorSample: thinnedSample(parts.draws, options.keptDraws ?? DEFAULT_KEPT_DRAWS),
     ...runRecords(parts.runs),

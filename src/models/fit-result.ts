@@ -49,6 +49,11 @@ export interface FitResult {
    * the daily aliases of the periodogram peak were weighed and sampled), each with its share of the draws.
    */
   readonly periodModes?: readonly PeriodModeSummary[];
+  /**
+   * Periodic models: the candidate periods the fit weighed before sampling (the periodogram peak, P/2, 2P and
+   * the window's aliases, merged), each with its Laplace probability among them; those above 1% were sampled.
+   */
+  readonly periodCandidates?: readonly PeriodModeSummary[];
   /** Periodic models: the period of the highest periodogram peak, the first guess. */
   readonly periodogramPeriod?: number;
   /** Evenly thinned posterior draws, for predictions and reports made from the file alone. */

@@ -51,6 +51,7 @@ export function parseFitResult(value: unknown, file: string, label?: string): Fi
   const seed = fields.get("seed");
   if (typeof seed !== "number" && typeof seed !== "string") throw fields.wrong("seed", "a number or a string");
   const periodModes = fields.optional("periodModes", (f, key) => f.list(key, periodMode));
+  const periodCandidates = fields.optional("periodCandidates", (f, key) => f.list(key, periodMode));
   const periodogramPeriod = fields.optional("periodogramPeriod", (f, key) => f.number(key));
   const robust = fields.optional("robust", (f, key) => robustSummary(f.object(key)));
   const bands = fields.optional("bands", (f, key) => jointBands(f.object(key)));
@@ -78,6 +79,7 @@ export function parseFitResult(value: unknown, file: string, label?: string): Fi
     }),
     maximumPosterior: fields.record("maximumPosterior", (f, name) => f.number(name)),
     ...(periodModes !== undefined ? { periodModes } : {}),
+    ...(periodCandidates !== undefined ? { periodCandidates } : {}),
     ...(periodogramPeriod !== undefined ? { periodogramPeriod } : {}),
     posteriorSample: posteriorSample(fields.object("posteriorSample")),
     ...(chainTraces !== undefined ? { chainTraces } : {}),

@@ -136,6 +136,11 @@ function periodMarks(input: ReportInput): PeriodMarks | undefined {
   }
   const peak = result.periodogramPeriod;
   if (peak !== undefined && distinct(peak)) candidates.push({ period: peak, label: `highest peak ${formatSignificant(peak, 4)} ${unit}` });
+  for (const candidate of result.periodCandidates ?? []) {
+    if (distinct(candidate.period)) {
+      candidates.push({ period: candidate.period, label: `candidate ${formatSignificant(candidate.period, 4)} ${unit}, ${formatProbability(candidate.probability)}` });
+    }
+  }
   return { median: period.median, lower95: period["q2.5"], upper95: period["q97.5"], candidates };
 }
 

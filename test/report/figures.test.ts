@@ -175,14 +175,17 @@ describe("spectrum figure of a periodic model", () => {
   const period = { ...input.result.parameters["tau"], median: 7.4, q16: 7.35, q84: 7.45, "q2.5": 7.3, "q97.5": 7.5 };
   const periodic: ReportInput = {
     ...input,
-    result: { ...input.result, model: "quasi-periodic", parameters: { period }, periodModes: [{ period: 7.4, probability: 0.97 }, { period: 22.2, probability: 0.03 }], periodogramPeriod: 14.8 },
+    result: { ...input.result, model: "quasi-periodic", parameters: { period }, periodModes: [{ period: 7.4, probability: 0.97 }, { period: 22.2, probability: 0.03 }], periodogramPeriod: 14.8,
+      // The candidates weighed before sampling: P itself (inside the interval, not marked again), 2P (the peak, marked once) and 6P.
+      periodCandidates: [{ period: 7.41, probability: 0.9 }, { period: 14.8, probability: 0.06 }, { period: 44.4, probability: 0.04 }] },
   };
   it("shades the period's 95% interval in frequency and period, marks the alias candidates, adds a period panel", async () => {
     const figure = spectrumFigure(periodic)!;
     const data = datasets(figure.spec);
     expect(data["period-interval"]).toEqual([{ f: 1 / 7.5, f2: 1 / 7.3, period: 7.3, period2: 7.5 }]);
     const candidates = data["alias-candidates"] as unknown as { period: number; label: string }[];
-    expect(candidates.map((c) => c.period)).toEqual([22.2, 14.8]);
+    expect(candidates.map((c) => c.period)).toEqual([22.2, 14.8, 44.4]);
+    expect(candidates[2].label).toBe("candidate 44.4 d, p = 0.04");
     expect(candidates[0].label).toBe("mode 22.2 d, p = 0.03");
     expect((figure.spec as { vconcat?: unknown[] }).vconcat).toHaveLength(2);
     const texts = svgTexts(await renderSvg(figure));
