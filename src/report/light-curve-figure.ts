@@ -192,7 +192,7 @@ export function lightCurveFigure(input: ReportInput): ReportFigure {
         : `Error bars are left out above ${MAX_POINTS_WITH_ERROR_BARS} points; the median 1σ error is ${formatSignificant(medianOf(lightCurve.error), 2)} ${valueUnit}.`;
   const thinNote =
     drawn.length < n
-      ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn${allOutliers.length + allBeyond.length > 0 ? `, and ${allOutliers.length + allBeyond.length > outlierRows.length + beyondRows.length ? `up to ${MAX_MARKED_DRAWN} of` : "every"} flagged and off-axis point${allOutliers.length + allBeyond.length === 1 ? "" : "s"} besides` : ""}.`
+      ? ` An evenly spaced ${drawn.length} of the ${n} points are drawn${allOutliers.length + allBeyond.length > 0 ? `, and ${allOutliers.length + allBeyond.length > outlierRows.length + beyondRows.length ? `up to ${MAX_MARKED_DRAWN} each of the flagged and off-axis points` : "every flagged and off-axis point"} besides` : ""}.`
       : "";
   const drawnOf = (drawnCount: number, all: number) => (drawnCount < all ? ` (an evenly spaced ${drawnCount} of them drawn)` : "");
   const outlierNote =
