@@ -1,4 +1,4 @@
-import { logUniformPrior, uniformPrior, type ParameterSpec } from "../inference/index.js";
+import { logUniformPrior, type ParameterSpec } from "../inference/index.js";
 import { kernels } from "../kernels/index.js";
 import type { KernelTerm } from "./kernel-term.js";
 
@@ -75,8 +75,15 @@ export interface CarmaScales {
  * Priors and a first guess of the CARMA parameters other than sigma, from the data's scales: periods
  * log-uniform from the shortest resolvable period to the baseline; qualities log-uniform on [0.05, 1000]
  * (either side of 1/2: complex or real root pairs); the real root's timescale as the damped random walk's
- * (a tenth of the median cadence to ten times the baseline); moving-average coefficient j uniform on
- * (0, (baseline / 2 pi)^j], the scale at which |b(i w)| departs from 1 at the lowest frequency the data see.
+ * (a tenth of the median cadence to ten times the baseline); moving-average coefficient j (units time^j)
+ * log-uniform on [(medianCadence / 10)^j, (baseline / 2 pi)^j], i.e. ma_j^(1/j) log-uniform between the
+ * timescales: a tenth of the median cadence, below which b(i w) differs from 1 only at frequencies the
+ * sampling does not resolve (the tau prior's lower bound), and baseline / 2 pi, where |b(i w)| departs
+ * from 1 at the lowest frequency the data see; above it b(i w) ~ ma_q (i w)^q over the whole observed band
+ * and the PSD's shape no longer changes with the coefficient. Log-uniform like every other timescale: the
+ * data often constrain a coefficient only weakly (above a spectral bump the PSD falls as w^(2q - 2p)
+ * whatever ma_q is), and a uniform prior on (0, (baseline / 2 pi)^j] put most of its mass on the longest
+ * values (bench/README.md, "CARMA order choice by evidence": 91% above a true 25 d for a 286 d bound).
  * Positive coefficients because the likelihood sees only |b(i w)|^2, which is unchanged when a root of b
  * is reflected across the imaginary axis: the minimum-phase b (roots with negative real parts; Kelly et
  * al. 2014, sec. 2) is the identifiable one, and for q <= 2 it is exactly the b with positive
@@ -95,14 +102,17 @@ export function carmaPriors(order: CarmaOrder, scales: CarmaScales): { specs: Pa
     guess[`period${k}`] = Math.min(Math.sqrt(shortestPeriod * baseline) * Math.pow(3, k), baseline / 1.5);
     guess[`quality${k}`] = 0.8 + 0.7 * k;
   }
+  const shortestTimescale = medianCadence / 10;
   if (order.p % 2 === 1) {
-    specs.push({ name: "tau0", prior: logUniformPrior(medianCadence / 10, 10 * baseline) });
+    specs.push({ name: "tau0", prior: logUniformPrior(shortestTimescale, 10 * baseline) });
     guess.tau0 = Math.max(baseline / 10, medianCadence);
   }
-  const scale = baseline / (2 * Math.PI);
+  const longestTimescale = baseline / (2 * Math.PI);
+  // A tenth of the longest, kept inside the range when the light curve has only a few visits.
+  const guessTimescale = Math.max(longestTimescale / 10, Math.sqrt(shortestTimescale * longestTimescale));
   for (let j = 1; j <= order.q; j++) {
-    specs.push({ name: `ma${j}`, prior: uniformPrior(0, Math.pow(scale, j)) });
-    guess[`ma${j}`] = Math.pow(scale / 10, j);
+    specs.push({ name: `ma${j}`, prior: logUniformPrior(Math.pow(shortestTimescale, j), Math.pow(longestTimescale, j)) });
+    guess[`ma${j}`] = Math.pow(guessTimescale, j);
   }
   return { specs, guess };
 }
