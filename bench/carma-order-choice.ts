@@ -12,14 +12,21 @@
  * Slow (ten optimisations, ten evidence estimates and one fit per light curve): run it at low priority.
  * Nothing is asserted.
  *
- *   nice -n 19 npx tsx bench/carma-order-choice.ts [--curves K] [--first K0] [--skip-fit | --fit-only] > carma-order.md
+ * `--ma1-from-prior`: each light curve's ma1 is drawn from the fit's own prior on it (`buildModel` on the
+ * light curve's times; a separate random stream), the other parameters as above, so the ma1 coverage is
+ * that of truths the prior could have produced (a check conditional on the fixed sigma, period0, quality0,
+ * which the data constrain well; not a full simulation-based calibration).
+ *
+ *   nice -n 19 npx tsx bench/carma-order-choice.ts [--curves K] [--first K0] [--skip-fit | --fit-only] [--ma1-from-prior] > carma-order.md
  */
 import { GaussianProcess } from "../src/gp/gaussian-process.js";
 import { kernels } from "../src/kernels/index.js";
 import { seasonalGroundCadence } from "../src/lightcurve/cadence.js";
 import type { LightCurve } from "../src/lightcurve/light-curve.js";
 import { compareModels } from "../src/models/compare-models.js";
+import { summarizeLightCurve } from "../src/models/data-summary.js";
 import { fitLightCurve } from "../src/models/fit-light-curve.js";
+import { buildModel } from "../src/models/light-curve-model.js";
 import { createRng } from "../src/random/rng.js";
 import { formatSignificant, markdownTable } from "./engine-timing.js";
 
@@ -31,23 +38,29 @@ function argument(name: string, fallback: number): number {
   return index >= 0 ? Number(process.argv[index + 1]) : fallback;
 }
 
-function simulated(k: number): LightCurve {
+function lightCurveOf(k: number, time: Float64Array, value: Float64Array): LightCurve {
+  const error = Float64Array.from(time, () => ERROR);
+  return { time, value, error, unit: "mag", provenance: { source: `carma-${k}`, timeColumn: "t", valueColumn: "mag", errorColumn: "err", dropped: 0, sorted: false } };
+}
+
+/** ma1 drawn from the CARMA(2,1) fit's prior on it, which depends only on the times (cadence and baseline). */
+function ma1FromPrior(k: number, time: Float64Array): number {
+  const summary = summarizeLightCurve(lightCurveOf(k, time, Float64Array.from(time, (_, i) => i % 2)));
+  const prior = buildModel("carma", summary, { order: { p: 2, q: 1 } }).space.free.find((p) => p.name === "ma1")!.prior;
+  return prior.quantile(createRng(`bench:carma-order:ma1:${k}`).uniform());
+}
+
+function simulated(k: number, drawMa1: boolean): { lightCurve: LightCurve; truth: Record<string, number> } {
   const rng = createRng(`bench:carma-order:${k}`);
   const time = seasonalGroundCadence({ seasons: 6, revisitInterval: 2 }, rng);
+  const truth: Record<string, number> = drawMa1 ? { ...TRUTH, ma1: ma1FromPrior(k, time) } : { ...TRUTH };
   const kernel = kernels.carma({
-    sigma: TRUTH.sigma ?? 0,
-    oscillations: [{ period: TRUTH.period0 ?? 0, quality: TRUTH.quality0 ?? 0 }],
-    movingAverage: [TRUTH.ma1 ?? 0],
+    sigma: truth.sigma ?? 0,
+    oscillations: [{ period: truth.period0 ?? 0, quality: truth.quality0 ?? 0 }],
+    movingAverage: [truth.ma1 ?? 0],
   });
   const latent = new GaussianProcess(kernel, time).priorDraw(rng);
-  const error = Float64Array.from(time, () => ERROR);
-  return {
-    time,
-    value: Float64Array.from(latent, (v, i) => 19 + v + ERROR * rng.normal()),
-    error,
-    unit: "mag",
-    provenance: { source: `carma-${k}`, timeColumn: "t", valueColumn: "mag", errorColumn: "err", dropped: 0, sorted: false },
-  };
+  return { lightCurve: lightCurveOf(k, time, Float64Array.from(latent, (v) => 19 + v + ERROR * rng.normal())), truth };
 }
 
 function main(): void {
@@ -56,16 +69,17 @@ function main(): void {
   // Either half alone, to split a long run over processes: the order choice, or the (2,1) posterior.
   const skipFit = process.argv.includes("--skip-fit");
   const fitOnly = process.argv.includes("--fit-only");
+  const drawMa1 = process.argv.includes("--ma1-from-prior");
   const chosen = new Map<string, number>();
   const inside = { 68: new Map<string, number>(), 95: new Map<string, number>() };
   const names = Object.keys(TRUTH);
   const started = performance.now();
   let points = 0;
-  const header = ["curve", "N", "preferred order", "runner-up: ln B ± s.e. (scale)", "rank of (2,1)", ...names.map((n) => `${n} (${TRUTH[n]}) median (interval holding the truth)`), "(2,1) fit"];
+  const header = ["curve", "N", "preferred order", "runner-up: ln B ± s.e. (scale)", "rank of (2,1)", ...names.map((n) => `${n} (${drawMa1 && n === "ma1" ? "prior draw" : TRUTH[n]}) median (interval holding the truth)`), "(2,1) fit"];
   // The table row by row as the curves finish (a long run can be read, or stopped, part-way).
   console.log(markdownTable(header, []));
   for (let k = first; k < first + curves; k++) {
-    const lightCurve = simulated(k);
+    const { lightCurve, truth: truths } = simulated(k, drawMa1);
     points += lightCurve.time.length;
     const comparison = fitOnly ? undefined : compareModels(lightCurve, ["carma"], { seed: k + 1 });
     const preference = comparison?.carmaOrder;
@@ -75,13 +89,13 @@ function main(): void {
     const fit = skipFit ? undefined : fitLightCurve(lightCurve, { model: "carma", order: { p: 2, q: 1 }, seed: 100 + k });
     const medians = names.map((name) => {
       const summary = fit?.parameters[name];
-      const truth = TRUTH[name] ?? NaN;
+      const truth = truths[name] ?? NaN;
       if (!summary) return "-";
       const in68 = summary.q16 <= truth && truth <= summary.q84;
       const in95 = summary["q2.5"] <= truth && truth <= summary["q97.5"];
       if (in68) inside[68].set(name, (inside[68].get(name) ?? 0) + 1);
       if (in95) inside[95].set(name, (inside[95].get(name) ?? 0) + 1);
-      return `${formatSignificant(summary.median)} ${in68 ? "(68)" : in95 ? "(95)" : "(out)"}`;
+      return `${formatSignificant(summary.median)}${drawMa1 && name === "ma1" ? ` [truth ${formatSignificant(truth)}]` : ""} ${in68 ? "(68)" : in95 ? "(95)" : "(out)"}`;
     });
     const row = [
       String(k),

@@ -40,6 +40,27 @@ describe("CARMA model", () => {
     }
   });
 
+  it("moving-average coefficients are log-uniform from (medianCadence / 10)^j to (baseline / 2 pi)^j, the guess inside", () => {
+    // docs/priors.md, "CARMA": log-uniform like the other timescales (common practice for scale parameters).
+    const summary = summarizeLightCurve(simulated("carma:ma-prior"));
+    const model = buildModel("carma", summary, { order: { p: 3, q: 2 } });
+    const shortest = summary.medianCadence / 10;
+    const longest = summary.baseline / (2 * Math.PI);
+    for (const j of [1, 2]) {
+      const prior = model.space.free.find((p) => p.name === `ma${j}`)!.prior;
+      expect(prior.family).toBe("log-uniform");
+      expect(prior.settings.lower).toBeCloseTo(shortest ** j, 9);
+      expect(prior.settings.upper).toBeCloseTo(longest ** j, 9);
+      // Each decade of ma_j^(1/j) holds the same mass: the median timescale is the geometric mean.
+      expect(prior.quantile(0.5) ** (1 / j)).toBeCloseTo(Math.sqrt(shortest * longest), 6);
+      const guess = model.initialGuess[`ma${j}`]!;
+      expect(guess).toBeGreaterThan(prior.settings.lower!);
+      expect(guess).toBeLessThan(prior.settings.upper!);
+    }
+    // Tau0 keeps the damped random walk's lower bound, the same shortest timescale.
+    expect(model.space.free.find((p) => p.name === "tau0")!.prior.settings.lower).toBeCloseTo(shortest, 12);
+  });
+
   it("coincident autoregressive roots are an impossible point (-Infinity), not an internal error", () => {
     const lightCurve = simulated("carma:coincident");
     const model = buildModel("carma", summarizeLightCurve(lightCurve), { order: { p: 3, q: 0 } });
