@@ -12,7 +12,8 @@ import { createRng } from "../../src/random/rng.js";
  * when the modes' draws were pooled; mended by hand, 19 of 20 truths were inside the 95% interval. If the
  * posterior is calibrated the truth lies inside the central 95% interval of dominantPeriod (the period
  * to quote, which is `period` for the harmonicWeight of 0.2 simulated) 95% of the time; Binomial(20, 0.95)
- * is at least 17 with probability 0.98, so the test asks for 85%.
+ * is at least 17 with probability 0.98, so the test asks for 85%. Measured 2026-12-02 (importance sampling
+ * from the mode mixture, the default): 18/20 covered, 16/20 within 10%, 12/20 with several modes.
  */
 function sparseRotator(k: number): { lightCurve: LightCurve; period: number } {
   const rng = createRng(`sparse-rotator:${k}`);

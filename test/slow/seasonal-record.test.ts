@@ -11,7 +11,8 @@ import { createRng } from "../../src/random/rng.js";
  * harmonics), a slow trend and interannual noise, fitted with --background drw. Before it was reported
  * with period 1.999 yr (+-0.002) and harmonicWeight 0.94, one year outside the interval and nothing saying
  * that most of the variance sat at half that period. The cycle is exactly one year (365.25 d, by
- * construction, like the Mauna Loa record of test/slow/mauna-loa-co2.test.ts).
+ * construction, like the Mauna Loa record of test/slow/mauna-loa-co2.test.ts). Measured 2026-12-02:
+ * dominantPeriod 365.19 d [182.52, 365.68] (some draws at the half-year), period 365.26 d.
  */
 function weeklyRecord(): LightCurve {
   const rng = createRng("weekly-seasonal-record");
