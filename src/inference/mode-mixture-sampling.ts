@@ -42,7 +42,7 @@ export interface ModeMixtureSample extends ImportanceSample {
  *    modes), `defensiveShare` of the pilot draws; its heavy, wide tails bound the weights wherever the
  *    mode components are thin, including between the modes;
  * 3. every draw weighted by p / q_mix, q_mix the deterministic mixture of all components
- *    ({@link proposalMixture}); the mass of mode k is sum_s w_s r_sk with r_sk the responsibility of
+ *    (`proposalMixture`); the mass of mode k is sum_s w_s r_sk with r_sk the responsibility of
  *    mode k's components for draw s;
  * 4. while k-hat exceeds its threshold (or the ESS its minimum), a round of refitted components: for each
  *    mode with at least `minimumModeShare` of the mass, a t with the weighted mean and (times
