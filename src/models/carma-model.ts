@@ -83,7 +83,7 @@ export interface CarmaScales {
  * and the PSD's shape no longer changes with the coefficient. Log-uniform like every other timescale: the
  * data often constrain a coefficient only weakly (above a spectral bump the PSD falls as w^(2q - 2p)
  * whatever ma_q is), and a uniform prior on (0, (baseline / 2 pi)^j] put most of its mass on the longest
- * values (bench/README.md, "CARMA order choice by evidence": 91% above a true 25 d for a 286 d bound).
+ * values (bench/README.md, "CARMA order choice by evidence": 92% above a true 25 d for a 319 d bound).
  * Positive coefficients because the likelihood sees only |b(i w)|^2, which is unchanged when a root of b
  * is reflected across the imaginary axis: the minimum-phase b (roots with negative real parts; Kelly et
  * al. 2014, sec. 2) is the identifiable one, and for q <= 2 it is exactly the b with positive
