@@ -278,7 +278,7 @@ export class MultiBandProcess {
 
   /**
    * The joint order for these lags (cached: without lags it is computed once per set of bands; a lag
-   * step repairs the last order, see {@link JointOrder}).
+   * step repairs the last order, see `JointOrder`).
    */
   private joint(lag: Float64Array): JointOrder {
     const cached = this.bands.order;
