@@ -109,7 +109,7 @@ function main(): void {
       ["median width ratio ln(q84/q16), joint / best single band", formatSignificant(median(widthRatios)), "-"],
       ["amplitude ratios in their 68% interval", `${amplitudeIn68} of ${amplitudeCount}`, amplitudeCount ? `${binomialQuantile(0.025, amplitudeCount, 0.68)}-${binomialQuantile(0.975, amplitudeCount, 0.68)}` : "-"],
       ["median amplitude-ratio error %", formatSignificant(100 * median(amplitudeErrors), 2), "-"],
-      ...(lags ? [["lags in their 68% / 95% intervals", `${lagIn68} / ${lagIn95} of ${lagCount}`, lagCount ? `${band(0.68)} / ${band(0.95)} (per light curve count)` : "-"]] : []),
+      ...(lags ? [["lags in their 68% / 95% intervals", `${lagIn68} / ${lagIn95} of ${lagCount}`, lagCount ? `${binomialQuantile(0.025, lagCount, 0.68)}-${binomialQuantile(0.975, lagCount, 0.68)} / ${binomialQuantile(0.025, lagCount, 0.95)}-${binomialQuantile(0.975, lagCount, 0.95)}` : "-"]] : []),
     ]));
     const { histograms, pValues } = rankUniformity(ranks, 99, 10);
     console.log("\n" + markdownTable(["parameter", "rank histogram (10 bins)", "chi-square p"], ranked.map((name, i) => [name, (histograms[i] ?? []).join(" "), formatSignificant(pValues[i] ?? NaN)])));
