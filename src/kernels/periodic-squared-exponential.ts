@@ -1,6 +1,7 @@
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { Kernel } from "./kernel.js";
 import { fixedParameterFamily, STANDARD_DEVIATION } from "./kernel-family.js";
+import { logGamma } from "../numerics/log-gamma.js";
 import { requirePositive } from "./parameter-checks.js";
 
 /** Parameters of the squared-exponential times periodic kernel. */
@@ -96,7 +97,7 @@ export class PeriodicSquaredExponentialKernel extends Kernel {
 /** e^{-z} I_n(z) from the power series I_n(z) = sum (z/2)^{2k+n} / (k! (k+n)!) (Abramowitz & Stegun 9.6.10). */
 function scaledBesselI(n: number, z: number): number {
   const half = z / 2;
-  let logTerm = n * Math.log(half) - logFactorial(n) - z;
+  let logTerm = n * Math.log(half) - logGamma(n + 1) - z;
   let total = 0;
   for (let k = 0; k < 500; k++) {
     const term = Math.exp(logTerm);
@@ -107,11 +108,6 @@ function scaledBesselI(n: number, z: number): number {
   return total;
 }
 
-function logFactorial(n: number): number {
-  let total = 0;
-  for (let i = 2; i <= n; i++) total += Math.log(i);
-  return total;
-}
 
 /** The periodicSquaredExponential descriptor: `kernels.periodicSquaredExponential` (dense engine only, so not in the CLI). */
 export const periodicSquaredExponentialFamily = fixedParameterFamily({
