@@ -2,10 +2,9 @@ import type { Kernel } from "../kernels/kernel.js";
 import type { SemiseparableForm } from "../linalg/semiseparable-form.js";
 import { bandScaledLogLikelihood } from "../linalg/band-scaled-likelihood.js";
 import { semiseparableLogLikelihoodGradient } from "../linalg/semiseparable-gradient.js";
-import { semiseparableLogLikelihood } from "../linalg/semiseparable-likelihood.js";
 import { semiseparablePredict } from "../linalg/semiseparable-smoother.js";
 import type { BandScaling } from "../linalg/unrolled-recursion.js";
-import { mergeBands, reshiftMerge, type BandMerge } from "./band-merge.js";
+import { bandColumns, emptyMerge, expectedMoves, mergeBands, reshiftMerge, type BandColumns, type BandMerge } from "./band-merge.js";
 import { bandMeanSums, integrateBandMeans, type BandMeanMarginal, type BandMeanPrior } from "./band-mean-sums.js";
 
 /** The observations of one band. */
@@ -60,30 +59,27 @@ export interface ConditionedBands {
 /** Validated times and errors of all bands, shared by every parameter vector. */
 interface CheckedBands {
   readonly names: readonly string[];
+  /** Times, errors^2 and values, band after band (flat numbering). */
+  readonly columns: BandColumns;
+  /** Each band's times (views into `columns.time`). */
   readonly times: readonly Float64Array[];
-  /** errors^2 and values, band after band (flat numbering). */
-  readonly errorVariance: Float64Array;
-  readonly values: Float64Array;
-  readonly offsets: Int32Array;
   readonly counts: Int32Array;
+  /** Last minus first time over all bands (1 for a single epoch). */
+  readonly baseline: number;
   /** The last joint order computed, for the lags it was computed for. */
   order?: JointOrder;
 }
 
 /**
- * A joint order with the times (before the shift), values and squared errors laid out in it, the per-band
- * constants the engine scales them with (`scaling`), and scratch for the scaled residuals and noise
- * variances of the passes that need them as arrays (gradient, predictions, means integrated out). Every
- * array is reused: a new lag vector repairs the order in place (`reshiftMerge`), or merges the bands
- * again into the same buffers when it moved them too far.
+ * A joint order with the data laid out in it (`merge`), the per-band constants the engine scales them with
+ * (`scaling`), and scratch for the scaled residuals and noise variances of the passes that need them as
+ * arrays (gradient, predictions). Every array is reused: a new lag vector repairs the order in place
+ * (`reshiftMerge`), or merges the bands again into the same buffers when it moves them too far.
  */
 interface JointOrder {
   /** The lags `merge` was computed for. */
   readonly lags: Float64Array;
   readonly merge: BandMerge;
-  readonly rawTime: Float64Array;
-  readonly errorVariance: Float64Array;
-  readonly jointValues: Float64Array;
   readonly residual: Float64Array;
   readonly noise: Float64Array;
   readonly scaling: BandScaling;
@@ -92,10 +88,15 @@ interface JointOrder {
 const isFiniteValue = (x: number): boolean => x - x === 0;
 
 /**
- * A changed lag vector repairs the last joint order by insertion while that needs at most this many moves
- * per point; beyond, a new B-way merge (O(N B)) is cheaper.
+ * A changed lag vector repairs the last joint order by insertion while that is expected to need at most
+ * this many moves per point (`expectedMoves`); beyond, a new B-way merge (O(N B)) is cheaper. Measured
+ * (bench/README.md, "Re-merging the bands"): a merge costs about 30-40 ns per point, a repair about 6 ns per
+ * point plus about 30 per move, and the estimate runs 0.7 of the moves made on seasonal cadences.
  */
-const REPAIR_MOVES_PER_POINT = 2;
+const REPAIR_MOVES_PER_POINT = 0.5;
+
+/** A repair whose estimate was too low gives up after this many times the moves it was expected to need at most. */
+const REPAIR_MOVES_CAP = 2;
 
 /**
  * One latent Gaussian process f seen in several bands: band b observes m_b + a_b f(t - l_b) + noise, so
@@ -163,7 +164,7 @@ export class MultiBandProcess {
   logLikelihood(): number {
     const order = this.joint(this.lag);
     const scaling = this.scalingIn(order, this.mean);
-    return bandScaledLogLikelihood(this.form, order.merge.time, order.errorVariance, order.jointValues, scaling) - this.logAmplitudeSum();
+    return bandScaledLogLikelihood(this.form, order.merge.time, order.merge.errorVariance, order.merge.values, scaling) - this.logAmplitudeSum();
   }
 
   /** The order's per-band constants for this process: 1 / a_b, the given shift (the means), j_b^2. */
@@ -232,7 +233,7 @@ export class MultiBandProcess {
     if (priors.length !== count) throw new RangeError(`MultiBandProcess: ${priors.length} mean priors for ${count} bands`);
     const order = this.joint(this.lag);
     const scaling = this.scalingIn(order, Float64Array.from(priors, (prior) => prior.mean));
-    const sums = bandMeanSums(this.form, order.merge.time, order.errorVariance, order.jointValues, scaling);
+    const sums = bandMeanSums(this.form, order.merge.time, order.merge.errorVariance, order.merge.values, scaling);
     return integrateBandMeans(sums, priors, 2 * this.logAmplitudeSum(), order.merge.time.length);
   }
 
@@ -283,35 +284,16 @@ export class MultiBandProcess {
   private joint(lag: Float64Array): JointOrder {
     const cached = this.bands.order;
     if (cached && sameValues(cached.lags, lag)) return cached;
-    const { times, offsets, errorVariance, values } = this.bands;
-    if (cached) {
-      const carried = [cached.rawTime, cached.errorVariance, cached.jointValues];
-      if (reshiftMerge(cached.merge, cached.rawTime, lag, carried, REPAIR_MOVES_PER_POINT * cached.rawTime.length)) {
-        cached.lags.set(lag);
-        return cached;
-      }
-    }
-    const merge = mergeBands(times, lag, offsets, cached?.merge);
-    const total = merge.time.length;
-    const count = times.length;
-    const order: JointOrder = cached ?? {
-      lags: new Float64Array(count),
-      merge,
-      rawTime: new Float64Array(total),
-      errorVariance: new Float64Array(total),
-      jointValues: new Float64Array(total),
-      residual: new Float64Array(total),
-      noise: new Float64Array(total),
-      scaling: { band: merge.band, inverse: new Float64Array(count), shift: new Float64Array(count), extra: new Float64Array(count) },
-    };
+    const { columns, baseline } = this.bands;
+    const total = columns.time.length;
+    const limit = REPAIR_MOVES_PER_POINT * total;
+    const repaired =
+      cached !== undefined &&
+      expectedMoves(columns.offsets, cached.lags, lag, baseline) <= limit &&
+      reshiftMerge(cached.merge, lag, REPAIR_MOVES_CAP * limit);
+    const order = cached ?? newOrder(total, lag.length);
+    if (!repaired) mergeBands(columns, lag, order.merge);
     order.lags.set(lag);
-    for (let k = 0; k < total; k++) {
-      const s = merge.source[k];
-      const b = merge.band[k];
-      order.rawTime[k] = times[b][s - offsets[b]];
-      order.errorVariance[k] = errorVariance[s];
-      order.jointValues[k] = values[s];
-    }
     this.bands.order = order;
     return order;
   }
@@ -320,8 +302,8 @@ export class MultiBandProcess {
    * Scaled residuals (y - m_b) / a_b and noise variances (e^2 + j_b^2) / a_b^2 in joint order, in the
    * order's scratch arrays (valid until the next call on a process of the same bands).
    */
-  private scaled(lag = this.lag): { merge: BandMerge; residual: Float64Array; noise: Float64Array } {
-    const order = this.joint(lag);
+  private scaled(): { merge: BandMerge; residual: Float64Array; noise: Float64Array } {
+    const order = this.joint(this.lag);
     const count = this.amplitude.length;
     const inverse = new Float64Array(count);
     const extra = new Float64Array(count);
@@ -330,12 +312,12 @@ export class MultiBandProcess {
       inverse[b] = 1 / this.amplitude[b];
       extra[b] = this.jitter[b] * this.jitter[b];
     }
-    const { merge, errorVariance, jointValues, residual, noise } = order;
-    const band = merge.band;
+    const { merge, residual, noise } = order;
+    const { band, errorVariance, values } = merge;
     for (let k = 0; k < residual.length; k++) {
       const b = band[k];
       const w = inverse[b];
-      residual[k] = (jointValues[k] - shift[b]) * w;
+      residual[k] = (values[k] - shift[b]) * w;
       noise[k] = (errorVariance[k] + extra[b]) * w * w;
     }
     return { merge, residual, noise };
@@ -349,13 +331,14 @@ export class MultiBandProcess {
     const count = this.lag.length;
     const out = new Float64Array(count);
     if (count < 2) return out;
-    const step = 1e-6 * this.baseline();
+    const step = 1e-6 * this.bands.baseline;
     const shifted = Float64Array.from(this.lag);
     const at = (b: number, offset: number): number => {
       shifted[b] = this.lag[b] + offset;
-      const { merge, residual, noise } = this.scaled(shifted);
+      const order = this.joint(shifted);
       shifted[b] = this.lag[b];
-      return semiseparableLogLikelihood(this.form, merge.time, noise, residual);
+      const { time, errorVariance, values } = order.merge;
+      return bandScaledLogLikelihood(this.form, time, errorVariance, values, this.scalingIn(order, this.mean));
     };
     for (let b = 0; b < count; b++) {
       const wide = (at(b, step) - at(b, -step)) / (2 * step);
@@ -364,17 +347,18 @@ export class MultiBandProcess {
     }
     return out;
   }
+}
 
-  private baseline(): number {
-    let first = Infinity;
-    let last = -Infinity;
-    for (const t of this.bands.times) {
-      if (t.length === 0) continue;
-      first = Math.min(first, t[0]);
-      last = Math.max(last, t[t.length - 1]);
-    }
-    return last > first ? last - first : 1;
-  }
+/** Buffers for a joint order of `total` points in `count` bands. */
+function newOrder(total: number, count: number): JointOrder {
+  const merge = emptyMerge(total);
+  return {
+    lags: new Float64Array(count),
+    merge,
+    residual: new Float64Array(total),
+    noise: new Float64Array(total),
+    scaling: { band: merge.band, inverse: new Float64Array(count), shift: new Float64Array(count), extra: new Float64Array(count) },
+  };
 }
 
 function sameValues(a: Float64Array, b: Float64Array): boolean {
@@ -425,5 +409,14 @@ function checkBands(bands: readonly BandObservations[]): CheckedBands {
     }
     return t;
   });
-  return { names, times, errorVariance, values, offsets, counts };
+  const columns = bandColumns(times, errorVariance, values);
+  let first = Infinity;
+  let last = -Infinity;
+  for (const t of times) {
+    if (t.length === 0) continue;
+    first = Math.min(first, t[0]);
+    last = Math.max(last, t[t.length - 1]);
+  }
+  const views = times.map((_, b) => columns.time.subarray(columns.offsets[b], columns.offsets[b + 1]));
+  return { names, columns, times: views, counts, baseline: last > first ? last - first : 1 };
 }

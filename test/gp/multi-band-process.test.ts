@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { mergeBands, reshiftMerge } from "../../src/gp/band-merge.js";
+import { bandColumns, expectedMoves, mergeBands, reshiftMerge } from "../../src/gp/band-merge.js";
 import { MultiBandProcess } from "../../src/gp/multi-band-process.js";
 import { kernels, type Kernel } from "../../src/kernels/index.js";
 import { createRng } from "../../src/random/rng.js";
@@ -117,10 +117,14 @@ describe("multi-band process against dense linear algebra", () => {
   });
 
   it("merges shifted bands in time order, ties to the band listed first", () => {
-    const merge = mergeBands([Float64Array.of(0, 2, 4), Float64Array.of(1, 3)], [0, 1], [0, 3]);
+    const columns = bandColumns([Float64Array.of(0, 2, 4), Float64Array.of(1, 3)], Float64Array.of(1, 2, 3, 4, 5), Float64Array.of(10, 20, 30, 40, 50));
+    const merge = mergeBands(columns, [0, 1]);
     expect(Array.from(merge.time)).toEqual([0, 0, 2, 2, 4]);
     expect(Array.from(merge.band)).toEqual([0, 1, 0, 1, 0]);
     expect(Array.from(merge.source)).toEqual([0, 3, 1, 4, 2]);
+    expect(Array.from(merge.unshifted)).toEqual([0, 1, 2, 3, 4]);
+    expect(Array.from(merge.errorVariance)).toEqual([1, 4, 2, 5, 3]);
+    expect(Array.from(merge.values)).toEqual([10, 40, 20, 50, 30]);
   });
 
   it("repairs its joint order in place as the lags move: the same order and likelihood as a new merge", () => {
@@ -128,7 +132,6 @@ describe("multi-band process against dense linear algebra", () => {
     const bands = threeBands("joint:reshift").map((b, k) => ({ name: "gri"[k], time: b.time, values: b.values, errors: b.errors }));
     const kernel = kernels.dampedRandomWalk({ sigma: 0.3, tau: 80 });
     const base = new MultiBandProcess(kernel, bands, parameters(false));
-    const offsets = [0, bands[0].time.length, bands[0].time.length + bands[1].time.length];
     // Small steps (a few points swap), a jump of months (a new merge), back to zero, a tie with band 0.
     const tie = bands[0].time[10] - bands[1].time[3];
     for (const lag of [[0, 0.3, -0.2], [0, 0.9, -0.7], [0, 2.5, 1.1], [0, 120, -95], [0, 0, 0], [0, -tie, 0]]) {
@@ -138,21 +141,26 @@ describe("multi-band process against dense linear algebra", () => {
       expect(repaired.logLikelihood()).toBe(fresh.logLikelihood());
       expect(repaired.logLikelihoodGradient({ lags: false }).value).toBe(fresh.logLikelihoodGradient({ lags: false }).value);
     }
-    // The repair itself: in place, the merge's order, with the carried arrays moved along.
-    const times = bands.map((b) => b.time);
-    const start = mergeBands(times, [0, 0, 0], offsets);
-    const flat = Float64Array.from(times.flatMap((t) => Array.from(t)));
-    const unshifted = Float64Array.from(start.source, (s) => flat[s]);
-    const label = Float64Array.from(start.source, (s) => s + 0.5);
+    // The repair itself: in place, the merge's order, with every carried array moved along.
+    const flatValues = Float64Array.from(bands.flatMap((b) => Array.from(b.values)));
+    const columns = bandColumns(bands.map((b) => b.time), Float64Array.from(flatValues, (_, s) => s + 0.5), flatValues);
+    const start = mergeBands(columns, [0, 0, 0]);
     for (const lag of [[0, 0.4, -0.3], [0, -tie, 0], [0, 3, 2]]) {
-      expect(reshiftMerge(start, unshifted, lag, [unshifted, label], 1e9)).toBe(true);
-      const fresh = mergeBands(times, lag, offsets);
-      expect(Array.from(start.time)).toEqual(Array.from(fresh.time));
-      expect(Array.from(start.band)).toEqual(Array.from(fresh.band));
-      expect(Array.from(start.source)).toEqual(Array.from(fresh.source));
-      expect(Array.from(label)).toEqual(Array.from(fresh.source, (s) => s + 0.5));
+      expect(reshiftMerge(start, lag, 1e9)).toBe(true);
+      const fresh = mergeBands(columns, lag);
+      for (const key of ["time", "band", "source", "unshifted", "errorVariance", "values"] as const)
+        expect(Array.from(start[key]), key).toEqual(Array.from(fresh[key]));
     }
-    expect(reshiftMerge(start, unshifted, [0, 300, -300], [unshifted, label], 10)).toBe(false); // too many moves
+    expect(reshiftMerge(start, [0, 300, -300], 10)).toBe(false); // too many moves
+    const permuted = Array.from(start.source).sort((a, b) => a - b);
+    expect(permuted).toEqual(Array.from(permuted, (_, s) => s)); // a permutation is left behind
+  });
+
+  it("expects insertion moves in proportion to the relative lag change and both bands' densities", () => {
+    // n_b n_c |d_b - d_c| / span: bands of 100 and 50 points over 200 d, band 1 moved 2 d against band 0.
+    const offsets = Int32Array.of(0, 100, 150);
+    expect(expectedMoves(offsets, [0, 0], [0, 2], 200)).toBeCloseTo((100 * 50 * 2) / 200, 12);
+    expect(expectedMoves(offsets, [0, 0], [3, 3], 200)).toBe(0); // the same shift for every band moves nothing
   });
 
   it("rejects bad band parameters with a message naming them", () => {
