@@ -91,7 +91,7 @@ const isFiniteValue = (x: number): boolean => x - x === 0;
  * A changed lag vector repairs the last joint order by insertion while that is expected to need at most
  * this many moves per point (`expectedMoves`); beyond, a new B-way merge (O(N B)) is cheaper. Measured
  * (bench/README.md, "Re-merging the bands"): a merge costs about 30-40 ns per point, a repair about 6 ns per
- * point plus about 30 per move, and the estimate runs 0.7 of the moves made on seasonal cadences.
+ * point plus about 30 per move, and on seasonal cadences the estimate is about 0.7 of the moves made.
  */
 const REPAIR_MOVES_PER_POINT = 0.5;
 
