@@ -8,7 +8,10 @@
  * bump the PSD falls as f^-2, not f^-4), sigma 0.2 mag; six seasons, a night every 2 d, 0.015 mag errors.
  *
  * Prints, per light curve, the preferred order, ln B over the runner-up with its standard error, the rank
- * of CARMA(2,1), and the (2,1) posterior medians; then how often each order was chosen and the coverage.
+ * of CARMA(2,1), the estimator of each evidence (importance sampling, bridge sampling from MCMC draws, or
+ * Laplace: the orders not by importance sampling named with their k-hat), the comparison's CPU seconds,
+ * and the (2,1) posterior medians; then how often each order was chosen, the evidences by estimator (all,
+ * and among the top two of each comparison), and the coverage.
  * Slow (ten optimisations, ten evidence estimates and one fit per light curve): run it at low priority.
  * Nothing is asserted.
  *
@@ -75,13 +78,27 @@ function main(): void {
   const names = Object.keys(TRUTH);
   const started = performance.now();
   let points = 0;
-  const header = ["curve", "N", "preferred order", "runner-up: ln B ± s.e. (scale)", "rank of (2,1)", ...names.map((n) => `${n} (${drawMa1 && n === "ma1" ? "prior draw" : TRUTH[n]}) median (interval holding the truth)`), "(2,1) fit"];
+  const estimators = { all: new Map<string, number>(), topTwo: new Map<string, number>() };
+  const comparisonSeconds: number[] = [];
+  const header = ["curve", "N", "preferred order", "runner-up: ln B ± s.e. (scale)", "rank of (2,1)", "evidences by importance / bridge / Laplace (orders not by importance: k-hat)", "comparison CPU s", ...names.map((n) => `${n} (${drawMa1 && n === "ma1" ? "prior draw" : TRUTH[n]}) median (interval holding the truth)`), "(2,1) fit"];
   // The table row by row as the curves finish (a long run can be read, or stopped, part-way).
   console.log(markdownTable(header, []));
   for (let k = first; k < first + curves; k++) {
     const { lightCurve, truth: truths } = simulated(k, drawMa1);
     points += lightCurve.time.length;
+    const cpuBefore = process.cpuUsage().user;
     const comparison = fitOnly ? undefined : compareModels(lightCurve, ["carma"], { seed: k + 1 });
+    const cpu = (process.cpuUsage().user - cpuBefore) / 1e6;
+    if (comparison) comparisonSeconds.push(cpu);
+    comparison?.ranking.forEach((s, i) => {
+      estimators.all.set(s.evidenceMethod, (estimators.all.get(s.evidenceMethod) ?? 0) + 1);
+      if (i < 2) estimators.topTwo.set(s.evidenceMethod, (estimators.topTwo.get(s.evidenceMethod) ?? 0) + 1);
+    });
+    const byMethod = (method: string) => comparison?.ranking.filter((s) => s.evidenceMethod === method).length ?? 0;
+    const others = comparison?.ranking
+      .filter((s) => s.evidenceMethod !== "importance")
+      .map((s) => `${s.label} ${s.evidenceMethod} (k-hat ${s.evidenceParetoShape?.toFixed(2) ?? "none"})`)
+      .join(", ");
     const preference = comparison?.carmaOrder;
     const best = comparison?.ranking[0];
     if (best) chosen.set(best.label, (chosen.get(best.label) ?? 0) + 1);
@@ -103,6 +120,8 @@ function main(): void {
       best?.label ?? "-",
       preference ? `${preference.over}: ${preference.logBayesFactor.toFixed(2)} ± ${preference.standardError?.toFixed(2) ?? "laplace"} (${preference.strength})` : "-",
       rank > 0 ? String(rank) : "-",
+      comparison ? `${byMethod("importance")} / ${byMethod("bridge")} / ${byMethod("laplace")}${others ? `: ${others}` : ""}` : "-",
+      comparison ? cpu.toFixed(1) : "-",
       ...medians,
       fit ? (fit.diagnostics.converged ? fit.diagnostics.method : "not converged") : "-",
     ];
@@ -111,6 +130,13 @@ function main(): void {
   }
   console.log(`\nOrders chosen over ${curves} light curves (mean ${Math.round(points / curves)} points):`);
   console.log(markdownTable(["order", "chosen"], [...chosen.entries()].sort((a, b) => b[1] - a[1]).map(([order, count]) => [order, String(count)])));
+  const counts = (m: Map<string, number>) => ["importance", "bridge", "laplace"].map((method) => String(m.get(method) ?? 0));
+  console.log("\nEvidences by estimator:");
+  console.log(markdownTable(["evidences", "importance", "bridge", "laplace"], [["all orders", ...counts(estimators.all)], ["top two of each comparison", ...counts(estimators.topTwo)]]));
+  if (comparisonSeconds.length > 0) {
+    const sorted = [...comparisonSeconds].sort((a, b) => a - b);
+    console.log(`\nComparison CPU s: median ${sorted[Math.floor(sorted.length / 2)]?.toFixed(1)}, range ${sorted[0]?.toFixed(1)}-${sorted[sorted.length - 1]?.toFixed(1)}`);
+  }
   console.log(`\nTruth inside the CARMA(2,1) posterior's central intervals (of ${curves}; binomial expectation 68% -> ${(0.68 * curves).toFixed(1)}, 95% -> ${(0.95 * curves).toFixed(1)}):`);
   console.log(markdownTable(["parameter", "in 68%", "in 95%"], names.map((n) => [n, String(inside[68].get(n) ?? 0), String(inside[95].get(n) ?? 0)])));
   console.log(`\nwall ${((performance.now() - started) / 1000).toFixed(0)} s; CPU ${(process.cpuUsage().user / 1e6).toFixed(0)} s`);

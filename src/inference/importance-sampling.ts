@@ -40,6 +40,11 @@ export interface ImportanceSamplingOptions {
   /** Settings of the profile proposal. */
   readonly profileOptions?: ProfileProposalOptions;
   /**
+   * The covariance of a t at a mode (row-major d x d), undefined when there is none: default
+   * `modeCovariance`. A caller may supply one that copes with densities it knows to be awkward there.
+   */
+  readonly covariance?: (target: PosteriorTarget, mode: Float64Array) => Float64Array | undefined;
+  /**
    * Largest acceptable k-hat; default {@link paretoShapeThreshold} of the number of draws (0.67 at
    * 1000 draws, 0.7 from 2154).
    */
@@ -73,6 +78,11 @@ export interface ImportanceSample {
   readonly logPosterior: Float64Array;
   /** Pareto-smoothed normalised weights of the draws. */
   readonly weights: Float64Array;
+  /**
+   * ln p - ln q_mix of each draw, before smoothing (q_mix the mixture of every component, normalised):
+   * the mean of their exponentials estimates the target's normalising constant.
+   */
+  readonly logRatios: Float64Array;
   /** k-hat of the weights (NaN when the tail could not be fitted). */
   readonly paretoShape: number;
   /** The threshold k-hat was compared with. */
@@ -121,13 +131,14 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
     points: [],
     logPosterior: new Float64Array(0),
     weights: new Float64Array(0),
+    logRatios: new Float64Array(0),
     paretoShape: NaN,
     shapeThreshold: NaN,
     effectiveSampleSize: 0,
     rounds,
   });
 
-  const covariance = modeCovariance(target, mode);
+  const covariance = (options.covariance ?? modeCovariance)(target, mode);
   if (covariance === undefined) return empty("the log density is not curved downwards in every direction at the mode");
   const mixture = proposalMixture(target, rng);
   const { points, componentDraws } = mixture;
@@ -178,6 +189,7 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
     points,
     logPosterior: Float64Array.from(mixture.logPosterior),
     weights: smoothed.weights,
+    logRatios: mixture.logRatios(),
     paretoShape: smoothed.paretoShape,
     shapeThreshold,
     effectiveSampleSize: smoothed.effectiveSampleSize,

@@ -8,7 +8,7 @@ import { studentTProposal } from "./student-t-proposal.js";
 
 /** Options of {@link modeMixtureSample} (the names and defaults of {@link ImportanceSamplingOptions} where they share a meaning). */
 export interface ModeMixtureOptions
-  extends Pick<ImportanceSamplingOptions, "maxDraws" | "minimumEss" | "degreesOfFreedom" | "pilotInflation" | "shapeThreshold" | "refitInflation"> {
+  extends Pick<ImportanceSamplingOptions, "maxDraws" | "minimumEss" | "degreesOfFreedom" | "pilotInflation" | "shapeThreshold" | "refitInflation" | "covariance"> {
   /** Draws from each mode's Laplace component, the pilot round (default max(200, 50 d) in d dimensions). */
   readonly pilotDraws?: number;
   /** Draws from the refitted components of one round, shared by the modes in proportion to their mass (default max(400, 150 d)). */
@@ -70,7 +70,7 @@ export function modeMixtureSample(target: PosteriorTarget, modes: readonly Float
   // Distinct modes with their Laplace covariances.
   const kept: { mode: Float64Array; covariance: Float64Array }[] = [];
   for (const mode of modes) {
-    const covariance = modeCovariance(target, mode);
+    const covariance = (options.covariance ?? modeCovariance)(target, mode);
     if (covariance === undefined) continue;
     const twin = kept.some((k) => k.mode.every((v, i) => Math.abs(v - mode[i]) < 0.5 * Math.sqrt(k.covariance[i * d + i])));
     if (!twin) kept.push({ mode: Float64Array.from(mode), covariance });
@@ -83,6 +83,7 @@ export function modeMixtureSample(target: PosteriorTarget, modes: readonly Float
     points,
     logPosterior: Float64Array.from(mixture.logPosterior),
     weights: smoothed?.weights ?? new Float64Array(0),
+    logRatios: smoothed ? mixture.logRatios() : new Float64Array(0),
     paretoShape: smoothed?.paretoShape ?? NaN,
     shapeThreshold: smoothed ? threshold(points.length) : NaN,
     effectiveSampleSize: smoothed?.effectiveSampleSize ?? 0,

@@ -23,6 +23,11 @@ export interface ProposalMixture {
   add(proposal: ImportanceProposal): number;
   /** Takes `count` draws from component `j`, evaluating the target at each. */
   drawFrom(j: number, count: number): void;
+  /**
+   * ln p(x_s) - ln q_mix(x_s) of every draw so far, before smoothing: exp of their mean estimates the
+   * target's normalising constant (the deterministic-mixture estimator of Owen & Zhou 2000).
+   */
+  logRatios(): Float64Array;
   /** Pareto-smoothed weights of all draws so far. */
   smooth(): SmoothedWeights;
   /**
@@ -52,6 +57,13 @@ export function proposalMixture(target: PosteriorTarget, rng: Rng): ProposalMixt
     return largest + Math.log(sum);
   };
   const logSharesNow = () => componentDraws.map((n) => Math.log(n / points.length));
+  const logRatios = (): Float64Array => {
+    const logShares = logSharesNow();
+    const scratch = new Float64Array(components.length);
+    const ratios = new Float64Array(points.length);
+    for (let s = 0; s < points.length; s++) ratios[s] = logDensity[s] - weightedLogDensities(s, logShares, scratch);
+    return ratios;
+  };
   return {
     points,
     logPosterior: logDensity,
@@ -74,13 +86,8 @@ export function proposalMixture(target: PosteriorTarget, rng: Rng): ProposalMixt
       }
       componentDraws[j] = componentDraws[j] + count;
     },
-    smooth() {
-      const logShares = logSharesNow();
-      const scratch = new Float64Array(components.length);
-      const logRatios = new Float64Array(points.length);
-      for (let s = 0; s < points.length; s++) logRatios[s] = logDensity[s] - weightedLogDensities(s, logShares, scratch);
-      return paretoSmoothedWeights(logRatios);
-    },
+    logRatios,
+    smooth: () => paretoSmoothedWeights(logRatios()),
     responsibility(members) {
       const logShares = logSharesNow();
       const scratch = new Float64Array(components.length);

@@ -1,9 +1,18 @@
-import { findMaximumPosterior, unconstrainedPosterior, startingPoints, type PosteriorTarget } from "../inference/index.js";
+import {
+  findMaximumPosterior,
+  unconstrainedPosterior,
+  startingPoints,
+  type MaximumPosterior,
+  type ParameterSpace,
+  type PhysicalLikelihood,
+  type PosteriorTarget,
+} from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { childSeed, createRng, type Rng } from "../random/rng.js";
 import { summarizeLightCurve } from "./data-summary.js";
 import { bayesFactorPreference, twoLogBayesFactorText, type EvidencePreference } from "./evidence-scale.js";
-import { importanceLogEvidence, type EvidenceEstimate } from "./importance-evidence.js";
+import { importanceLogEvidence, type ImportanceEvidence } from "./importance-evidence.js";
+import { markovBridgeEvidence } from "./mcmc-evidence.js";
 import { laplaceLogEvidence } from "./laplace-evidence.js";
 import { periodogramPeriod } from "./fit-period-search.js";
 import { buildModel, modelLikelihood, type ModelName } from "./light-curve-model.js";
@@ -18,14 +27,17 @@ export interface ModelStanding {
   /** The model's name as shown: the model, or "carma(p,q)". */
   readonly label: string;
   /**
-   * ln evidence (marginal likelihood) of the model: by importance sampling at the mode
-   * (`importanceLogEvidence`) when its diagnostic holds, else the Laplace approximation.
+   * ln evidence (marginal likelihood) of the model: by importance sampling at its modes
+   * (`importanceLogEvidence`) when its diagnostic holds, else by bridge sampling from MCMC draws
+   * (`markovBridgeEvidence`), else the Laplace approximation.
    */
   readonly logEvidence: number;
   /** Monte Carlo standard error of `logEvidence`; null for the Laplace approximation (no stated error). */
   readonly logEvidenceError: number | null;
   /** How `logEvidence` was estimated. */
-  readonly evidenceMethod: "importance" | "laplace";
+  readonly evidenceMethod: "importance" | "bridge" | "laplace";
+  /** The estimator in words: its draws, modes, k-hat, and why a later estimator was needed. */
+  readonly evidenceDetail: string;
   /** k-hat of the importance ratios (null when no draws were made). */
   readonly evidenceParetoShape: number | null;
   /** The Laplace approximation at the same mode, for reference. */
@@ -58,10 +70,12 @@ export interface ModelComparison {
 
 /**
  * Ranks Gaussian-process models of one light curve by their Bayesian evidence (marginal likelihood)
- * Z = integral L(theta) pi(theta) dtheta, estimated by importance sampling from a Student-t at the
- * maximum a posteriori with the Laplace covariance (`importanceLogEvidence`: unbiased, with a Monte
- * Carlo standard error), the Laplace approximation (MacKay 2003, ch. 28) where the importance ratios'
- * k-hat says the estimate cannot be trusted. The evidence is the natural criterion for Gaussian
+ * Z = integral L(theta) pi(theta) dtheta, estimated by importance sampling from Student-t components at
+ * the local maxima the optimiser's starts reached (`importanceLogEvidence`: unbiased, with a Monte Carlo
+ * standard error); where the importance ratios' k-hat says that estimate cannot be trusted, by bridge
+ * sampling from the walker ensemble's draws of the posterior (`markovBridgeEvidence`, with its standard
+ * error); the Laplace approximation (MacKay 2003, ch. 28) only where neither gives an estimate. Each
+ * standing says which (`evidenceMethod`, `evidenceDetail`). The evidence is the natural criterion for Gaussian
  * processes: the likelihood already integrates over the latent light curve, and the integral over the parameters penalises the extra
  * freedom of a periodic kernel, which the maximum likelihood alone would always reward. Differences are
  * read on the scale of Kass & Raftery 1995 (JASA 90, 773; `bayesFactorPreference`), with the
@@ -110,7 +124,9 @@ export function compareModels(
     const best = findMaximumPosterior(target, { starts });
     const laplace = laplaceLogEvidence(target, best.x);
     const symmetries = order ? carmaSymmetries(order, model.space.free.map((p) => p.name)) : [];
-    const evidence = evidenceAt(target, best.x, rng, symmetries, laplace.logEvidence);
+    // Every local maximum the starts reached within ln p 10 of the best: the proposal gets a component at each.
+    const modes = best.runs.filter((run) => run.logPosterior > best.logPosterior - 10).map((run) => run.x);
+    const evidence = evidenceAt({ space: model.space, likelihood, target, maximum: best }, modes, rng, `${childSeed(options.seed, k)}:bridge`, symmetries, laplace.logEvidence);
     const physical = model.space.toPhysical(best.x);
     const logLikelihood = likelihood.logLikelihood(physical);
     const k2 = model.space.dimension;
@@ -135,7 +151,7 @@ export function compareModels(
   const preference = ranking.length >= 2 ? preferenceOf(ranking) : undefined;
   const carmaOrder = orders.length >= 2 ? preferenceOf(orders) : undefined;
   return {
-    criterion: "Bayesian evidence (marginal likelihood) by importance sampling at the mode; Kass & Raftery 1995 scale",
+    criterion: "Bayesian evidence (marginal likelihood) by importance sampling at the modes, or bridge sampling from MCMC draws where that fails; Kass & Raftery 1995 scale",
     ranking,
     verdict: verdictOf(ranking, carmaOrder),
     ...(preference ? { preference } : {}),
@@ -153,21 +169,50 @@ function preferenceOf(standings: readonly ModelStanding[]): EvidencePreference {
 }
 
 /**
- * The evidence of one model at its mode: importance sampling (its proposal refitted up to three times
- * while k-hat is too high); the Laplace value (no stated error) when that fails.
+ * The evidence of one model: importance sampling from t components at its modes; where k-hat stays above
+ * its threshold, bridge sampling from the walker ensemble's draws of the posterior; the Laplace value
+ * (no stated error) only when neither gives an estimate.
  */
 function evidenceAt(
-  target: PosteriorTarget,
-  mode: Float64Array,
+  problem: { space: ParameterSpace; likelihood: PhysicalLikelihood; target: PosteriorTarget; maximum: MaximumPosterior },
+  modes: readonly Float64Array[],
   rng: Rng,
+  seed: string,
   symmetries: readonly (readonly number[])[],
   laplace: number,
-): Pick<ModelStanding, "logEvidence" | "logEvidenceError" | "evidenceMethod" | "evidenceParetoShape"> {
-  const estimate: EvidenceEstimate | undefined = importanceLogEvidence(target, mode, rng, { symmetries });
+): Pick<ModelStanding, "logEvidence" | "logEvidenceError" | "evidenceMethod" | "evidenceParetoShape" | "evidenceDetail"> {
+  const estimate: ImportanceEvidence | undefined = importanceLogEvidence(problem.target, modes, rng, { symmetries });
+  const paretoShape = estimate ? estimate.paretoShape : null;
+  const shapeText = paretoShape === null ? "no positive-definite curvature at any mode" : `k-hat ${paretoShape.toFixed(2)}`;
   if (estimate && estimate.reliable && Number.isFinite(estimate.logEvidence)) {
-    return { logEvidence: estimate.logEvidence, logEvidenceError: estimate.standardError, evidenceMethod: "importance", evidenceParetoShape: estimate.paretoShape };
+    const modeText = estimate.modes > 1 ? `, ${estimate.modes} modes` : "";
+    return {
+      logEvidence: estimate.logEvidence,
+      logEvidenceError: estimate.standardError,
+      evidenceMethod: "importance",
+      evidenceParetoShape: paretoShape,
+      evidenceDetail: `importance sampling: ${estimate.draws} draws${modeText}, ${shapeText}`,
+    };
   }
-  return { logEvidence: laplace, logEvidenceError: null, evidenceMethod: "laplace", evidenceParetoShape: estimate ? estimate.paretoShape : null };
+  const bridge = markovBridgeEvidence(problem.space, problem.likelihood, problem.target, problem.maximum, rng, { seed, symmetries });
+  if (bridge && Number.isFinite(bridge.logEvidence) && Number.isFinite(bridge.standardError)) {
+    return {
+      logEvidence: bridge.logEvidence,
+      logEvidenceError: bridge.standardError,
+      evidenceMethod: "bridge",
+      evidenceParetoShape: paretoShape,
+      evidenceDetail:
+        `bridge sampling: ${bridge.posteriorDraws} posterior draws (ESS ${Math.round(bridge.posteriorEss)}; chains ${bridge.chainsConverged ? "converged" : "not converged"}), ` +
+        `${bridge.proposalDraws} proposal draws; importance sampling failed (${shapeText})`,
+    };
+  }
+  return {
+    logEvidence: laplace,
+    logEvidenceError: null,
+    evidenceMethod: "laplace",
+    evidenceParetoShape: paretoShape,
+    evidenceDetail: `Laplace approximation, error not estimated: importance sampling failed (${shapeText}) and bridge sampling gave no estimate`,
+  };
 }
 
 /** An oscillator with Q <= 1/2 at its maximum is overdamped: it has no oscillation, so no period. */

@@ -2,6 +2,7 @@ import tPdf from "@stdlib/stats/base/dists/t/pdf";
 import tQuantile from "@stdlib/stats/base/dists/t/quantile";
 import { describe, expect, it } from "vitest";
 import { importanceSample, type ImportanceSample } from "../../src/inference/importance-sampling.js";
+import { paretoSmoothedWeights } from "../../src/inference/pareto-smoothed-weights.js";
 import type { PosteriorTarget } from "../../src/inference/posterior-target.js";
 import { createRng } from "../../src/random/rng.js";
 import { correlatedGaussian } from "./helpers/known-targets.js";
@@ -86,6 +87,38 @@ describe("Pareto-smoothed importance sampling from a Student-t at the mode", () 
     const sample = importanceSample(saddle, new Float64Array(2), createRng("is-saddle"));
     expect(sample.accepted).toBe(false);
     expect(sample.reason).toMatch(/curved/);
+  });
+
+  it("returns the raw log ratios against the whole mixture: their mean estimates the normaliser, and smoothed they are the weights", () => {
+    // The Gaussian of known-targets.ts is exp(-r^T P r / 2) unnormalised: Z = (2 pi)^(5/2) det(S)^(1/2), with det S =
+    // prod s_i^2 (1 - 0.7^2)^4 (the Kac-Murdock-Szego correlation matrix rho^|i-j| has determinant (1 - rho^2)^(d-1), from memory).
+    const target = correlatedGaussian();
+    const sample = importanceSample(target.density, Float64Array.from([1, -2, 0.5, 3, 0]), createRng("is-normaliser"));
+    const exact = 2.5 * Math.log(2 * Math.PI) + Math.log(1 * 2 * 0.5 * 3 * 1.5) + 2 * Math.log(1 - 0.49);
+    const n = sample.logRatios.length;
+    expect(n).toBe(sample.points.length);
+    let largest = -Infinity;
+    for (const r of sample.logRatios) largest = Math.max(largest, r);
+    const w = Array.from(sample.logRatios, (r) => Math.exp(r - largest));
+    const mean = w.reduce((a, b) => a + b, 0) / n;
+    const sd = Math.sqrt(w.reduce((a, b) => a + (b - mean) ** 2, 0) / (n - 1));
+    // Delta-method standard error of ln(mean ratio) (Geweke 1989, Econometrica 57, 1317, sec. 3).
+    const se = sd / (mean * Math.sqrt(n));
+    expect(Math.abs(largest + Math.log(mean) - exact)).toBeLessThan(4 * se);
+    expect(Array.from(paretoSmoothedWeights(sample.logRatios).weights)).toEqual(Array.from(sample.weights));
+  });
+
+  it("takes the mode's covariance from the caller when given one", () => {
+    const target = correlatedGaussian();
+    const mode = Float64Array.from([1, -2, 0.5, 3, 0]);
+    const none = importanceSample(target.density, mode, createRng("is-covariance"), { covariance: () => undefined });
+    expect(none.accepted).toBe(false);
+    expect(none.reason).toMatch(/curved/);
+    // The identity is a poor but usable scale for this Gaussian (sds 0.5-3): the sampler still reaches it by its refits.
+    const identity = Float64Array.from({ length: 25 }, (_, k) => (k % 6 === 0 ? 1 : 0));
+    const given = importanceSample(target.density, mode, createRng("is-covariance"), { covariance: () => identity });
+    expect(given.rounds[0]?.proposal).toBe("laplace");
+    expect(given.accepted).toBe(true);
   });
 
   it("is reproducible: the same seed gives the same weights", () => {

@@ -1,6 +1,8 @@
 import { describe, expect, it } from "vitest";
-import type { PosteriorTarget } from "../../src/inference/index.js";
-import { evidenceFromLogRatios, importanceLogEvidence, permutationGroup } from "../../src/models/importance-evidence.js";
+import { modeCovariance, type PosteriorTarget } from "../../src/inference/index.js";
+import { evidenceFromLogRatios, importanceLogEvidence, permutationGroup, robustModeCovariance } from "../../src/models/importance-evidence.js";
+import { FLAT_TOP_LOG_EVIDENCE, flatTopTarget } from "../helpers/flat-top-target.js";
+import { sumOfTargets } from "../helpers/mixture-target.js";
 import { createRng } from "../../src/random/rng.js";
 
 /**
@@ -42,20 +44,39 @@ describe("evidence by importance sampling", () => {
     // Copies centred at (3, -3, 0) and (-3, 3, 0): the swap of coordinates 0 and 1 maps one onto the other.
     const one = gaussianTarget(PRECISION, LOG_SCALE, [3, -3, 0]);
     const swapped = gaussianTarget([[2, 1.2, 0.3], [1.2, 4, 0], [0.3, 0, 1]], LOG_SCALE, [-3, 3, 0]);
-    const target: PosteriorTarget = {
-      dimension: 3,
-      logPosterior: (x) => {
-        const a = one.logPosterior(x);
-        const b = swapped.logPosterior(x);
-        const top = Math.max(a, b);
-        return top + Math.log(Math.exp(a - top) + Math.exp(b - top));
-      },
-    };
+    const target = sumOfTargets(one, swapped);
     const mode = Float64Array.of(3, -3, 0);
     const symmetric = importanceLogEvidence(target, mode, createRng("evidence:swap"), { draws: 2000, symmetries: [[1, 0, 2]] })!;
     expect(Math.abs(symmetric.logEvidence - (EXACT + Math.log(2)))).toBeLessThan(4 * symmetric.standardError);
     const oneCopy = importanceLogEvidence(target, mode, createRng("evidence:swap"), { draws: 2000 })!;
     expect(Math.abs(oneCopy.logEvidence - EXACT)).toBeLessThan(4 * oneCopy.standardError);
+  });
+
+  it("draws at a flat-topped mode whose wide-step curvature is not positive definite (the old path had no proposal there)", () => {
+    // A CARMA posterior with a real root and moving-average roots that nearly cancel has this shape: a stiff
+    // direction with a quartic wall, a soft one across it (bench/README.md, "CARMA order choice by evidence").
+    const target = flatTopTarget();
+    const mode = Float64Array.of(0, 0);
+    // The premise: half-standard-deviation steps straddle the quartic and see a saddle; small steps see the maximum.
+    expect(modeCovariance(target, mode)).toBeUndefined();
+    expect(robustModeCovariance(target, mode)).toBeDefined();
+    const estimate = importanceLogEvidence(target, mode, createRng("evidence:flat-top"))!;
+    expect(estimate.reliable).toBe(true);
+    expect(estimate.standardError).toBeLessThan(0.05);
+    expect(Math.abs(estimate.logEvidence - FLAT_TOP_LOG_EVIDENCE)).toBeLessThan(4 * estimate.standardError);
+  });
+
+  it("counts the mass of every mode it is given, as a mixture of t components", () => {
+    // Two unequal copies far apart (no symmetry): Z = Z1 + Z2 with Z2 = e^-1 Z1; from the first mode alone, Z1.
+    const first = gaussianTarget(PRECISION, LOG_SCALE, [4, 0, 0]);
+    const second = gaussianTarget(PRECISION, LOG_SCALE - 1, [-4, 2, 1]);
+    const target = sumOfTargets(first, second);
+    const both = importanceLogEvidence(target, [Float64Array.of(4, 0, 0), Float64Array.of(-4, 2, 1)], createRng("evidence:two-modes"))!;
+    expect(both.modes).toBe(2);
+    expect(both.reliable).toBe(true);
+    expect(Math.abs(both.logEvidence - (EXACT + Math.log1p(Math.exp(-1))))).toBeLessThan(4 * both.standardError);
+    const one = importanceLogEvidence(target, Float64Array.of(4, 0, 0), createRng("evidence:two-modes"))!;
+    expect(Math.abs(one.logEvidence - EXACT)).toBeLessThan(4 * one.standardError);
   });
 
   it("its standard error is the delta-method one of the ratios' mean, and k-hat flags a heavy tail", () => {

@@ -12,8 +12,9 @@ const DEFAULT_COMPARED: readonly ModelName[] = MODEL_NAMES.filter((name) => name
 const HELP = `Usage: horologium compare FILE [--models ${DEFAULT_COMPARED.join(",")}] [options]
 
 Fits several models to one light curve and ranks them by their Bayesian evidence (the marginal
-likelihood, by importance sampling from a Student-t at the maximum a posteriori, with its Monte
-Carlo standard error; the Laplace approximation where the draws' k-hat is too high): the criterion
+likelihood, by importance sampling from Student-t components at the optima found; where the draws'
+k-hat stays too high, by bridge sampling from MCMC draws of that model; either with its Monte Carlo
+standard error, the "by" column naming the estimator): the criterion
 suited to Gaussian processes, whose likelihood already integrates over the latent light curve, and
 which charges a periodic kernel for its extra freedom where the best-fit likelihood alone would
 always prefer it. It answers "is there a period at all?" and says how strongly: the log Bayes
@@ -49,9 +50,9 @@ const OPTIONS = {
   "max-period": FIT_OPTIONS["max-period"],
 } as const;
 
-/** The Monte Carlo standard error of a model's ln Z, or "laplace" when it is the Laplace approximation. */
+/** The Monte Carlo standard error of a model's ln Z, or "none" when it is the Laplace approximation. */
 function evidenceErrorText(standing: ModelStanding): string {
-  return standing.logEvidenceError === null ? "laplace" : standing.logEvidenceError.toFixed(2);
+  return standing.logEvidenceError === null ? "none" : standing.logEvidenceError.toFixed(2);
 }
 
 /** `horologium compare`. */
@@ -69,17 +70,18 @@ export const verb: CliVerb = {
     if (!quiet) {
       for (const comparison of comparisons) {
         io.stdout(`${file}${comparison.band ? ` [band ${comparison.band}]` : ""} — ${comparison.criterion}\n`);
-        io.stdout(`  ${"model".padEnd(16)} ${"ln Z".padStart(11)} ${"± s.e.".padStart(8)} ${"delta".padStart(8)} ${"prob".padStart(7)} ${"ln L".padStart(11)} ${"BIC".padStart(11)}\n`);
+        io.stdout(`  ${"model".padEnd(16)} ${"ln Z".padStart(11)} ${"± s.e.".padStart(8)} ${"by".padStart(11)} ${"delta".padStart(8)} ${"prob".padStart(7)} ${"ln L".padStart(11)} ${"BIC".padStart(11)}\n`);
         for (const s of comparison.ranking)
           io.stdout(
-            `  ${s.label.padEnd(16)} ${s.logEvidence.toFixed(2).padStart(11)} ${evidenceErrorText(s).padStart(8)} ${s.deltaLogEvidence.toFixed(2).padStart(8)} ${s.probability.toFixed(3).padStart(7)} ${s.logLikelihood.toFixed(2).padStart(11)} ${s.bic.toFixed(2).padStart(11)}\n`,
+            `  ${s.label.padEnd(16)} ${s.logEvidence.toFixed(2).padStart(11)} ${evidenceErrorText(s).padStart(8)} ${s.evidenceMethod.padStart(11)} ${s.deltaLogEvidence.toFixed(2).padStart(8)} ${s.probability.toFixed(3).padStart(7)} ${s.logLikelihood.toFixed(2).padStart(11)} ${s.bic.toFixed(2).padStart(11)}\n`,
           );
         io.stdout(`  ${comparison.verdict}\n`);
         // How strongly, unless the verdict already said it in the same words (a comparison of CARMA orders alone).
         const preference = comparison.preference;
         if (preference && !comparison.verdict.includes(preference.sentence)) io.stdout(`  How strongly: ${preference.sentence}\n`);
-        if (comparison.ranking.some((s) => s.evidenceMethod === "laplace"))
-          io.stdout("  (laplace: importance sampling's k-hat was too high for that model; its ln Z is the Laplace approximation, error not estimated)\n");
+        // Every evidence not by importance sampling, with the reason (the JSON holds it for every model: evidenceDetail).
+        for (const s of comparison.ranking.filter((standing) => standing.evidenceMethod !== "importance"))
+          io.stdout(`  ${s.label}: ${s.evidenceDetail}\n`);
       }
     }
     const out = textOption(values, "out");
