@@ -361,8 +361,9 @@ figure({
 A periodogram peak with a small false-alarm probability says the data are not white noise; it does not
 say they are periodic rather than red noise, which also piles power at low frequencies. `compareModels`
 asks the sharper question: how much more probable are the data under a rotation model than under an
-aperiodic damped random walk, each at its best parameters and charged for its extra freedom (the Laplace
-approximation to the Bayesian evidence, read on the scale of Kass & Raftery 1995, JASA 90, 773).
+aperiodic damped random walk, each integrated over its parameters and so charged for its extra freedom (the
+Bayesian evidence, by importance sampling at the posterior's modes, or bridge sampling from MCMC draws where
+that fails, each with its Monte Carlo error; read on the scale of Kass & Raftery 1995, JASA 90, 773).
 */
 const comparison = compareModels(star, ["drw", "oscillator", "quasi-periodic"], { seed: 1187 });
 table(
@@ -370,10 +371,11 @@ table(
     model: s.model,
     parameters: s.parameterCount,
     "ln evidence − best": s.deltaLogEvidence.toFixed(1),
+    "± s.e., by": `${s.logEvidenceError === null ? "none" : s.logEvidenceError.toFixed(2)}, ${s.evidenceMethod}`,
     probability: s.probability < 1e-4 ? s.probability.toExponential(1) : s.probability.toFixed(4),
     "period at the maximum [d]": s.maximum.period !== undefined ? s.maximum.period.toFixed(2) : "—",
   })),
-  "Models ranked by their Laplace-approximated evidence, equal prior odds.",
+  "Models ranked by their evidence (its Monte Carlo error and estimator beside it), equal prior odds.",
 );
 console.log(comparison.verdict);
 
