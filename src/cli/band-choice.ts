@@ -25,7 +25,8 @@ export const BAND_OPTIONS = {
 export const BAND_HELP = `Several bands (a band column, recognised by name or given by --band-col):
   by default each band is fitted on its own, in one JSON object {"perBand": {"<band>": result}};
   with --bands joint one shared process is fitted to every band at once, with an amplitude and a
-  mean per band (JSON names amplitude.<band>, mean.<band>), also one JSON object.
+  mean per band (JSON names amplitude.<band>, mean.<band>), also one JSON object; --robust fits
+  one band at a time and does not go with it.
   --bands joint|separate  one shared process, or each band on its own (default)
   --band NAME             only this band
   --lags                  joint (implied): also a lag per band relative to the reference band (lag.<band>)
@@ -51,7 +52,14 @@ export function catalogueBandRule(values: VerbArguments["values"]): CatalogueBan
   const referenceBand = textOption(values, "reference-band");
   if ((lags || referenceBand !== undefined) && bands === "separate")
     throw new UsageError(`--${lags ? "lags" : "reference-band"} needs the joint model of several bands, not --bands separate`);
+  if (bands === "joint" || lags || referenceBand !== undefined) refuseRobustJoint(values);
   return { ...(bands !== undefined ? { bands } : {}), ...(lags ? { lags: true } : {}), ...(referenceBand !== undefined ? { referenceBand } : {}) };
+}
+
+/** The robust (Student-t) noise is a model of one band's points: the joint model has none, so the two do not go together. */
+function refuseRobustJoint(values: VerbArguments["values"]): void {
+  if (values.robust === true)
+    throw new UsageError("--robust fits one band at a time (the joint model of several bands has no robust noise): use --bands separate or --band NAME");
 }
 
 /** The band rule for these light curves and options (usage errors for options that do not apply). */
@@ -68,5 +76,6 @@ export function bandChoice(values: VerbArguments["values"], lightCurves: readonl
     throw new UsageError(`--reference-band ${referenceBand}: no such band (bands: ${lightCurves.map((lc) => lc.band).join(", ")})`);
   if (single) return { kind: "single" };
   if (bands !== "joint" && !lags && referenceBand === undefined) return { kind: "separate" };
+  refuseRobustJoint(values);
   return { kind: "joint", lags, ...(referenceBand !== undefined ? { referenceBand } : {}) };
 }

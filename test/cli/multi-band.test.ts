@@ -70,5 +70,11 @@ describe("one rule for multi-band files", () => {
     expect(wrong.code).toBe(2);
     expect(wrong.stderr.trim().split("\n")).toHaveLength(1);
     expect(wrong.stderr).toMatch(/--lags needs the joint model/);
+
+    // The joint model has no robust noise: refused in one line, not fitted without it.
+    const robust = await runInProcess(["fit", file, "--model", "drw", "--bands", "joint", "--robust", ...budget], dir);
+    expect(robust.code).toBe(2);
+    expect(robust.stderr.trim().split("\n")).toHaveLength(1);
+    expect(robust.stderr).toMatch(/--robust fits one band at a time/);
   }, 120_000);
 });
