@@ -5,6 +5,11 @@ import { build } from "vite";
 import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { skipWithoutChromium, watchPage, type PageWatch } from "../helpers/headless-chromium.js";
 import { servedChromium, type ServedChromium } from "../helpers/served-chromium.js";
+import { kernels } from "../../src/kernels/index.js";
+import { seasonalGroundCadence } from "../../src/lightcurve/cadence.js";
+import { formatLightCurveCsv } from "../../src/lightcurve/light-curve-csv.js";
+import { simulateInterleavedBands } from "../../src/models/simulated-bands.js";
+import { createRng } from "../../src/random/rng.js";
 
 /**
  * The browser page end to end: built with the project's Vite configuration (as `npm run build:web`
@@ -18,6 +23,18 @@ async function smallLightCurve(): Promise<string> {
   const lines = (await readFile(join(ROOT, "demo/lds-j0412-2731-quasar.csv"), "utf8")).split("\n");
   const header = lines.findIndex((line) => line.startsWith("time,"));
   return [...lines.slice(0, header + 121)].join("\n") + "\n";
+}
+
+/** An invented quasar seen in three bands visited in turn (90 visits over three seasons), r lagging g by 4 d. */
+function threeBandLightCurve(): string {
+  const rng = createRng("web:three-bands");
+  const visits = seasonalGroundCadence({ start: 60000, seasons: 3, revisitInterval: 4 }, rng).slice(0, 90);
+  const bands = [
+    { name: "g", amplitude: 1, mean: 20.4, depth5Sigma: 24 },
+    { name: "r", amplitude: 0.8, mean: 20.1, lag: 4, depth5Sigma: 24 },
+    { name: "i", amplitude: 0.7, mean: 19.9, lag: 6, depth5Sigma: 23.5 },
+  ];
+  return formatLightCurveCsv(simulateInterleavedBands(kernels.dampedRandomWalk({ sigma: 0.25, tau: 90 }), visits, bands, rng, "LDS Q-3B"));
 }
 
 describe.skipIf(skipWithoutChromium)("the browser page", () => {
@@ -34,6 +51,7 @@ describe.skipIf(skipWithoutChromium)("the browser page", () => {
     await writeFile(join(dir, "lds-j0412-small.csv"), csv);
     await writeFile(join(dir, "unnamed-columns.csv"), csv.replace("time,mag,mag_err", "epoch,brightness,unc"));
     await writeFile(join(dir, "broken.csv"), "time,mag,mag_err\n60000.1,19.2,0.02\n60001.3,abc,0.02\n60002.2,19.3,0.02\n");
+    await writeFile(join(dir, "lds-three-bands.csv"), threeBandLightCurve());
   });
 
   afterAll(async () => {
@@ -108,6 +126,31 @@ describe.skipIf(skipWithoutChromium)("the browser page", () => {
     expect(watch.consoleErrors).toEqual([]);
     expect(watch.offOriginRequests).toEqual([]);
     if (process.env["HOROLOGIUM_SCREENSHOTS"]) await page.screenshot({ path: join(process.env["HOROLOGIUM_SCREENSHOTS"], "web-page.png"), fullPage: true });
+    await page.close();
+  });
+
+  it("fits every band of a multi-band file jointly, with lags: one panel per band, a band column in the predictions", async () => {
+    const { page, watch } = await openPage();
+    await page.check('input[name="lags"]');
+    expect(await fit(page, "lds-three-bands.csv")).toBe("done");
+    const report = page.frameLocator("#report-frame");
+    const ids = await report.locator("figure svg").evaluateAll((svgs) => svgs.map((svg) => svg.getAttribute("data-figure")));
+    expect(ids).toEqual(expect.arrayContaining(["figure-light-curve-band-g", "figure-light-curve-band-r", "figure-light-curve-band-i"]));
+    const [download] = await Promise.all([page.waitForEvent("download"), page.locator('a[download$=".json"]').click()]);
+    const result = JSON.parse(await readFile(await download.path(), "utf8")) as Record<string, any>;
+    expect(Object.keys(result["parameters"])).toEqual(expect.arrayContaining(["tau", "amplitude.r", "mean.i", "lag.r", "lag.i"]));
+    const [predictions] = await Promise.all([page.waitForEvent("download"), page.locator('a[download$="-predictions.csv"]').click()]);
+    const csv = (await readFile(await predictions.path(), "utf8")).trim().split("\n");
+    expect(csv[0]).toBe("time,band,mean,sd,lower95,upper95");
+    expect(new Set(csv.slice(1).map((line) => line.split(",")[1]))).toEqual(new Set(["g", "r", "i"]));
+    if (process.env["HOROLOGIUM_SCREENSHOTS"]) await page.screenshot({ path: join(process.env["HOROLOGIUM_SCREENSHOTS"], "web-page-joint.png"), fullPage: true });
+    // The joint model has no robust noise: a one-line error, not a fit without it.
+    await page.check('input[name="robust"]');
+    await page.click('button[type="submit"]');
+    await page.waitForFunction(() => document.body.dataset["fitState"] === "error", undefined, { timeout: 100_000 });
+    expect(await page.locator("#error").textContent()).toMatch(/^lds-three-bands\.csv: robust noise fits one band at a time/);
+    expect(watch.consoleErrors).toEqual([]);
+    expect(watch.offOriginRequests).toEqual([]);
     await page.close();
   });
 

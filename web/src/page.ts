@@ -61,6 +61,10 @@ async function startFit(): Promise<void> {
     maxEvaluations: numberValue("max-evaluations") ?? 2e6,
     ...optionalNumber("redshift"),
     ...(askedColumns ? { columns: columnAnswer() } : {}),
+    bands: formValue("bands") === "one" ? "one" : "joint",
+    lags: checked("lags"),
+    ...optionalText("band", "band"),
+    ...optionalText("reference-band", "referenceBand"),
   };
   setState("fitting");
   progressBar.hidden = false;
@@ -226,6 +230,11 @@ function numberValue(name: string): number | undefined {
 function optionalNumber(name: "redshift"): { redshift?: number } {
   const value = numberValue(name);
   return value === undefined ? {} : { [name]: value };
+}
+
+function optionalText<K extends "band" | "referenceBand">(name: string, key: K): { [key in K]?: string } {
+  const text = formValue(name).trim();
+  return (text === "" ? {} : { [key]: text }) as { [key in K]?: string };
 }
 
 function element<T extends HTMLElement>(id: string): T {

@@ -26,6 +26,15 @@ export interface FitRequest {
   readonly maxEvaluations: number;
   readonly redshift?: number;
   readonly columns?: ColumnAnswer;
+  /**
+   * A file with several bands: "joint" fits one process seen in every band (amplitude and mean per band,
+   * with `lags` a lag per band relative to `referenceBand`, default the best-sampled band); "one" fits
+   * the band named `band` (default the first) on its own.
+   */
+  readonly bands: "joint" | "one";
+  readonly band?: string;
+  readonly lags: boolean;
+  readonly referenceBand?: string;
 }
 
 /** Worker -> page: how far the sampler is. */
