@@ -19,24 +19,18 @@
  *   nice -n 19 npx tsx bench/multi-band-calibration.ts [--curves K] [--seed S] [--lags]
  */
 import binomialQuantile from "@stdlib/stats/base/dists/binomial/quantile";
-import { kernels } from "../src/kernels/index.js";
-import { seasonalGroundCadence } from "../src/lightcurve/cadence.js";
 import { fitJointDetailed } from "../src/models/fit-joint.js";
 import { fitLightCurve } from "../src/models/fit-light-curve.js";
-import { simulateInterleavedBands } from "../src/models/simulated-bands.js";
+import { QUASAR_BAND_NAMES, simulatedSixBandQuasar } from "../src/models/simulated-quasar-bands.js";
 import { createRng } from "../src/random/rng.js";
 import { formatSignificant, markdownTable, median } from "./engine-timing.js";
 import { rankOfTruth, rankUniformity } from "./samplers-calibration.js";
 
-const NAMES = ["u", "g", "r", "i", "z", "y"];
-const DEPTHS = [23.5, 24.5, 24.3, 23.9, 23.3, 22.5];
 
 function argument(name: string, fallback: number): number {
   const index = process.argv.indexOf(`--${name}`);
   return index >= 0 ? Number(process.argv[index + 1]) : fallback;
 }
-
-const logUniform = (u: number, lo: number, hi: number) => lo * Math.exp(u * Math.log(hi / lo));
 
 function main(): void {
   const curves = argument("curves", 40);
@@ -55,21 +49,22 @@ function main(): void {
   const widthRatios: number[] = [];
   const amplitudeErrors: number[] = [];
   const methods: Record<string, number> = {};
+  const fitSeconds: number[] = [];
   for (let c = 0; c < curves; c++) {
     const rng = createRng(`bench:multi-band-calibration:${seed}:${c}`);
-    const tau = logUniform(rng.uniform(), 50, 600);
-    const sigma = logUniform(rng.uniform(), 0.1, 0.3);
-    const tilt = 0.7 + 0.6 * rng.uniform();
-    const amplitudes = NAMES.map((_, b) => (1.3 - 0.12 * b * tilt) / (1.3 - 0.12 * tilt));
-    const lagOf = NAMES.map((_, b) => (lags ? (b - 1) * (1 + 0.6 * rng.uniform()) : 0));
-    const visits = seasonalGroundCadence({ seasons: 3, revisitInterval: 1, weatherLoss: 0.3 }, rng).slice(0, 360);
-    const bands = NAMES.map((name, b) => ({ name, amplitude: amplitudes[b] ?? 1, mean: 20 - 0.1 * b, depth5Sigma: DEPTHS[b] ?? 24, lag: lagOf[b] ?? 0 }));
-    const lightCurves = simulateInterleavedBands(kernels.dampedRandomWalk({ sigma, tau }), visits, bands, rng, `calibration-${c}`);
+    const quasar = simulatedSixBandQuasar(rng, { lags, source: `calibration-${c}` });
+    const { tau, lightCurves } = quasar;
+    const lagOf = quasar.lags;
+    const bands = QUASAR_BAND_NAMES.map((name, b) => ({ name, amplitude: quasar.amplitudes[b] ?? NaN, lag: lagOf[b] ?? 0 }));
+    const cpuStart = process.cpuUsage();
     const fit = fitJointDetailed(lightCurves, { model: "drw", seed: seed * 1000 + c, referenceBand: "g", ...(lags ? { lags: true } : {}) });
+    const cpu = process.cpuUsage(cpuStart);
     const p = fit.result.parameters;
     const d = fit.result.diagnostics;
-    methods[d.method ?? "?"] = (methods[d.method ?? "?"] ?? 0) + 1;
+    const method = d.importanceFallback !== undefined ? `${d.method} after importance` : (d.method ?? "?");
+    methods[method] = (methods[method] ?? 0) + 1;
     if (d.converged) converged++;
+    fitSeconds.push((cpu.user + cpu.system) / 1e6);
     const t = p.tau;
     if (!t) continue;
     if (t.q16 <= tau && tau <= t.q84) in68++;
@@ -91,7 +86,7 @@ function main(): void {
       if (l.q16 <= band.lag && band.lag <= l.q84) lagIn68++;
       if (l["q2.5"] <= band.lag && band.lag <= l["q97.5"]) lagIn95++;
     });
-    const truth: Record<string, number> = { tau, sigma, "amplitude.u": bands[0]?.amplitude ?? NaN, "amplitude.r": bands[2]?.amplitude ?? NaN, "amplitude.y": bands[5]?.amplitude ?? NaN, "lag.u": lagOf[0] ?? NaN, "lag.y": lagOf[5] ?? NaN };
+    const truth: Record<string, number> = { tau, sigma: quasar.sigma, "amplitude.u": bands[0]?.amplitude ?? NaN, "amplitude.r": bands[2]?.amplitude ?? NaN, "amplitude.y": bands[5]?.amplitude ?? NaN, "lag.u": lagOf[0] ?? NaN, "lag.y": lagOf[5] ?? NaN };
     const draws = fit.draws;
     ranked.forEach((name, i) => {
       const column = draws.columns[name];
@@ -102,7 +97,8 @@ function main(): void {
 
   function report(done: number): void {
     const band = (p: number) => `${binomialQuantile(0.025, done, p)}-${binomialQuantile(0.975, done, p)}`;
-    console.log(`\n### ${done} light curves (seed ${seed}${lags ? ", lags" : ""}; methods ${JSON.stringify(methods)}; converged ${converged})\n`);
+    const cpu = Float64Array.from(fitSeconds).sort();
+    console.log(`\n### ${done} light curves (seed ${seed}${lags ? ", lags" : ""}; methods ${JSON.stringify(methods)}; converged ${converged}; joint fit CPU s median ${formatSignificant(median(fitSeconds))}, max ${formatSignificant(cpu[cpu.length - 1] ?? NaN)})\n`);
     console.log(markdownTable(["figure", "value", "binomial 95% band"], [
       ["true tau in the joint 68% interval", String(in68), band(0.68)],
       ["true tau in the joint 95% interval", String(in95), band(0.95)],

@@ -1,5 +1,6 @@
 import type { Rng } from "../random/rng.js";
 import type { PosteriorTarget } from "./posterior-target.js";
+import { widenedToConditionals } from "./conditional-widths.js";
 import { modeCovariance } from "./mode-covariance.js";
 import { paretoShapeThreshold, type SmoothedWeights } from "./pareto-smoothed-weights.js";
 import { profileProposal, type ImportanceProposal, type ProfileProposalOptions } from "./profile-proposal.js";
@@ -17,6 +18,12 @@ export interface ImportanceSamplingOptions {
   readonly draws?: number;
   /** Most draws in all (default 8000). */
   readonly maxDraws?: number;
+  /**
+   * Most draws from one refitted component before the next refit, while k-hat holds and the ESS is short
+   * (default: no limit, up to `maxDraws`). A component whose ESS grows slowly is then replaced by one
+   * fitted to more draws instead of being drawn from to the end of the budget.
+   */
+  readonly maxDrawsPerRefit?: number;
   /** Smallest acceptable effective sample size of the smoothed weights (default 400, as for MCMC). */
   readonly minimumEss?: number;
   /** Degrees of freedom of the Student-t proposals (default 5). */
@@ -49,6 +56,12 @@ export interface ImportanceSamplingOptions {
    * 1000 draws, 0.7 from 2154).
    */
   readonly shapeThreshold?: number;
+  /**
+   * Widen the pilot's covariance to each coordinate's conditional width measured on a grid through the mode
+   * ({@link widenedToConditionals}), for likelihoods that are not differentiable at the mode (lagged bands
+   * of a damped random walk); "shift" also moves the pilot to the conditional means. Default false.
+   */
+  readonly conditionalWidening?: boolean | "shift";
 }
 
 /** One component of the proposal mixture. */
@@ -138,8 +151,11 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
     rounds,
   });
 
-  const covariance = (options.covariance ?? modeCovariance)(target, mode);
-  if (covariance === undefined) return empty("the log density is not curved downwards in every direction at the mode");
+  const laplace = (options.covariance ?? modeCovariance)(target, mode);
+  if (laplace === undefined) return empty("the log density is not curved downwards in every direction at the mode");
+  const widened = options.conditionalWidening ? widenedToConditionals(target, mode, laplace, options.conditionalWidening === "shift") : undefined;
+  const covariance = widened?.covariance ?? laplace;
+  const centre = widened?.location ?? mode;
   const mixture = proposalMixture(target, rng);
   const { points, componentDraws } = mixture;
   const drawFrom = mixture.drawFrom;
@@ -147,14 +163,15 @@ export function importanceSample(target: PosteriorTarget, mode: Float64Array, rn
   const record = (kind: ImportanceRound["proposal"], draws: number, smoothed: SmoothedWeights) =>
     rounds.push({ proposal: kind, draws, paretoShape: smoothed.paretoShape, effectiveSampleSize: smoothed.effectiveSampleSize });
 
-  mixture.add(studentTProposal(mode, covariance.map((c) => inflation * c), nu));
+  mixture.add(studentTProposal(centre, covariance.map((c) => inflation * c), nu));
   const drawUntilEss = (j: number) => {
     // More draws from component j while k-hat is fine and the ESS short: the ESS grows about in
     // proportion to the draws, so ask for 10% more than that predicts.
     let smoothed = smooth();
-    while (smoothed.paretoShape <= threshold(points.length) && smoothed.effectiveSampleSize < minimumEss && points.length < maxDraws) {
+    const limit = () => Math.min(maxDraws, points.length + Math.max(0, (options.maxDrawsPerRefit ?? Infinity) - componentDraws[j]));
+    while (smoothed.paretoShape <= threshold(points.length) && smoothed.effectiveSampleSize < minimumEss && points.length < limit()) {
       const wanted = Math.ceil((1.1 * points.length * minimumEss) / Math.max(1, smoothed.effectiveSampleSize));
-      drawFrom(j, Math.min(maxDraws, Math.max(wanted, points.length + 100)) - points.length);
+      drawFrom(j, Math.min(limit(), Math.max(wanted, points.length + 100)) - points.length);
       smoothed = smooth();
     }
     return smoothed;

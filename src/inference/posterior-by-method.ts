@@ -25,6 +25,23 @@ export const IMPORTANCE_MAX_DIMENSION = 6;
 /** Importance sampling is not tried with fewer evaluations than this left after the optimisation (an ESS of 400 needs more draws). */
 export const MINIMUM_IMPORTANCE_BUDGET = 600;
 
+/**
+ * A draw of the importance sample whose ln p exceeds the mode's by more than this means the mode search
+ * stopped at a lesser mode (a Gaussian's draws lie below its mode; the searches stop within about 1e-4
+ * of a maximum): the search runs again from that draw, and importance sampling from the new mode.
+ */
+export const MODE_MISS_MARGIN = 1;
+
+/** Most repeated mode searches after a draw beat the mode ({@link MODE_MISS_MARGIN}). */
+export const MODE_RESEARCHES = 2;
+
+/** Index of the draw with the highest ln p, or undefined without draws. */
+function highestDraw(sample: ImportanceSample): number | undefined {
+  let best: number | undefined;
+  for (let s = 0; s < sample.logPosterior.length; s++) if (best === undefined || sample.logPosterior[s] > sample.logPosterior[best]) best = s;
+  return best;
+}
+
 /** Options of {@link posteriorByMethod}. */
 export interface MethodPosteriorOptions extends Omit<PosteriorSamplingOptions, "maximum"> {
   /**
@@ -45,6 +62,13 @@ export interface MethodPosteriorOptions extends Omit<PosteriorSamplingOptions, "
    * a mode found roughly, so a caller with an expensive likelihood may loosen the default tolerances.
    */
   readonly nelderMead?: NelderMeadOptions;
+  /**
+   * A further start of the mode search, derived from the maximum the first search found (physical values
+   * by name; missing names at their prior median), or undefined for none: the search runs again from it
+   * and the higher maximum is kept. A joint fit with lags rescans its lags with the kernel and amplitudes
+   * found there (models/joint-lag-scan.ts), which first guesses cannot give.
+   */
+  readonly restartFrom?: (maximum: Readonly<Record<string, number>>) => Readonly<Record<string, number>> | undefined;
 }
 
 /** The diagnostics of a posterior computed by either method. Keys that do not apply to a method are null. */
@@ -97,16 +121,19 @@ export interface MethodPosterior {
 
 /**
  * The posterior of a model by the cheapest method whose diagnostics hold: the maximum a posteriori
- * (several starts, as in {@link samplePosterior}), then the mode of the unconstrained density, then
- * Pareto-smoothed importance sampling from a Student-t at that mode ({@link importanceSample}); if k-hat
- * or the ESS fail, the MCMC sampler of `options.sampler` from the same maximum, charged with everything
- * spent so far. With `method: "mcmc"` the sampler runs directly.
+ * (several starts, as in {@link samplePosterior}, and one more from `restartFrom` when given), then the
+ * mode of the unconstrained density, then Pareto-smoothed importance sampling from a Student-t at that
+ * mode ({@link importanceSample}); a draw above the mode by more than {@link MODE_MISS_MARGIN} sends the
+ * search there again (and, unless the sample was accepted, importance sampling from the new mode, at
+ * most {@link MODE_RESEARCHES} times); if k-hat or the ESS fail, the MCMC sampler of `options.sampler`
+ * from the best maximum, charged with everything spent so far. With `method: "mcmc"` the sampler runs
+ * directly.
  */
 export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLikelihood, options: MethodPosteriorOptions): MethodPosterior {
   const clock = options.clock ?? (() => performance.now());
   const startTime = clock();
   const method = options.method ?? (options.sampler !== undefined ? "mcmc" : "importance");
-  const { method: _method, importance: importanceOptions, importanceMaxDimension, nelderMead, ...samplingOptions } = options;
+  const { method: _method, importance: importanceOptions, importanceMaxDimension, nelderMead, restartFrom, ...samplingOptions } = options;
   if (method === "mcmc" || space.dimension > (importanceMaxDimension ?? IMPORTANCE_MAX_DIMENSION) || space.dimension === 0) {
     return markovPosterior(samplePosterior(space, likelihood, samplingOptions));
   }
@@ -114,22 +141,36 @@ export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLik
   const seed = options.seed;
   const optimiserTarget = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: false }));
   const starts = startingPoints(space, options.starts ?? 6, createRng(childSeed(seed, 0)), options.initial);
-  const search = nelderMead ? { nelderMead } : {};
-  const found = findMaximumPosterior(optimiserTarget, { starts, ...search });
+  const searchOptions = nelderMead ? { nelderMead } : {};
+  let found = findMaximumPosterior(optimiserTarget, { starts, ...searchOptions });
+  const restart = restartFrom?.(space.recordFromPhysical(space.toPhysical(found.x)));
+  if (restart !== undefined) {
+    const again = findMaximumPosterior(optimiserTarget, { starts: [space.toUnconstrained(space.physicalFromRecord(restart))], ...searchOptions });
+    if (again.logPosterior > found.logPosterior) found = again;
+  }
   const target = countEvaluations(unconstrainedPosterior(space, likelihood, { jacobian: true }));
-  const mode = findMaximumPosterior(target, { starts: [found.x], ...search }).x;
+  let mode = findMaximumPosterior(target, { starts: [found.x], ...searchOptions });
   const budget = options.maxEvaluations ?? 2e6;
-  const spentBefore = evaluationCost(optimiserTarget.counts, gradientCost) + evaluationCost(target.counts, gradientCost);
-  const remaining = budget - spentBefore;
-  // Too little budget left for a useful importance sample: the sampler runs, and stops on the budget.
-  const importance =
-    remaining >= MINIMUM_IMPORTANCE_BUDGET
-      ? importanceSample(target, mode, createRng(childSeed(seed, 4)), {
-          ...importanceOptions,
-          maxDraws: Math.min(importanceOptions?.maxDraws ?? 8000, remaining),
-        })
-      : undefined;
-  const spent = evaluationCost(optimiserTarget.counts, gradientCost) + evaluationCost(target.counts, gradientCost);
+  const spentNow = () => evaluationCost(optimiserTarget.counts, gradientCost) + evaluationCost(target.counts, gradientCost);
+  let importance: ImportanceSample | undefined;
+  for (let search = 0; ; search++) {
+    const remaining = budget - spentNow();
+    // Too little budget left for a useful importance sample: the sampler runs, and stops on the budget.
+    if (remaining < MINIMUM_IMPORTANCE_BUDGET) break;
+    importance = importanceSample(target, mode.x, createRng(childSeed(seed, search === 0 ? 4 : 40 + search)), {
+      ...importanceOptions,
+      maxDraws: Math.min(importanceOptions?.maxDraws ?? 8000, remaining),
+    });
+    const best = highestDraw(importance);
+    if (best === undefined || !(importance.logPosterior[best] > mode.logPosterior + MODE_MISS_MARGIN)) break;
+    // A draw above the mode by more than a Gaussian's draws reach: the search stopped at a lesser mode.
+    found = findMaximumPosterior(optimiserTarget, { starts: [importance.points[best], found.x], ...searchOptions });
+    mode = findMaximumPosterior(target, { starts: [found.x, importance.points[best]], ...searchOptions });
+    // An accepted sample stands (its weights hold whatever mode it was drawn around): only the maximum moves.
+    if (importance.accepted || search === MODE_RESEARCHES) break;
+  }
+  const spent = spentNow();
+  const remaining = budget - spent;
   const maximum = space.recordFromPhysical(space.toPhysical(found.x));
   if (importance === undefined || !importance.accepted) {
     const sample = samplePosterior(space, likelihood, { ...samplingOptions, maximum: { found, evaluations: spent } });

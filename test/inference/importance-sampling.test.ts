@@ -6,19 +6,9 @@ import { paretoSmoothedWeights } from "../../src/inference/pareto-smoothed-weigh
 import type { PosteriorTarget } from "../../src/inference/posterior-target.js";
 import { createRng } from "../../src/random/rng.js";
 import { correlatedGaussian } from "./helpers/known-targets.js";
+import { weightedQuantile } from "./helpers/weighted-quantile.js";
 
 const PROBABILITIES = [0.025, 0.16, 0.5, 0.84, 0.975];
-
-/** The weighted p-quantile of coordinate i: the smallest draw whose cumulative weight reaches p. */
-function weightedQuantile(sample: ImportanceSample, i: number, p: number): number {
-  const order = sample.points.map((_, s) => s).sort((a, b) => sample.points[a][i] - sample.points[b][i]);
-  let cumulative = 0;
-  for (const s of order) {
-    cumulative += sample.weights[s];
-    if (cumulative >= p) return sample.points[s][i];
-  }
-  return sample.points[order[order.length - 1]][i];
-}
 
 /**
  * A d-dimensional multivariate Student-t with nu degrees of freedom, location 0 and identity scale:

@@ -1,0 +1,47 @@
+import normalLogPdf from "@stdlib/stats/base/dists/normal/logpdf";
+import { describe, expect, it } from "vitest";
+import { createParameterSpace } from "../../src/inference/parameter-space.js";
+import { posteriorByMethod } from "../../src/inference/posterior-by-method.js";
+import { normalPrior } from "../../src/inference/priors.js";
+import type { PhysicalLikelihood } from "../../src/inference/unconstrained-posterior.js";
+
+// Two separated modes in three dimensions: a minor one at the origin (weight `minor`, sd 0.5) and the
+// major one at x = (major, 0, 0) (weight 1, sd 0.5); a local search from the origin stops at the minor
+// one. Densities from @stdlib's normal distribution; the priors, N(0, 10^2), barely matter.
+function twoModes(major: number, minor: number): PhysicalLikelihood {
+  const component = (x: Float64Array, centre: number) => normalLogPdf(x[0], centre, 0.5) + normalLogPdf(x[1], 0, 0.5) + normalLogPdf(x[2], 0, 0.5);
+  return {
+    logLikelihood: (x) => {
+      const a = Math.log(minor) + component(x, 0);
+      const b = component(x, major);
+      const top = Math.max(a, b);
+      return top + Math.log(Math.exp(a - top) + Math.exp(b - top));
+    },
+  };
+}
+const space = createParameterSpace(["x", "y", "z"].map((name) => ({ name, prior: normalPrior(0, 10) })));
+const atOrigin = { x: 0, y: 0, z: 0 };
+
+describe("posteriorByMethod's mode search", () => {
+  it("restartFrom: a further start derived from the first maximum, the higher maximum kept", () => {
+    const seen: Record<string, number>[] = [];
+    const posterior = posteriorByMethod(space, twoModes(6, 0.01), {
+      seed: 3,
+      initial: atOrigin,
+      starts: 1,
+      restartFrom: (maximum) => {
+        seen.push({ ...maximum });
+        return { ...maximum, x: 5.5 };
+      },
+    });
+    expect(seen.length).toBe(1);
+    expect(Math.abs(seen[0]?.x ?? NaN)).toBeLessThan(0.1); // the first search stopped at the minor mode
+    expect(Math.abs((posterior.maximum.x ?? NaN) - 6)).toBeLessThan(0.05);
+    expect(posterior.method).toBe("importance");
+  });
+
+  it("a draw above the mode by more than the margin sends the search there again", () => {
+    const posterior = posteriorByMethod(space, twoModes(2.6, 0.05), { seed: 5, initial: atOrigin, starts: 1 });
+    expect(Math.abs((posterior.maximum.x ?? NaN) - 2.6)).toBeLessThan(0.05);
+  });
+});
