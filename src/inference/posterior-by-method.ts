@@ -1,4 +1,4 @@
-import { childSeed, createRng } from "../random/rng.js";
+import { childSeed, createRng, type Rng } from "../random/rng.js";
 import { countEvaluations, evaluationCost } from "./evaluation-counter.js";
 import { DEFAULT_GRADIENT_COST } from "./gradient-cost.js";
 import { importanceSample, type ImportanceSample, type ImportanceSamplingOptions } from "./importance-sampling.js";
@@ -10,6 +10,7 @@ import { posteriorDraws, type PosteriorDraws } from "./posterior-draws.js";
 import type { StopReason } from "./run-sampler.js";
 import { samplePosterior, type PosteriorSample, type PosteriorSamplingOptions, type SamplerKind } from "./sample-posterior.js";
 import { systematicResample } from "./weighted-resampling.js";
+import { defaultWalkerCount } from "./walker-ensemble.js";
 
 /** How a posterior was computed: Pareto-smoothed importance sampling, or one of the two MCMC samplers. */
 export type PosteriorMethod = "importance" | SamplerKind;
@@ -34,6 +35,18 @@ export const MODE_MISS_MARGIN = 1;
 
 /** Most repeated mode searches after a draw beat the mode ({@link MODE_MISS_MARGIN}). */
 export const MODE_RESEARCHES = 2;
+
+/**
+ * Start points for the MCMC fallback from a failed importance sample: `count` draws resampled by the
+ * smoothed weights, or undefined when fewer than half of them are distinct (weights on a handful of
+ * draws say little about the posterior's spread; the sampler then starts around the mode).
+ */
+function startsFromDraws(sample: ImportanceSample, count: number, rng: Rng): Float64Array[] | undefined {
+  if (sample.points.length < count) return undefined;
+  const picks = systematicResample(sample.weights, count, rng);
+  if (new Set(picks).size < count / 2) return undefined;
+  return Array.from(picks, (s) => sample.points[s]);
+}
 
 /** Index of the draw with the highest ln p, or undefined without draws. */
 function highestDraw(sample: ImportanceSample): number | undefined {
@@ -173,7 +186,8 @@ export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLik
   const remaining = budget - spent;
   const maximum = space.recordFromPhysical(space.toPhysical(found.x));
   if (importance === undefined || !importance.accepted) {
-    const sample = samplePosterior(space, likelihood, { ...samplingOptions, maximum: { found, evaluations: spent } });
+    const walkerStarts = importance ? startsFromDraws(importance, samplingOptions.sampler === "nuts" ? (samplingOptions.chains ?? 4) : (samplingOptions.walkers ?? defaultWalkerCount(space.dimension)), createRng(childSeed(seed, 6))) : undefined;
+    const sample = samplePosterior(space, likelihood, { ...samplingOptions, maximum: { found, evaluations: spent }, ...(walkerStarts ? { startPoints: walkerStarts } : {}) });
     const chains = markovPosterior(sample);
     const fallback = importance === undefined ? `${Math.round(remaining)} evaluations left after the optimisation, too few to try importance sampling` : (importance.reason ?? "importance sampling failed");
     return {

@@ -57,6 +57,13 @@ export interface PosteriorSamplingOptions extends RunSamplerOptions {
    * to the budget. Used when importance sampling was tried first and its diagnostics failed.
    */
   readonly maximum?: { readonly found: MaximumPosterior; readonly evaluations: number };
+  /**
+   * Points to start the walkers (the first `walkers` of them) or the NUTS chains (the first `chains`) at,
+   * in the target's unconstrained coordinates, instead of a cloud around the mode: draws of an importance
+   * sample that failed its diagnostics are spread about as the posterior is, where the ensemble's tight
+   * ball must first grow to it. Ignored when there are too few.
+   */
+  readonly startPoints?: readonly Float64Array[];
 }
 
 /** The result of {@link samplePosterior}. */
@@ -78,6 +85,11 @@ export interface PosteriorSample {
   readonly details: Record<string, unknown>;
   /** A bounded trace of the whole run, warm-up included, in physical units. */
   readonly trace: ChainTrace;
+}
+
+/** Copies of the first `count` of `points`, or undefined when there are fewer. */
+function startsFrom(points: readonly Float64Array[] | undefined, count: number): Float64Array[] | undefined {
+  return points !== undefined && points.length >= count ? points.slice(0, count).map((x) => Float64Array.from(x)) : undefined;
 }
 
 /** Draws `count` points around `centre`, `scale[i] * spread` wide, each with a finite log density. */
@@ -108,7 +120,7 @@ function cloudAround(
  * Samples the posterior of a model: finds the maximum a posteriori from several starts (L-BFGS with the
  * likelihood's gradient, or Nelder-Mead without), moves from it to the mode of the unconstrained density
  * the samplers see, starts NUTS chains (spread by the curvature at that mode) or ensemble walkers (a
- * tight ball, a tenth of that) around it, NUTS with those scales squared as its first inverse mass matrix, and runs the sampler until the
+ * tight ball, a tenth of that) around it, or at `startPoints` when given, NUTS with those scales squared as its first inverse mass matrix, and runs the sampler until the
  * convergence criteria hold or the budget is spent ({@link runSampler}). Returns summaries in
  * physical units and the run.
  *
@@ -153,7 +165,8 @@ export function samplePosterior(
   let sampler;
   if (kind === "nuts") {
     if (!hasGradient(target)) throw new RangeError("NUTS needs a likelihood with a gradient");
-    const initial = cloudAround(target, mode, scales, 1, options.chains ?? 4, startRng);
+    const chains = options.chains ?? 4;
+    const initial = startsFrom(options.startPoints, chains) ?? cloudAround(target, mode, scales, 1, chains, startRng);
     sampler = createNutsSampler(target, initial, childSeed(seed, 3), {
       ...(options.warmup !== undefined ? { warmup: options.warmup } : {}),
       ...(options.targetAcceptance !== undefined ? { targetAcceptance: options.targetAcceptance } : {}),
@@ -161,7 +174,8 @@ export function samplePosterior(
       initialInverseMass: Float64Array.from(scales, (s) => s * s),
     });
   } else {
-    const initial = cloudAround(target, mode, scales, 0.1, options.walkers ?? defaultWalkerCount(space.dimension), startRng);
+    const walkers = options.walkers ?? defaultWalkerCount(space.dimension);
+    const initial = startsFrom(options.startPoints, walkers) ?? cloudAround(target, mode, scales, 0.1, walkers, startRng);
     sampler = createWalkerEnsemble(target, initial, createRng(childSeed(seed, 2)), options.proposals ? { proposals: options.proposals } : {});
   }
   const setupCost = evaluationCost(target.counts, gradientCost);

@@ -44,4 +44,22 @@ describe("posteriorByMethod's mode search", () => {
     const posterior = posteriorByMethod(space, twoModes(2.6, 0.05), { seed: 5, initial: atOrigin, starts: 1 });
     expect(Math.abs((posterior.maximum.x ?? NaN) - 2.6)).toBeLessThan(0.05);
   });
+
+  it("the ensemble after a failed importance sample starts from its draws, spread as the posterior is", () => {
+    // Three independent N(0, 1) coordinates (the N(0, 10^2) priors shift them by 1%); an ESS no sample
+    // reaches forces the fallback. The ensemble's usual start is a ball a tenth of the sd wide.
+    const standard: PhysicalLikelihood = { logLikelihood: (x) => -0.5 * (x[0] * x[0] + x[1] * x[1] + x[2] * x[2]) };
+    const posterior = posteriorByMethod(space, standard, { seed: 8, initial: atOrigin, starts: 1, importance: { minimumEss: 1e9, maxDraws: 2000 } });
+    expect(posterior.method).toBe("ensemble");
+    expect(posterior.diagnostics.importanceFallback).toContain("ESS");
+    const trace = posterior.sample?.trace;
+    const walkers = (trace?.series ?? []).filter((series) => series.chain !== null);
+    expect(walkers.length).toBe(4);
+    for (const name of ["x", "y", "z"]) {
+      const starts = walkers.map((series) => series.values[name]?.[0] ?? NaN);
+      // Four draws of N(0, 1) span about 2 (the expected range of 4 normals is 2.06, from memory).
+      expect(Math.max(...starts) - Math.min(...starts)).toBeGreaterThan(0.6);
+    }
+    expect(posterior.diagnostics.converged).toBe(true);
+  });
 });
