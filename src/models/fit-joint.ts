@@ -71,9 +71,10 @@ const JOINT_LAG_STARTS = 1;
  * conditionals are tents the curvature at the tip measures 1.5-3.6 times too narrow: the pilot is widened
  * to the conditional widths measured on a grid and moved to the conditional means
  * (`conditionalWidening`, inference/conditional-widths.ts). In 12 dimensions a refit at 1.5 times the
- * weighted scale (the default beyond two dimensions) is itself a 12-fold loss of ESS per draw (a
- * Gaussian at s times the sd gives (s^2 / (2 s^2 - 1))^(d/2) of the draws' worth); 1.2 times
- * suffices with the widened pilot in the mixture. Refits replace a component after 3600 of its draws
+ * weighted scale (the default beyond two dimensions) is itself a 9-fold loss of ESS per draw (a
+ * Gaussian proposal s times wider than a Gaussian posterior keeps 1 / E_q[(p/q)^2] = ((2 s^2 - 1) / s^4)^(d/2)
+ * of the draws' worth, common practice); 1.2 times (a 1.8-fold loss) suffices with the widened pilot in
+ * the mixture. Refits replace a component after 3600 of its draws
  * and up to 16,000 draws are taken (about 1.6 CPU s at 360 points), still far cheaper than the walker
  * ensemble's 5e5 evaluations. Measured on bench/multi-band-calibration.ts --lags (bench/README.md).
  */
