@@ -1,6 +1,6 @@
 /**
  * Writes the built-in demo light curves of `horologium demo` (run once; the CSV files are committed):
- * two invented objects of the invented Lanternfield Deep Survey, simulated with Horologium itself.
+ * three invented objects of the invented Lanternfield Deep Survey, simulated with Horologium itself.
  *
  *   npx tsx scripts/make-demo-data.ts
  */
@@ -10,6 +10,7 @@ import { kernels } from "../src/kernels/index.js";
 import { seasonalGroundCadence } from "../src/lightcurve/cadence.js";
 import { formatLightCurveCsv } from "../src/lightcurve/light-curve-csv.js";
 import { observeMagnitudes } from "../src/lightcurve/simulated-photometry.js";
+import { simulateInterleavedBands } from "../src/models/simulated-bands.js";
 import { createRng } from "../src/random/rng.js";
 
 const quasarRng = createRng("lanternfield-quasar");
@@ -40,4 +41,32 @@ writeFileSync(
     ],
   }),
 );
-console.log(`quasar: ${quasarTimes.length} points; star: ${starTimes.length} points`);
+// Six filters visited in turn, one per night; the continuum at longer wavelengths follows the shorter
+// ones by days (lags relative to g), and the variability amplitude falls with wavelength.
+const bandsRng = createRng("lanternfield-six-band-quasar");
+const visits = seasonalGroundCadence({ start: 59000, seasons: 4, revisitInterval: 1.5 }, bandsRng);
+const sixBands = simulateInterleavedBands(
+  kernels.dampedRandomWalk({ sigma: 0.2, tau: 140 }),
+  visits,
+  [
+    { name: "u", amplitude: 1.25, mean: 20.9, lag: -1.5, depth5Sigma: 23.3 },
+    { name: "g", amplitude: 1, mean: 20.5, lag: 0, depth5Sigma: 24.3 },
+    { name: "r", amplitude: 0.85, mean: 20.3, lag: 1.6, depth5Sigma: 24.1 },
+    { name: "i", amplitude: 0.75, mean: 20.1, lag: 3, depth5Sigma: 23.6 },
+    { name: "z", amplitude: 0.65, mean: 20.0, lag: 4.2, depth5Sigma: 22.9 },
+    { name: "y", amplitude: 0.6, mean: 19.9, lag: 5.2, depth5Sigma: 22.0 },
+  ],
+  bandsRng,
+  "LDS J2207+0134",
+);
+writeFileSync(
+  "demo/lds-j2207-0134-six-band-quasar.csv",
+  formatLightCurveCsv(sixBands, {
+    comments: [
+      "Lanternfield Deep Survey (an invented survey): quasar LDS J2207+0134 (invented), redshift 0.74, bands u g r i z y",
+      "simulated: one damped random walk, sigma = 0.2 mag in g, tau = 140 d; amplitudes relative to g 1.25 1 0.85 0.75 0.65 0.6;",
+      "lags relative to g -1.5 0 1.6 3.0 4.2 5.2 d; one filter per visit, in turn",
+    ],
+  }),
+);
+console.log(`quasar: ${quasarTimes.length} points; star: ${starTimes.length} points; six-band quasar: ${visits.length} visits`);

@@ -1,4 +1,5 @@
 import type { FitDiagnostics, ParameterSummary } from "../models/fit-result.js";
+import { sourceStem } from "./source-stem.js";
 import { importanceFigures } from "../models/importance-figures.js";
 import { convergenceFigure, formatAtDigit, formatMeasurement, formatSignificant, lastDigitPower } from "./format-measurement.js";
 import { escapeHtml } from "./html-escape.js";
@@ -151,11 +152,6 @@ function interval95(s: ParameterSummary): string {
   }
   const power = lastDigitPower(smaller);
   return `${formatAtDigit(s["q2.5"], power)} to ${formatAtDigit(s["q97.5"], power)}`;
-}
-
-/** The file name without folders and extensions, as the object's name when nothing better is known. */
-function sourceStem(source: string): string {
-  return source.replace(/^.*[\\/]/, "").replace(/\.gz$/i, "").replace(/\.[^.]+$/, "") || source;
 }
 
 function derivedSection(input: ReportInput): string {

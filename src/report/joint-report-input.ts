@@ -4,6 +4,7 @@ import { evenlySpacedItems } from "../numerics/even-thinning.js";
 import { storedPosteriorSample } from "../models/posterior-sample.js";
 import { reportInputFromDraws, type ReportSizes } from "./report-from-fit.js";
 import type { BandPanel, ReportInput } from "./report-input.js";
+import { sourceStem } from "./source-stem.js";
 
 /**
  * The report of a joint multi-band fit: the reference band in the place of the single light curve (its
@@ -30,5 +31,5 @@ export function jointReportInput(
     lightCurve,
     prediction: b === reference ? base.prediction : jointPredictive(model, lightCurves, rows, b, grid),
   }));
-  return { ...base, bandPanels, title: `${lightCurves[reference].provenance.source}, ${model.bands.length} bands fitted jointly` };
+  return { ...base, bandPanels, title: `${sourceStem(lightCurves[reference].provenance.source)}, ${model.bands.length} bands fitted jointly: ${result.model}` };
 }

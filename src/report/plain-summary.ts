@@ -43,9 +43,18 @@ export function plainSummary(input: ReportInput): string[] {
     result.data.dropped > 0
       ? ` ${result.data.dropped} ${result.data.dropped === 1 ? "row was" : "rows were"} dropped (${reasons.join(", ")}).`
       : "";
+  // A joint fit of several bands: their counts, and which one the amplitudes and lags are relative to.
+  const panels = input.bandPanels ?? [];
+  const joint = panels.length > 1;
+  const subject = joint
+    ? `The ${panels.length} bands have ${result.data.n} measurements together (${panels.map((p) => `${p.lightCurve.time.length} in ${p.band}`).join(", ")})`
+    : `The light curve${band} has ${result.data.n} measurements`;
+  const lagged = Object.keys(result.parameters).some((name) => name.startsWith("lag."));
+  const reference = joint ? ` The amplitudes${lagged ? " and lags" : ""} are relative to band ${lightCurve.band ?? panels[0].band}.` : "";
   sentences.push(
-    `The light curve${band} has ${result.data.n} measurements over a baseline of ` +
+    `${subject} over a baseline of ` +
       `${formatSignificant(result.data.baseline)} ${timeUnit}, with a median spacing of ${formatSignificant(result.data.medianCadence)} ${timeUnit}.` +
+      reference +
       dropped +
       (result.data.errorColumn === null ? " The file gives no errors, so a white-noise term was fitted." : ""),
   );

@@ -29,6 +29,18 @@ describe("plainSummary", () => {
     // Kozlowski 2017 (A&A 597, A128): the baseline should be at least about 10 tau; 4000/312.4 = 12.8.
     expect(text).toContain("The baseline is 13 times the timescale, long enough");
   });
+  it("counts a joint fit's measurements per band and names the reference band", () => {
+    const band = (name: string, count: number) => ({ ...base.lightCurve, band: name, time: new Float64Array(count) });
+    const prediction = base.prediction;
+    const bandPanels = [band("g", 30), band("r", 25), band("i", 20)].map((lightCurve) => ({ band: lightCurve.band, lightCurve, prediction }));
+    const input = withResult(
+      { data: { ...base.result.data, n: 75 }, parameters: { ...base.result.parameters, "lag.r": summary(2, 1.8, 2.2), "amplitude.r": summary(0.8, 0.78, 0.82) } },
+      { bandPanels, lightCurve: bandPanels[0].lightCurve },
+    );
+    const text = plainSummary(input).join(" ");
+    expect(text).toContain("The 3 bands have 75 measurements together (30 in g, 25 in r, 20 in i) over a baseline of");
+    expect(text).toContain("The amplitudes and lags are relative to band g.");
+  });
   it("says when the baseline is too short for an unbiased DRW timescale", () => {
     // Kozlowski 2017: below ~10 tau the timescale is biased; 1500 / 312.4 = 4.8.
     const input = withResult({

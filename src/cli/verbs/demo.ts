@@ -12,15 +12,19 @@ import { seedOption, textOption, withParsedArguments } from "../verb-arguments.j
 import { writeOutput } from "../write-output.js";
 import { fitAll } from "../fit-light-curves.js";
 import { predictionCsv } from "../../models/prediction-csv.js";
+import { jointReportInput } from "../../report/joint-report-input.js";
+import { fitJointWithProgress } from "../fit-bands.js";
 
 const HELP = `Usage: horologium demo [--out DIR] [--seed N] [--no-report] [--quiet]
 
-Runs the main job on the built-in demo data, two invented objects of the invented Lanternfield
-Deep Survey (eight and three seasons with ~6-month gaps):
+Runs the main job on the built-in demo data, three invented objects of the invented Lanternfield
+Deep Survey (eight, three and four seasons with ~6-month gaps):
   1. quasar LDS J0412-2731 (redshift 1.62): damped random walk; timescale, SF_inf, rest-frame
      timescale, and a forecast across the next seasonal gap;
   2. spotted star LDS V-2291: quasi-periodic rotation; period with its interval, after checking
-     the periodogram's aliases.
+     the periodogram's aliases;
+  3. quasar LDS J2207+0134 in six bands visited in turn: one damped random walk fitted to all
+     bands at once, with each band's amplitude and lag relative to g.
 Prints a summary and writes to DIR (default horologium-demo): the fit results (JSON), the gap
 forecast (CSV) and an HTML report with figures per object.
 
@@ -46,7 +50,7 @@ export function demoDataDirectory(): string {
 
 /** `horologium demo`. */
 export const verb: CliVerb = {
-  summary: "fit the built-in demo data: an invented quasar and an invented spotted star",
+  summary: "fit the built-in demo data: an invented quasar, an invented spotted star and an invented six-band quasar",
   run: withParsedArguments(OPTIONS, HELP, async ({ values }, io: CliIo) => {
     const quiet = values.quiet === true;
     const out = resolve(io.cwd, textOption(values, "out") ?? "horologium-demo");
@@ -93,6 +97,17 @@ export const verb: CliVerb = {
         say(`   report: ${written.html}\n`);
       }
     });
+    const sixBandFile = join(data, "lds-j2207-0134-six-band-quasar.csv");
+    const bands = (await readLightCurves(sixBandFile)).lightCurves;
+    const visits = bands.reduce((total, band) => total + band.time.length, 0);
+    say(`\n3. Quasar LDS J2207+0134 in ${bands.length} bands (${bands.map((band) => band.band).join(" ")}): ${visits} visits, one band per visit\n`);
+    const choice = { kind: "joint", lags: true, referenceBand: "g" } as const;
+    const joint = fitJointWithProgress(bands, { model: "drw", seed }, choice, { ...io, stderr: quiet ? () => undefined : io.stdout }, quiet);
+    writeOutput(JSON.stringify(joint.result, null, 2) + "\n", join(out, "six-band-quasar-result.json"), io);
+    if (values["no-report"] !== true) {
+      const written = await writeReport(jointReportInput(joint), join(out, "six-band-quasar-report"));
+      say(`   report: ${written.html}\n`);
+    }
     say(`\nDone. The JSON results follow the format in docs/architecture.md ("Result JSON"); try "horologium report ${join(out, "quasar-result.json")}" or "horologium fit --help".\n`);
     return 0;
   }),
