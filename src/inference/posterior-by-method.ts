@@ -33,6 +33,9 @@ export const MINIMUM_IMPORTANCE_BUDGET = 600;
  */
 export const MODE_MISS_MARGIN = 1;
 
+/** Each retried importance sample may take this many times the draws of the one before ({@link MethodPosteriorOptions.importanceRetries}). */
+export const IMPORTANCE_RETRY_GROWTH = 3;
+
 /** Most repeated mode searches after a draw beat the mode ({@link MODE_MISS_MARGIN}). */
 export const MODE_RESEARCHES = 2;
 
@@ -82,6 +85,13 @@ export interface MethodPosteriorOptions extends Omit<PosteriorSamplingOptions, "
    * found there (models/joint-lag-scan.ts), which first guesses cannot give.
    */
   readonly restartFrom?: (maximum: Readonly<Record<string, number>>) => Readonly<Record<string, number>> | undefined;
+  /**
+   * Further importance samples from the same mode when one fails its diagnostics, each allowed
+   * {@link IMPORTANCE_RETRY_GROWTH} times the draws of the one before, before MCMC runs (default 0). For
+   * posteriors the walker ensemble mixes slowly in (a joint fit with lags: 5e5 to over 2e6 evaluations
+   * where tens of thousands of importance draws cost a few seconds).
+   */
+  readonly importanceRetries?: number;
 }
 
 /** The diagnostics of a posterior computed by either method. Keys that do not apply to a method are null. */
@@ -138,15 +148,16 @@ export interface MethodPosterior {
  * mode of the unconstrained density, then Pareto-smoothed importance sampling from a Student-t at that
  * mode ({@link importanceSample}); a draw above the mode by more than {@link MODE_MISS_MARGIN} sends the
  * search there again (and, unless the sample was accepted, importance sampling from the new mode, at
- * most {@link MODE_RESEARCHES} times); if k-hat or the ESS fail, the MCMC sampler of `options.sampler`
- * from the best maximum, charged with everything spent so far. With `method: "mcmc"` the sampler runs
+ * most {@link MODE_RESEARCHES} times); a failed sample is retried with more draws `importanceRetries`
+ * times; if k-hat or the ESS still fail, the MCMC sampler of `options.sampler` from the best maximum,
+ * started at draws of the failed sample, charged with everything spent so far. With `method: "mcmc"` the sampler runs
  * directly.
  */
 export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLikelihood, options: MethodPosteriorOptions): MethodPosterior {
   const clock = options.clock ?? (() => performance.now());
   const startTime = clock();
   const method = options.method ?? (options.sampler !== undefined ? "mcmc" : "importance");
-  const { method: _method, importance: importanceOptions, importanceMaxDimension, nelderMead, restartFrom, ...samplingOptions } = options;
+  const { method: _method, importance: importanceOptions, importanceMaxDimension, nelderMead, restartFrom, importanceRetries, ...samplingOptions } = options;
   if (method === "mcmc" || space.dimension > (importanceMaxDimension ?? IMPORTANCE_MAX_DIMENSION) || space.dimension === 0) {
     return markovPosterior(samplePosterior(space, likelihood, samplingOptions));
   }
@@ -166,21 +177,26 @@ export function posteriorByMethod(space: ParameterSpace, likelihood: PhysicalLik
   const budget = options.maxEvaluations ?? 2e6;
   const spentNow = () => evaluationCost(optimiserTarget.counts, gradientCost) + evaluationCost(target.counts, gradientCost);
   let importance: ImportanceSample | undefined;
-  for (let search = 0; ; search++) {
+  let maxDraws = importanceOptions?.maxDraws ?? 8000;
+  for (let attempt = 0, searches = 0, retries = 0; ; attempt++) {
     const remaining = budget - spentNow();
     // Too little budget left for a useful importance sample: the sampler runs, and stops on the budget.
     if (remaining < MINIMUM_IMPORTANCE_BUDGET) break;
-    importance = importanceSample(target, mode.x, createRng(childSeed(seed, search === 0 ? 4 : 40 + search)), {
+    importance = importanceSample(target, mode.x, createRng(childSeed(seed, attempt === 0 ? 4 : 40 + attempt)), {
       ...importanceOptions,
-      maxDraws: Math.min(importanceOptions?.maxDraws ?? 8000, remaining),
+      maxDraws: Math.min(maxDraws, remaining),
     });
     const best = highestDraw(importance);
-    if (best === undefined || !(importance.logPosterior[best] > mode.logPosterior + MODE_MISS_MARGIN)) break;
-    // A draw above the mode by more than a Gaussian's draws reach: the search stopped at a lesser mode.
-    found = findMaximumPosterior(optimiserTarget, { starts: [importance.points[best], found.x], ...searchOptions });
-    mode = findMaximumPosterior(target, { starts: [found.x, importance.points[best]], ...searchOptions });
-    // An accepted sample stands (its weights hold whatever mode it was drawn around): only the maximum moves.
-    if (importance.accepted || search === MODE_RESEARCHES) break;
+    if (best !== undefined && importance.logPosterior[best] > mode.logPosterior + MODE_MISS_MARGIN) {
+      // A draw above the mode by more than a Gaussian's draws reach: the search stopped at a lesser mode.
+      found = findMaximumPosterior(optimiserTarget, { starts: [importance.points[best], found.x], ...searchOptions });
+      mode = findMaximumPosterior(target, { starts: [found.x, importance.points[best]], ...searchOptions });
+      // An accepted sample stands (its weights hold whatever mode it was drawn around): only the maximum moves.
+      if (importance.accepted || ++searches > MODE_RESEARCHES) break;
+      continue;
+    }
+    if (importance.accepted || retries++ >= (importanceRetries ?? 0)) break;
+    maxDraws *= IMPORTANCE_RETRY_GROWTH;
   }
   const spent = spentNow();
   const remaining = budget - spent;

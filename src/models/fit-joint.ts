@@ -45,12 +45,6 @@ export interface DetailedJointFit {
 export const JOINT_IMPORTANCE_MAX_DIMENSION = 12;
 
 /**
- * The joint mode search's Nelder-Mead tolerances: values within 1e-7 of max(1, |ln p|) (about 1e-4 in ln p
- * for a few hundred points) and a simplex within 1e-3 along every axis of the unconstrained space. The
- * importance weights correct a mode found this closely (the Laplace proposal is inflated twofold), and
- * the library's tighter defaults cost most of the fit's evaluations in 7-12 dimensions.
- */
-/**
  * Starts of the joint mode search: the data-driven first guess and one prior draw. Each start of a
  * Nelder-Mead search in 7-12 dimensions costs about 1500 evaluations, most of a joint fit's, and on the
  * six-band quasars of bench/multi-band-fit.ts further starts found the same mode.
@@ -66,6 +60,14 @@ const JOINT_STARTS = 2;
 const JOINT_LAG_STARTS = 1;
 
 /**
+ * With lags, a failed importance sample is tried once more with three times the draws (48,000, about
+ * 5 CPU s) before the walker ensemble runs: in these 12 dimensions the ensemble's autocorrelation is
+ * long (kinked, tent-shaped lag conditionals), and forced fallbacks needed 4.6e5 to over 2e6
+ * evaluations (35-158 CPU s, one not converged within the budget; bench/README.md).
+ */
+const JOINT_LAG_IMPORTANCE_RETRIES = 1;
+
+/**
  * Importance sampling settings of a joint fit with lags (the caller's `importance` options override them).
  * The likelihood has a kink wherever a shifted time crosses another band's time, and the lags'
  * conditionals are tents the curvature at the tip measures 1.5-3.6 times too narrow: the pilot is widened
@@ -74,9 +76,8 @@ const JOINT_LAG_STARTS = 1;
  * weighted scale (the default beyond two dimensions) is itself a 9-fold loss of ESS per draw (a
  * Gaussian proposal s times wider than a Gaussian posterior keeps 1 / E_q[(p/q)^2] = ((2 s^2 - 1) / s^4)^(d/2)
  * of the draws' worth, common practice); 1.2 times (a 1.8-fold loss) suffices with the widened pilot in
- * the mixture. Refits replace a component after 3600 of its draws
- * and up to 16,000 draws are taken (about 1.6 CPU s at 360 points), still far cheaper than the walker
- * ensemble's 5e5 evaluations. Measured on bench/multi-band-calibration.ts --lags (bench/README.md).
+ * the mixture. Refits replace a component after 3600 of its draws and up to 16,000 draws are taken
+ * (about 1.6 CPU s at 360 points), still far cheaper than the walker ensemble's 5e5 evaluations. Measured on bench/multi-band-calibration.ts --lags (bench/README.md).
  */
 export const JOINT_LAG_IMPORTANCE: ImportanceSamplingOptions = {
   conditionalWidening: "shift",
@@ -86,6 +87,12 @@ export const JOINT_LAG_IMPORTANCE: ImportanceSamplingOptions = {
   maxDrawsPerRefit: 3600,
 };
 
+/**
+ * The joint mode search's Nelder-Mead tolerances: values within 1e-7 of max(1, |ln p|) (about 1e-4 in ln p
+ * for a few hundred points) and a simplex within 1e-3 along every axis of the unconstrained space. The
+ * importance weights correct a mode found this closely (the Laplace proposal is inflated twofold), and
+ * the library's tighter defaults cost most of the fit's evaluations in 7-12 dimensions.
+ */
 const JOINT_MODE_SEARCH = { valueTolerance: 1e-7, sizeTolerance: 1e-3 };
 
 /**
@@ -123,6 +130,7 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
     initial: sampledOnly({ ...model.initialGuess, ...lagScanGuess(model, lightCurves) }),
     starts: model.lags ? JOINT_LAG_STARTS : JOINT_STARTS,
     ...(model.lags ? { restartFrom: (maximum: Readonly<Record<string, number>>) => sampledOnly({ ...maximum, ...lagScanGuess(model, lightCurves, maximum) }) } : {}),
+    ...(model.lags ? { importanceRetries: JOINT_LAG_IMPORTANCE_RETRIES } : {}),
     maxEvaluations: options.maxEvaluations ?? DEFAULT_FIT_BUDGET,
     ...(options.sampler ? { sampler: options.sampler } : {}),
     method: fitMethod(model, options),

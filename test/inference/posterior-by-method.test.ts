@@ -1,3 +1,4 @@
+import laplaceLogPdf from "@stdlib/stats/base/dists/laplace/logpdf";
 import normalLogPdf from "@stdlib/stats/base/dists/normal/logpdf";
 import { describe, expect, it } from "vitest";
 import { createParameterSpace } from "../../src/inference/parameter-space.js";
@@ -61,5 +62,36 @@ describe("posteriorByMethod's mode search", () => {
       expect(Math.max(...starts) - Math.min(...starts)).toBeGreaterThan(0.6);
     }
     expect(posterior.diagnostics.converged).toBe(true);
+  });
+
+  it("importanceRetries: a failed sample is drawn again with three times the draws before MCMC runs", () => {
+    // Twelve Laplace (double-exponential) coordinates, tent-shaped at the mode (@stdlib's Laplace density),
+    // an ESS of 700 that 2400 draws from the widened pilot and its refits do not reach.
+    const names = Array.from({ length: 12 }, (_, i) => `x${i}`);
+    const tents = createParameterSpace(names.map((name) => ({ name, prior: normalPrior(0, 100) })));
+    const centre = (i: number) => 0.5 * i - 2;
+    const likelihood: PhysicalLikelihood = {
+      logLikelihood: (x) => {
+        let sum = 0;
+        for (let i = 0; i < 12; i++) sum += laplaceLogPdf(x[i], centre(i), 0.05 * (1 + (i % 4)));
+        return sum;
+      },
+    };
+    const options = {
+      seed: 2,
+      initial: Object.fromEntries(names.map((name, i) => [name, centre(i)])),
+      starts: 1,
+      importanceMaxDimension: 12,
+      maxEvaluations: 30000,
+      importance: { conditionalWidening: "shift" as const, refitInflation: 1.44, minimumEss: 700, maxDraws: 2400 },
+    };
+    const once = posteriorByMethod(tents, likelihood, options);
+    expect(once.method).toBe("ensemble");
+    expect(once.diagnostics.importanceDraws).toBe(2400);
+    const retried = posteriorByMethod(tents, likelihood, { ...options, importanceRetries: 1 });
+    expect(retried.method).toBe("importance");
+    expect(retried.diagnostics.essMin).toBeGreaterThanOrEqual(700);
+    expect(retried.diagnostics.importanceDraws ?? 0).toBeGreaterThan(2400);
+    expect(retried.diagnostics.importanceDraws ?? Infinity).toBeLessThanOrEqual(3 * 2400);
   });
 });
