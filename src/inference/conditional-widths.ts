@@ -38,7 +38,7 @@ export interface ConditionalWidths {
  * is tent-shaped (ln p falling linearly on both sides), and finite differences of ln p at the tip
  * measure the kink, not the tent: on the six-band quasars of bench/multi-band-calibration.ts the
  * conditional sd of a lag was 1.5-3.6 times the Laplace one (bench/README.md).
- * Cost: at most 2 x 19 evaluations per coordinate, about 2 x 12 where the curvature was right.
+ * Cost: at most 2 x 19 evaluations per coordinate, 2 x 10 for a Gaussian whose curvature was right.
  */
 export function conditionalWidths(target: PosteriorTarget, mode: Float64Array, scales: ArrayLike<number>): ConditionalWidths {
   const d = target.dimension;
