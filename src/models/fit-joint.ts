@@ -108,6 +108,8 @@ const JOINT_MODE_SEARCH = { valueTolerance: 1e-7, sizeTolerance: 1e-3 };
  * `fitWarnings`), plus the lag warnings (`jointWarnings`).
  */
 export function fitJointDetailed(lightCurves: readonly LightCurve[], options: JointFitOptions): DetailedJointFit {
+  // The robust (Student-t) noise is a model of one light curve's points; the joint model has none.
+  if (options.robust) throw new RangeError("fitJointDetailed: robust noise fits one band at a time; the joint model of several bands has none");
   const clock = options.clock ?? (() => performance.now());
   const start = clock();
   const reference = referenceBandIndex(lightCurves, options.referenceBand);

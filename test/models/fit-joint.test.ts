@@ -30,4 +30,15 @@ describe("joint fit", () => {
     }
     expect(fit.draws.columns["mean.r"]?.length).toBe(fit.draws.chain.length); // the band means drawn back
   });
+
+  it("refuses robust noise, which is a model of one band's points, rather than fit without it", () => {
+    const rng = createRng("fit-joint:robust");
+    const visits = seasonalGroundCadence({ seasons: 1, revisitInterval: 2 }, rng).slice(0, 40);
+    const bands = [
+      { name: "g", amplitude: 1, mean: 20, depth5Sigma: 24 },
+      { name: "r", amplitude: 0.8, mean: 19.9, depth5Sigma: 24 },
+    ];
+    const lightCurves = simulateInterleavedBands(kernels.dampedRandomWalk({ sigma: 0.2, tau: 50 }), visits, bands, rng);
+    expect(() => fitJointDetailed(lightCurves, { model: "drw", seed: 1, robust: true })).toThrow(/robust noise fits one band at a time/);
+  });
 });
