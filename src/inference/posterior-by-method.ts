@@ -44,7 +44,7 @@ export const MODE_RESEARCHES = 2;
  * smoothed weights, or undefined when fewer than half of them are distinct (weights on a handful of
  * draws say little about the posterior's spread; the sampler then starts around the mode).
  */
-function startsFromDraws(sample: ImportanceSample, count: number, rng: Rng): Float64Array[] | undefined {
+export function startsFromDraws(sample: ImportanceSample, count: number, rng: Rng): Float64Array[] | undefined {
   if (sample.points.length < count) return undefined;
   const picks = systematicResample(sample.weights, count, rng);
   if (new Set(picks).size < count / 2) return undefined;

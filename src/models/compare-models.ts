@@ -1,4 +1,5 @@
 import {
+  defaultWalkerCount,
   findMaximumPosterior,
   unconstrainedPosterior,
   startingPoints,
@@ -13,6 +14,7 @@ import { summarizeLightCurve } from "./data-summary.js";
 import { bayesFactorPreference, twoLogBayesFactorText, type EvidencePreference } from "./evidence-scale.js";
 import { importanceLogEvidence, type ImportanceEvidence } from "./importance-evidence.js";
 import { markovBridgeEvidence } from "./mcmc-evidence.js";
+import { startsFromDraws } from "../inference/posterior-by-method.js";
 import { laplaceLogEvidence } from "./laplace-evidence.js";
 import { periodogramPeriod } from "./fit-period-search.js";
 import { buildModel, modelLikelihood, type ModelName } from "./light-curve-model.js";
@@ -194,7 +196,9 @@ function evidenceAt(
       evidenceDetail: `importance sampling: ${estimate.draws} draws${modeText}, ${shapeText}`,
     };
   }
-  const bridge = markovBridgeEvidence(problem.space, problem.likelihood, problem.target, problem.maximum, rng, { seed, symmetries });
+  // The walkers start at the failed importance sample's draws resampled by weight (over every mode it found), unless its weights sit on a few draws.
+  const startPoints = estimate ? startsFromDraws(estimate.sample, defaultWalkerCount(problem.space.dimension), rng) : undefined;
+  const bridge = markovBridgeEvidence(problem.space, problem.likelihood, problem.target, problem.maximum, rng, { seed, symmetries, ...(startPoints ? { startPoints } : {}) });
   if (bridge && Number.isFinite(bridge.logEvidence) && Number.isFinite(bridge.standardError)) {
     return {
       logEvidence: bridge.logEvidence,

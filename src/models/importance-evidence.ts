@@ -4,6 +4,7 @@ import {
   modeMixtureSample,
   paretoShapeThreshold,
   paretoSmoothedWeights,
+  type ImportanceSample,
   type PosteriorTarget,
 } from "../inference/index.js";
 import type { Rng } from "../random/rng.js";
@@ -26,10 +27,12 @@ export interface EvidenceEstimate {
   readonly draws: number;
 }
 
-/** What {@link importanceLogEvidence} returns: the estimate, and how many modes its proposal covered. */
+/** What {@link importanceLogEvidence} returns: the estimate, how many modes its proposal covered, and its draws. */
 export interface ImportanceEvidence extends EvidenceEstimate {
   /** Modes the proposal mixture had a component at (the distinct local maxima among those given). */
   readonly modes: number;
+  /** The weighted draws (of the canonical copy, with `symmetries`): where a sampler may start when k-hat failed. */
+  readonly sample: ImportanceSample;
 }
 
 /** Settings of {@link importanceLogEvidence}. */
@@ -104,7 +107,7 @@ export function importanceLogEvidence(
     covariance: robustModeCovariance,
   });
   if (sample.logRatios.length === 0) return undefined;
-  return { ...evidenceFromLogRatios(sample.logRatios), modes: sample.modes.length };
+  return { ...evidenceFromLogRatios(sample.logRatios), modes: sample.modes.length, sample };
 }
 
 /** `modeCovariance`, else (-H)^-1 from small steps at the mode ({@link pointCovariance}). */

@@ -18,11 +18,17 @@ export interface MarkovBridgeOptions {
   /** Most posterior draws kept for the estimate, thinned evenly along each chain (default 3000). */
   readonly maxDraws?: number;
   readonly symmetries?: readonly (readonly number[])[];
+  /**
+   * Where to start the walkers instead of a tight ball at the mode (`startPoints` of `samplePosterior`):
+   * draws of a failed importance sample resampled by their weights, spread over the modes it found.
+   */
+  readonly startPoints?: readonly Float64Array[];
 }
 
 /**
  * ln Z by bridge sampling ({@link bridgeLogEvidence}) from the walker ensemble's draws of the posterior
- * (`samplePosterior`, started at the mode already found, run to its convergence criteria or the budget),
+ * (`samplePosterior`, started at the mode already found or at `startPoints`, run to its convergence
+ * criteria or the budget),
  * after the ensemble's burn-in, thinned evenly to at most `maxDraws`. The second estimator of the
  * evidence, for a posterior that importance sampling from t components at its modes cannot cover.
  * `target` is the unconstrained posterior with the Jacobian of `space` and `likelihood`, and `maximum`
@@ -41,6 +47,7 @@ export function markovBridgeEvidence(
     sampler: "ensemble",
     maximum: { found: maximum, evaluations: 0 },
     maxEvaluations: options.maxEvaluations ?? 60_000,
+    ...(options.startPoints ? { startPoints: options.startPoints } : {}),
   });
   const chains = keptChains(sample.run, options.maxDraws ?? 3000);
   const estimate = bridgeLogEvidence(target, chains, rng, options.symmetries ? { symmetries: options.symmetries } : {});
