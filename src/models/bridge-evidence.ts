@@ -1,6 +1,6 @@
 import { effectiveSampleSize, studentTProposal, type PosteriorTarget, type StudentTProposal } from "../inference/index.js";
 import type { Rng } from "../random/rng.js";
-import { canonicalForm, canonicalTarget, permutationGroup } from "./importance-evidence.js";
+import { canonicalCopy } from "./importance-evidence.js";
 
 /** Draws of one Markov chain (or walker) from the posterior, in the target's coordinates, with their ln p. */
 export interface PosteriorChain {
@@ -63,10 +63,7 @@ export function bridgeLogEvidence(
   options: BridgeEvidenceOptions = {},
 ): BridgeEvidence | undefined {
   const d = target.dimension;
-  const group = permutationGroup(d, options.symmetries ?? []);
-  const folded = group.length > 1 ? canonicalTarget(target, group) : target;
-  const logCopies = Math.log(group.length);
-  const fold = (u: Float64Array) => (group.length > 1 ? canonicalForm(u, group) : u);
+  const { folded, fold, logCopies } = canonicalCopy(target, options.symmetries ?? []);
   const fitting: Float64Array[] = [];
   const estimating = chains.map((chain) => {
     const half = Math.floor(chain.points.length / 2);

@@ -92,11 +92,9 @@ export function importanceLogEvidence(
   options: ImportanceEvidenceOptions = {},
 ): ImportanceEvidence | undefined {
   const d = target.dimension;
-  const group = permutationGroup(d, options.symmetries ?? []);
-  const folded = group.length > 1 ? canonicalTarget(target, group) : target;
+  const { folded, fold } = canonicalCopy(target, options.symmetries ?? []);
   const listed = modes instanceof Float64Array ? [modes] : modes;
-  const starts = listed.map((mode) => (group.length > 1 ? canonicalForm(mode, group) : mode));
-  const sample = modeMixtureSample(folded, starts, rng, {
+  const sample = modeMixtureSample(folded, listed.map(fold), rng, {
     pilotDraws: Math.max(300, 50 * d),
     draws: Math.max(100, Math.round(options.draws ?? Math.max(1500, 250 * d))),
     maxDraws: options.maxDraws ?? 12_000,
@@ -127,6 +125,20 @@ export function pointCovariance(target: PosteriorTarget, mode: Float64Array): Fl
   return inverse.every(Number.isFinite) ? inverse : undefined;
 }
 
+/**
+ * The target restricted to its canonical copy under the group the `symmetries` generate
+ * ({@link canonicalTarget}; the target itself without symmetries), the map of a point into that copy
+ * ({@link canonicalForm}), and ln |G|.
+ */
+export function canonicalCopy(
+  target: PosteriorTarget,
+  symmetries: readonly (readonly number[])[],
+): { folded: PosteriorTarget; fold: (u: Float64Array) => Float64Array; logCopies: number } {
+  const group = permutationGroup(target.dimension, symmetries);
+  if (group.length === 1) return { folded: target, fold: (u) => u, logCopies: 0 };
+  return { folded: canonicalTarget(target, group), fold: (u) => canonicalForm(u, group), logCopies: Math.log(group.length) };
+}
+
 /** The image of u under pi: (pi u)_i = u_pi(i). */
 function permuted(u: ArrayLike<number>, pi: readonly number[], out: Float64Array): Float64Array {
   for (let i = 0; i < out.length; i++) out[i] = u[pi[i] ?? i] ?? 0;
@@ -144,7 +156,7 @@ function before(a: ArrayLike<number>, b: ArrayLike<number>): boolean {
 }
 
 /** The lexicographically smallest point of u's orbit under `group`. */
-export function canonicalForm(u: Float64Array, group: readonly (readonly number[])[]): Float64Array {
+function canonicalForm(u: Float64Array, group: readonly (readonly number[])[]): Float64Array {
   let best = Float64Array.from(u);
   const image = new Float64Array(u.length);
   for (const pi of group) {
@@ -158,7 +170,7 @@ export function canonicalForm(u: Float64Array, group: readonly (readonly number[
  * |G| p(u) on the canonical points C (u no greater, lexicographically, than any of its images), -Infinity
  * elsewhere: its integral is Z when p is invariant under the group.
  */
-export function canonicalTarget(target: PosteriorTarget, group: readonly (readonly number[])[]): PosteriorTarget {
+function canonicalTarget(target: PosteriorTarget, group: readonly (readonly number[])[]): PosteriorTarget {
   const logCopies = Math.log(group.length);
   const image = new Float64Array(target.dimension);
   const canonical = (u: Float64Array) => group.every((pi) => !before(permuted(u, pi, image), u));
