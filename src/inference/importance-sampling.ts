@@ -58,7 +58,7 @@ export interface ImportanceSamplingOptions {
   readonly shapeThreshold?: number;
   /**
    * Widen the pilot's covariance to each coordinate's conditional width measured on a grid through the mode
-   * ({@link widenedToConditionals}), for likelihoods that are not differentiable at the mode (lagged bands
+   * (`widenedToConditionals`), for likelihoods that are not differentiable at the mode (lagged bands
    * of a damped random walk); "shift" also moves the pilot to the conditional means. Default false.
    */
   readonly conditionalWidening?: boolean | "shift";

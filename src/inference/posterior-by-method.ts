@@ -36,7 +36,7 @@ export const MODE_MISS_MARGIN = 1;
 /** Each retried importance sample may take this many times the draws of the one before ({@link MethodPosteriorOptions.importanceRetries}). */
 export const IMPORTANCE_RETRY_GROWTH = 3;
 
-/** Most repeated mode searches after a draw beat the mode ({@link MODE_MISS_MARGIN}). */
+/** Most repeated mode searches after a draw beat the mode (`MODE_MISS_MARGIN`). */
 export const MODE_RESEARCHES = 2;
 
 /**
@@ -87,7 +87,7 @@ export interface MethodPosteriorOptions extends Omit<PosteriorSamplingOptions, "
   readonly restartFrom?: (maximum: Readonly<Record<string, number>>) => Readonly<Record<string, number>> | undefined;
   /**
    * Further importance samples from the same mode when one fails its diagnostics, each allowed
-   * {@link IMPORTANCE_RETRY_GROWTH} times the draws of the one before, before MCMC runs (default 0). For
+   * `IMPORTANCE_RETRY_GROWTH` times the draws of the one before, before MCMC runs (default 0). For
    * posteriors the walker ensemble mixes slowly in (a joint fit with lags: 5e5 to over 2e6 evaluations
    * where tens of thousands of importance draws cost a few seconds).
    */
@@ -146,9 +146,9 @@ export interface MethodPosterior {
  * The posterior of a model by the cheapest method whose diagnostics hold: the maximum a posteriori
  * (several starts, as in {@link samplePosterior}, and one more from `restartFrom` when given), then the
  * mode of the unconstrained density, then Pareto-smoothed importance sampling from a Student-t at that
- * mode ({@link importanceSample}); a draw above the mode by more than {@link MODE_MISS_MARGIN} sends the
+ * mode ({@link importanceSample}); a draw above the mode by more than `MODE_MISS_MARGIN` sends the
  * search there again (and, unless the sample was accepted, importance sampling from the new mode, at
- * most {@link MODE_RESEARCHES} times); a failed sample is retried with more draws `importanceRetries`
+ * most `MODE_RESEARCHES` times); a failed sample is retried with more draws `importanceRetries`
  * times; if k-hat or the ESS still fail, the MCMC sampler of `options.sampler` from the best maximum,
  * started at draws of the failed sample, charged with everything spent so far. With `method: "mcmc"` the sampler runs
  * directly.
