@@ -62,7 +62,9 @@ export function emptyMerge(count: number): BandMerge {
  * arrays). One pass: at each step the earliest of the B bands' next shifted times is taken (kept in a
  * B-vector, so the scan reads no data arrays) and its data copied across. O(N B).
  *
- * @example mergeBands(bandColumns([Float64Array.of(0, 2), Float64Array.of(1)], ...), [0, 1.5]) // times -0.5, 0, 2
+ * @example
+ * const columns = bandColumns([Float64Array.of(0, 2), Float64Array.of(1)], new Float64Array(3), Float64Array.of(5, 6, 7));
+ * mergeBands(columns, [0, 1.5]).time // -0.5, 0, 2 (band 1's point first); .values // 7, 5, 6
  */
 export function mergeBands(columns: BandColumns, lags: ArrayLike<number>, out?: BandMerge): BandMerge {
   const { time, errorVariance, values, offsets } = columns;
