@@ -35,7 +35,7 @@ export {
 export { unconstrainedPosterior, type PhysicalLikelihood, type UnconstrainedPosteriorOptions } from "./unconstrained-posterior.js";
 export { minimizeLbfgs, type MinimizationStop, type LbfgsOptions, type LocalMinimum, type GradientObjective } from "./lbfgs.js";
 export { minimizeNelderMead, type NelderMeadOptions } from "./nelder-mead.js";
-export { findMaximumPosterior, startingPoints, type MaximumPosteriorOptions, type MaximumPosterior, type LocalMaximum } from "./maximum-posterior.js";
+export { findMaximumPosterior, NoFiniteStartError, startingPoints, type MaximumPosteriorOptions, type MaximumPosterior, type LocalMaximum } from "./maximum-posterior.js";
 export { modeScales } from "./mode-curvature.js";
 export { stretchProposal, differentialEvolutionProposal, defaultWalkerProposals, type WalkerProposal, type WeightedProposal } from "./walker-proposals.js";
 export { createWalkerEnsemble, defaultWalkerCount, type WalkerEnsembleOptions } from "./walker-ensemble.js";

@@ -73,7 +73,7 @@ export function findMaximumPosterior(target: PosteriorTarget, options: MaximumPo
     });
   }
   if (runs.length === 0) {
-    throw new RangeError("maximum a posteriori: the log density is not finite at any starting point");
+    throw new NoFiniteStartError();
   }
   runs.sort((a, b) => b.logPosterior - a.logPosterior);
   const best = runs[0];
@@ -94,4 +94,16 @@ export function startingPoints(
   const points = [space.toUnconstrained(space.physicalFromRecord(initial ?? {}))];
   for (let i = 1; i < count; i++) points.push(space.drawFromPrior(rng));
   return points;
+}
+
+/**
+ * No starting point of the search has a finite log density: the model cannot be evaluated near its
+ * prior's typical values (for a Gaussian process, a covariance that cannot be factorised at any of them).
+ * A RangeError, so callers that do not know it still see one; the fit explains it in terms of the data.
+ */
+export class NoFiniteStartError extends RangeError {
+  constructor() {
+    super("maximum a posteriori: the log density is not finite at any starting point");
+    this.name = "NoFiniteStartError";
+  }
 }

@@ -1,7 +1,7 @@
 import type { MethodPosterior, PosteriorDraws } from "../inference/index.js";
 import type { LightCurve } from "../lightcurve/light-curve.js";
 import { summarizeLightCurve, type DataSummary } from "./data-summary.js";
-import { requireEnoughPoints, requireVariableData } from "./fit-data-support.js";
+import { explainingUnfittable, requireEnoughPoints, requireVariableData } from "./fit-data-support.js";
 import { combinedDiagnostics, requireKeptDraws } from "./fit-diagnostics.js";
 import { restoredPosterior } from "./fit-mean-restoration.js";
 import { planModes } from "./fit-mode-plan.js";
@@ -90,13 +90,16 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     ...(options.order !== undefined ? { order: carmaOrderOf(options.order) } : {}),
   });
   requireEnoughPoints(lightCurve, model);
-  const { conditioning, robust } = noiseConditioning(model, lightCurve, options.robust === true);
+  const { conditioning, robust } = explainingUnfittable(lightCurve, summary, options.model, () => noiseConditioning(model, lightCurve, options.robust === true));
   timer.lap("robust noise");
   const likelihood = modelLikelihood(model, conditioning);
-  const plan = planModes(model, likelihood, periodGuess, conditioning.time, peaks.slice(1));
-  timer.lap("modes");
-  const { runs, weights, collapsed } = sampleStarts(model, conditioning, likelihood, plan, options, clock);
-  timer.lap("sampling");
+  const { plan, runs, weights, collapsed } = explainingUnfittable(lightCurve, summary, options.model, () => {
+    const plan = planModes(model, likelihood, periodGuess, conditioning.time, peaks.slice(1));
+    timer.lap("modes");
+    const sampled = sampleStarts(model, conditioning, likelihood, plan, options, clock);
+    timer.lap("sampling");
+    return { plan, ...sampled };
+  });
   const pooled = pooledDraws(runs.map((run) => run.draws), weights);
   const kept = thinnedDraws(pooled, summaryDrawLimit(summary.n));
   timer.lap("pooling");

@@ -2,6 +2,7 @@ import { writeFileSync } from "node:fs";
 import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { runInProcess } from "../cli/run-cli-in-process.js";
+import { caseCsv, type FitCase } from "../helpers/fit-property-case.js";
 
 /**
  * Degenerate data (issue 12): a constant light curve fitted with --model quasi-periodic ended in
@@ -47,6 +48,18 @@ describe("data that cannot support a fit", () => {
     );
     expectOneLine(await fitCsv(rowsOf(30, (i) => 17 + 0.1 * Math.sin(i)), "--model", "oscillator", "--min-period", "5", "--max-period", "4"), /--min-period \(5\) must be below --max-period \(4\)/);
   });
+
+  it("errors too small for double precision at a dense cadence: one line naming the cause and the cure", async () => {
+    // Case 474111 of the long property run (test/slow/fit-properties.test.ts): 89,585 fluxes in one season,
+    // errors 2e-8 of the spread; every start of the oscillator's search had a covariance that cannot be
+    // factorised, and the fit ended in "maximum a posteriori: the log density is not finite at any starting point".
+    const c: FitCase = { cadence: "single-season", n: 89585, unit: "flux", logError: -6, outliers: 0, timeOffset: 2460000, model: "oscillator", robust: false, seed: 474111 };
+    const run = await runInProcess(["--version"]);
+    const path = join(run.cwd, "dense.csv");
+    writeFileSync(path, caseCsv(c));
+    const result = await runInProcess(["fit", path, "--quiet", "--max-evaluations", "40000", "--model", "oscillator", "--seed", "474111"], run.cwd);
+    expectOneLine(result, /dense\.csv: the oscillator model's covariance cannot be factorised at any starting point: the errors \(median [\d.e-]+ of the values' spread\) are too small .*\(--jitter\)/);
+  }, 120_000);
 
   it("placeholder rows do not count as measurements", async () => {
     const rows = rowsOf(3, (i) => 17 + 0.1 * i) + "59100,99,99\n59101,99.99,0.1\n59102,18,-999\n";
