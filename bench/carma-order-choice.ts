@@ -32,14 +32,10 @@ import { fitLightCurve } from "../src/models/fit-light-curve.js";
 import { buildModel } from "../src/models/light-curve-model.js";
 import { createRng } from "../src/random/rng.js";
 import { formatSignificant, markdownTable } from "./engine-timing.js";
+import { numberArgument } from "./command-line.js";
 
 const TRUTH: Readonly<Record<string, number>> = { sigma: 0.2, period0: 90, quality0: 1.5, ma1: 25 };
 const ERROR = 0.015;
-
-function argument(name: string, fallback: number): number {
-  const index = process.argv.indexOf(`--${name}`);
-  return index >= 0 ? Number(process.argv[index + 1]) : fallback;
-}
 
 function lightCurveOf(k: number, time: Float64Array, value: Float64Array): LightCurve {
   const error = Float64Array.from(time, () => ERROR);
@@ -67,8 +63,8 @@ function simulated(k: number, drawMa1: boolean): { lightCurve: LightCurve; truth
 }
 
 function main(): void {
-  const curves = argument("curves", 20);
-  const first = argument("first", 0);
+  const curves = numberArgument("curves", 20);
+  const first = numberArgument("first", 0);
   // Either half alone, to split a long run over processes: the order choice, or the (2,1) posterior.
   const skipFit = process.argv.includes("--skip-fit");
   const fitOnly = process.argv.includes("--fit-only");

@@ -25,16 +25,12 @@ import { QUASAR_BAND_NAMES, simulatedSixBandQuasar } from "../src/models/simulat
 import { createRng } from "../src/random/rng.js";
 import { formatSignificant, markdownTable, median } from "./engine-timing.js";
 import { rankOfTruth, rankUniformity } from "./samplers-calibration.js";
+import { numberArgument } from "./command-line.js";
 
-
-function argument(name: string, fallback: number): number {
-  const index = process.argv.indexOf(`--${name}`);
-  return index >= 0 ? Number(process.argv[index + 1]) : fallback;
-}
 
 function main(): void {
-  const curves = argument("curves", 40);
-  const seed = argument("seed", 14);
+  const curves = numberArgument("curves", 40);
+  const seed = numberArgument("seed", 14);
   const lags = process.argv.includes("--lags");
   const ranked = ["tau", "sigma", "amplitude.u", "amplitude.r", "amplitude.y", ...(lags ? ["lag.u", "lag.y"] : [])];
   const ranks: number[][] = ranked.map(() => []);

@@ -18,6 +18,7 @@ import { fitLightCurve } from "../src/models/fit-light-curve.js";
 import { simulateInterleavedBands } from "../src/models/simulated-bands.js";
 import { createRng } from "../src/random/rng.js";
 import { formatSignificant, markdownTable, median } from "./engine-timing.js";
+import { numberArgument } from "./command-line.js";
 
 const TAU = 150;
 const NAMES = ["u", "g", "r", "i", "z", "y"];
@@ -25,13 +26,8 @@ const AMPLITUDES = [1.3, 1.18, 1.06, 0.94, 0.82, 0.7];
 const DEPTHS = [23.5, 24.5, 24.3, 23.9, 23.3, 22.5];
 const LAGS = [-2, 0, 2, 4, 6, 8];
 
-function argument(name: string, fallback: number): number {
-  const index = process.argv.indexOf(`--${name}`);
-  return index >= 0 ? Number(process.argv[index + 1]) : fallback;
-}
-
 function main(): void {
-  const curves = argument("curves", 5);
+  const curves = numberArgument("curves", 5);
   const single = process.argv.includes("--single");
   const lags = process.argv.includes("--lags");
   const rows: string[][] = [];

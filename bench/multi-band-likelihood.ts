@@ -13,13 +13,9 @@ import { MultiBandProcess } from "../src/gp/multi-band-process.js";
 import { kernels, type Kernel } from "../src/kernels/index.js";
 import { createRng } from "../src/random/rng.js";
 import { calibrateRepeat, formatSignificant, markdownTable, median, nanosecondsPerPoint, timeBatch } from "./engine-timing.js";
+import { numberArgument } from "./command-line.js";
 
 const BANDS = 6;
-
-function argument(name: string, fallback: number): number {
-  const index = process.argv.indexOf(`--${name}`);
-  return index >= 0 ? Number(process.argv[index + 1]) : fallback;
-}
 
 /** N epochs in seasons (200 d on, 165 d off), visited in turn by six bands. */
 function invented(n: number) {
@@ -40,8 +36,8 @@ function invented(n: number) {
 }
 
 function main(): void {
-  const rounds = argument("rounds", 7);
-  const batchSeconds = argument("batch", 0.3);
+  const rounds = numberArgument("rounds", 7);
+  const batchSeconds = numberArgument("batch", 0.3);
   const rows: string[][] = [];
   const sizesIndex = process.argv.indexOf("--sizes");
   const sizes = sizesIndex >= 0 ? (process.argv[sizesIndex + 1] ?? "").split(",").map(Number) : [360, 3600, 36000, 360000];

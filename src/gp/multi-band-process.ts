@@ -304,14 +304,7 @@ export class MultiBandProcess {
    */
   private scaled(): { merge: BandMerge; residual: Float64Array; noise: Float64Array } {
     const order = this.joint(this.lag);
-    const count = this.amplitude.length;
-    const inverse = new Float64Array(count);
-    const extra = new Float64Array(count);
-    const shift = this.mean;
-    for (let b = 0; b < count; b++) {
-      inverse[b] = 1 / this.amplitude[b];
-      extra[b] = this.jitter[b] * this.jitter[b];
-    }
+    const { inverse, shift, extra } = this.scalingIn(order, this.mean);
     const { merge, residual, noise } = order;
     const { band, errorVariance, values } = merge;
     for (let k = 0; k < residual.length; k++) {

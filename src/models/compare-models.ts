@@ -20,6 +20,7 @@ import { periodogramPeriod } from "./fit-period-search.js";
 import { buildModel, modelLikelihood, type ModelName } from "./light-curve-model.js";
 import { carmaSymmetries, MAX_CARMA_ORDER, type CarmaOrder } from "./carma-model.js";
 import { modelPeriodRange, periodRange, type PeriodLimits } from "./period-range.js";
+import { explainingUnfittable } from "./fit-data-support.js";
 
 /** One model's standing in a comparison. */
 export interface ModelStanding {
@@ -123,7 +124,7 @@ export function compareModels(
           starts.push(model.space.toUnconstrained(model.space.physicalFromRecord({ ...model.initialGuess, period })));
       }
     }
-    const best = findMaximumPosterior(target, { starts });
+    const best = explainingUnfittable(lightCurve, summary, name, () => findMaximumPosterior(target, { starts }));
     const laplace = laplaceLogEvidence(target, best.x);
     const symmetries = order ? carmaSymmetries(order, model.space.free.map((p) => p.name)) : [];
     // Every local maximum the starts reached within ln p 10 of the best: the proposal gets a component at each.

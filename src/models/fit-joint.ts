@@ -17,6 +17,7 @@ import { lagScanGuess } from "./joint-lag-scan.js";
 import { childSeed, createRng } from "../random/rng.js";
 import { runRecords } from "./fit-run-records.js";
 import { HOROLOGIUM_VERSION } from "../version.js";
+import { explainingUnfittable } from "./fit-data-support.js";
 
 /** Options of a joint multi-band fit. */
 export interface JointFitOptions extends FitOptions {
@@ -127,22 +128,25 @@ export function fitJointDetailed(lightCurves: readonly LightCurve[], options: Jo
   const collapsed = (options.sampler ?? DEFAULT_SAMPLER) === "ensemble" ? collapseJointMeans(model, lightCurves) : undefined;
   const space = collapsed?.space ?? model.space;
   const sampledOnly = (record: Readonly<Record<string, number>>) => Object.fromEntries(Object.entries(record).filter(([name]) => space.names.includes(name)));
-  const posterior = posteriorByMethod(space, collapsed?.likelihood ?? jointLikelihood(model, lightCurves), {
-    seed: options.seed,
-    initial: sampledOnly({ ...model.initialGuess, ...lagScanGuess(model, lightCurves) }),
-    starts: model.lags ? JOINT_LAG_STARTS : JOINT_STARTS,
-    ...(model.lags ? { restartFrom: (maximum: Readonly<Record<string, number>>) => sampledOnly({ ...maximum, ...lagScanGuess(model, lightCurves, maximum) }) } : {}),
-    ...(model.lags ? { importanceRetries: JOINT_LAG_IMPORTANCE_RETRIES } : {}),
-    maxEvaluations: options.maxEvaluations ?? DEFAULT_FIT_BUDGET,
-    ...(options.sampler ? { sampler: options.sampler } : {}),
-    method: fitMethod(model, options),
-    importanceMaxDimension: JOINT_IMPORTANCE_MAX_DIMENSION,
-    nelderMead: JOINT_MODE_SEARCH,
-    ...(model.lags || options.importance ? { importance: { ...(model.lags ? JOINT_LAG_IMPORTANCE : {}), ...options.importance } } : {}),
-    ...(options.onProgress ? { onProgress: options.onProgress } : {}),
-    ...(options.signal ? { signal: options.signal } : {}),
-    clock,
-  });
+  // No start with a finite density: one line about the data (fit-data-support.ts), as for one band.
+  const posterior = explainingUnfittable(lightCurves[reference], model.summary, options.model, () =>
+    posteriorByMethod(space, collapsed?.likelihood ?? jointLikelihood(model, lightCurves), {
+      seed: options.seed,
+      initial: sampledOnly({ ...model.initialGuess, ...lagScanGuess(model, lightCurves) }),
+      starts: model.lags ? JOINT_LAG_STARTS : JOINT_STARTS,
+      ...(model.lags ? { restartFrom: (maximum: Readonly<Record<string, number>>) => sampledOnly({ ...maximum, ...lagScanGuess(model, lightCurves, maximum) }) } : {}),
+      ...(model.lags ? { importanceRetries: JOINT_LAG_IMPORTANCE_RETRIES } : {}),
+      maxEvaluations: options.maxEvaluations ?? DEFAULT_FIT_BUDGET,
+      ...(options.sampler ? { sampler: options.sampler } : {}),
+      method: fitMethod(model, options),
+      importanceMaxDimension: JOINT_IMPORTANCE_MAX_DIMENSION,
+      nelderMead: JOINT_MODE_SEARCH,
+      ...(model.lags || options.importance ? { importance: { ...(model.lags ? JOINT_LAG_IMPORTANCE : {}), ...options.importance } } : {}),
+      ...(options.onProgress ? { onProgress: options.onProgress } : {}),
+      ...(options.signal ? { signal: options.signal } : {}),
+      clock,
+    }),
+  );
   const sampled = posterior.draws;
   const draws = collapsed ? restoreBandMeans(model, collapsed, sampled, createRng(childSeed(options.seed, 200))) : sampled;
   let maximumPosterior: Record<string, number> = { ...posterior.maximum };

@@ -90,15 +90,16 @@ export function fitLightCurveDetailed(lightCurve: LightCurve, options: FitOption
     ...(options.order !== undefined ? { order: carmaOrderOf(options.order) } : {}),
   });
   requireEnoughPoints(lightCurve, model);
-  const { conditioning, robust } = explainingUnfittable(lightCurve, summary, options.model, () => noiseConditioning(model, lightCurve, options.robust === true));
-  timer.lap("robust noise");
-  const likelihood = modelLikelihood(model, conditioning);
-  const { plan, runs, weights, collapsed } = explainingUnfittable(lightCurve, summary, options.model, () => {
-    const plan = planModes(model, likelihood, periodGuess, conditioning.time, peaks.slice(1));
+  // The stages that search the posterior, each of which can find no start with a finite density.
+  const { conditioning, robust, likelihood, plan, runs, weights, collapsed } = explainingUnfittable(lightCurve, summary, options.model, () => {
+    const noise = noiseConditioning(model, lightCurve, options.robust === true);
+    timer.lap("robust noise");
+    const likelihood = modelLikelihood(model, noise.conditioning);
+    const plan = planModes(model, likelihood, periodGuess, noise.conditioning.time, peaks.slice(1));
     timer.lap("modes");
-    const sampled = sampleStarts(model, conditioning, likelihood, plan, options, clock);
+    const sampled = sampleStarts(model, noise.conditioning, likelihood, plan, options, clock);
     timer.lap("sampling");
-    return { plan, ...sampled };
+    return { ...noise, likelihood, plan, ...sampled };
   });
   const pooled = pooledDraws(runs.map((run) => run.draws), weights);
   const kept = thinnedDraws(pooled, summaryDrawLimit(summary.n));

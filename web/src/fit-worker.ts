@@ -107,8 +107,6 @@ function oneBandFit(lightCurve: LightCurve, request: FitRequest, notes: readonly
 function jointFit(lightCurves: readonly LightCurve[], request: FitRequest, notes: readonly string[]): FittedForPage {
   if (request.robust)
     throw new InputError("robust noise fits one band at a time (the joint model of several bands has none): choose one band on its own", { file: request.fileName });
-  if (request.referenceBand !== undefined && !lightCurves.some((lc) => lc.band === request.referenceBand))
-    throw new InputError(`reference band "${request.referenceBand}" is not in the file (bands: ${lightCurves.map((lc) => lc.band).join(", ")})`, { file: request.fileName });
   const fit = fitJointDetailed(lightCurves, {
     ...sharedOptions(request),
     ...(request.lags ? { lags: true } : {}),
